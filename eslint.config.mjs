@@ -1,0 +1,23 @@
+import js from "@eslint/js";
+import tseslint from "typescript-eslint";
+
+export default tseslint.config(
+  { ignores: ["dist/**", "node_modules/**", "coverage/**", "bin/**", "test-output/**"] },
+  js.configs.recommended,
+  ...tseslint.configs.recommended,
+  {
+    rules: {
+      "no-eval": "error",
+      "no-implied-eval": "error",
+      "no-new-func": "error",
+      "@typescript-eslint/no-unused-vars": ["error", { argsIgnorePattern: "^_", varsIgnorePattern: "^_" }],
+    },
+  },
+  {
+    files: ["src/core/**/*.ts"],
+    rules: {
+      "no-restricted-globals": ["error", "document", "window", "Office", "Excel", "fetch", "XMLHttpRequest"],
+      "no-restricted-imports": ["error", { patterns: ["fs", "path", "node:*", "*/functions/*", "*/taskpane/*", "*/cli/*"] }],
+    },
+  },
+);

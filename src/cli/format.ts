@@ -1,0 +1,19 @@
+/**
+ * Plain-text tables for the terminal: right-aligned numbers in engineering-friendly precision.
+ */
+
+/** Formats a number with 4 significant digits, or "—" for null. */
+export function num(value: number | null | undefined, digits = 4): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return "—";
+  if (value === 0) return "0";
+  const abs = Math.abs(value);
+  if (abs >= 1e6 || abs < 1e-3) return value.toExponential(digits - 1);
+  return Number(value.toPrecision(digits)).toString();
+}
+
+/** Renders rows under a header line, columns right-aligned and separated by two spaces. */
+export function table(headers: string[], rows: string[][]): string {
+  const widths = headers.map((h, i) => Math.max(h.length, ...rows.map((r) => (r[i] ?? "").length)));
+  const line = (cells: string[]) => cells.map((c, i) => c.padStart(widths[i] as number)).join("  ");
+  return [line(headers), widths.map((w) => "-".repeat(w)).join("  "), ...rows.map(line)].join("\n");
+}

@@ -1,0 +1,66 @@
+/**
+ * The `rheoledger` command line. `main(argv, io)` returns the exit code and writes through `io`,
+ * so tests run it in-process; bin/rheoledger.js wires it to the real process.
+ * Output is assembled first and written once: a failure prints only the error, never half a table.
+ */
+import { RheoError } from "../core/errors";
+import { parseArgs } from "./args";
+import { REDUCE_FLAGS, runReduce } from "./reduceCommand";
+
+export interface CliIO {
+  readFile(path: string): string;
+  stdout(text: string): void;
+  stderr(text: string): void;
+}
+
+const USAGE = `rheoledger — capillary-rheometer data reduction
+
+Usage:
+  rheoledger reduce FILE.csv [options]
+
+Options for reduce:
+${Object.entries(REDUCE_FLAGS)
+  .map(([k, s]) => `  --${k}${s.value ? " VALUE" : ""}`.padEnd(28) + s.description)
+  .join("\n")}
+
+The CSV has one header row of "quantity [unit]" cells: die_diameter, die_length, pressure, and
+flow_rate, or piston_speed with barrel_diameter, or mass_rate with density; temperature optional.
+`;
+
+/** Runs the command line; returns the process exit code (0 ok, 1 bad input, 2 usage). */
+export function main(argv: string[], io: CliIO): number {
+  if (argv.length === 0 || argv[0] === "--help" || argv[0] === "-h" || argv[0] === "help") {
+    io.stdout(USAGE);
+    return argv.length === 0 ? 2 : 0;
+  }
+  try {
+    const command = argv[0];
+    if (command !== "reduce") {
+      io.stderr(`rheoledger: unknown command "${command}"; accepted: reduce\n\n${USAGE}`);
+      return 2;
+    }
+    const args = parseArgs(argv, REDUCE_FLAGS);
+    const file = args.positionals[0];
+    if (!file || args.positionals.length > 1) {
+      io.stderr(`rheoledger reduce: give exactly one CSV file\n\n${USAGE}`);
+      return 2;
+    }
+    let text: string;
+    try {
+      text = io.readFile(file);
+    } catch (e) {
+      io.stderr(`rheoledger: cannot read ${file}: ${(e as Error).message}\n`);
+      return 1;
+    }
+    const out = runReduce(text, args);
+    io.stdout(out.stdout);
+    return 0;
+  } catch (e) {
+    if (e instanceof RheoError) {
+      io.stderr(`rheoledger: ${e.message}\n`);
+      return 1;
+    }
+    io.stderr(`rheoledger: internal error: ${(e as Error).stack ?? String(e)}\n`);
+    return 70;
+  }
+}

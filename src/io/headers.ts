@@ -1,0 +1,61 @@
+/**
+ * Column headers of raw data: `quantity [unit]` (also `quantity (unit)`), shared by the CLI, the
+ * worksheet functions and the task pane so that all three read a table the same way.
+ */
+import { Quantity, isUnitOf, acceptedUnits } from "../core/units";
+
+/** The column quantities Rheoledger reads, with the physical quantity of their unit. */
+export const COLUMN_QUANTITIES = {
+  die_diameter: { quantity: "length", description: "die bore D" },
+  die_length: { quantity: "length", description: "die land length L" },
+  piston_speed: { quantity: "speed", description: "piston (crosshead) speed" },
+  barrel_diameter: { quantity: "length", description: "barrel bore" },
+  flow_rate: { quantity: "volumetricFlow", description: "volumetric flow rate" },
+  mass_rate: { quantity: "massRate", description: "extrudate mass rate" },
+  density: { quantity: "density", description: "melt density at test temperature" },
+  pressure: { quantity: "pressure", description: "pressure drop over the die" },
+  temperature: { quantity: "temperature", description: "melt temperature" },
+} as const satisfies Record<string, { quantity: Quantity; description: string }>;
+
+export type ColumnName = keyof typeof COLUMN_QUANTITIES;
+
+/** What a header cell was read as. */
+export interface ColumnInfo {
+  /** 0-based column index */
+  index: number;
+  header: string;
+  /** the recognised quantity name, or null */
+  name: ColumnName | null;
+  /** the unit text as written, or null when none was given */
+  unit: string | null;
+  /** why the column was not recognised or its unit not accepted, if so */
+  problem: string | null;
+}
+
+/** Normalises a quantity name: lower case, spaces and hyphens to underscores. */
+export function normaliseColumnName(text: string): string {
+  return text.trim().toLowerCase().replace(/[\s-]+/g, "_");
+}
+
+/**
+ * Reads one header cell. `pressure [bar]` → { name: "pressure", unit: "bar" }.
+ * @example readHeader("Die diameter [mm]", 0).name // "die_diameter"
+ */
+export function readHeader(header: string, index: number): ColumnInfo {
+  const match = /^\s*([^[(]+?)\s*(?:[[(]\s*([^\])]*?)\s*[\])])?\s*$/.exec(header);
+  const rawName = match?.[1] ?? header;
+  const unit = match?.[2] ?? null;
+  const key = normaliseColumnName(rawName);
+  if (!(key in COLUMN_QUANTITIES)) {
+    return { index, header, name: null, unit, problem: `"${header}" is not a known quantity; known: ${Object.keys(COLUMN_QUANTITIES).join(", ")}` };
+  }
+  const name = key as ColumnName;
+  const quantity = COLUMN_QUANTITIES[name].quantity;
+  if (unit === null) {
+    return { index, header, name, unit, problem: `"${header}" has no unit; write it as "${name} [unit]" with one of ${acceptedUnits(quantity).join(", ")}` };
+  }
+  if (!isUnitOf(quantity, unit)) {
+    return { index, header, name, unit, problem: `"${header}": unknown ${quantity} unit "${unit}"; accepted: ${acceptedUnits(quantity).join(", ")}` };
+  }
+  return { index, header, name, unit, problem: null };
+}
