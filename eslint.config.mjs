@@ -14,6 +14,12 @@ export default tseslint.config(
     },
   },
   {
+    files: ["scripts/**/*.mjs", "scripts/**/*.js", "*.js", "*.mjs"],
+    languageOptions: {
+      globals: { process: "readonly", console: "readonly", Buffer: "readonly", URL: "readonly", setTimeout: "readonly", clearTimeout: "readonly", __dirname: "readonly", require: "readonly", module: "writable" },
+    },
+  },
+  {
     files: ["src/core/**/*.ts"],
     rules: {
       "no-restricted-globals": ["error", "document", "window", "Office", "Excel", "fetch", "XMLHttpRequest"],

@@ -39,22 +39,27 @@ export interface RawTable {
   warnings: Warning[];
 }
 
-/** A cell as a number, or null when blank; throws a `value` error naming column and row. */
-export function readNumberCell(cell: unknown, where: () => string, decimalComma: boolean): number | null {
+/**
+ * A cell as a number, or null when blank; numbers stored as text are read.
+ * @param argument names the column in the error, e.g. `pressure [bar] (column 5)`
+ * @param place names the row in the error, e.g. `line 7` or `row 4`
+ * @throws RheoError("value"): `pressure [bar] (column 5): line 7 is text "n/a", not a number`
+ */
+export function readNumberCell(cell: unknown, argument: string, place: string, decimalComma: boolean): number | null {
   if (cell === null || cell === undefined) return null;
   if (typeof cell === "number") {
-    if (!Number.isFinite(cell)) throw new RheoError("value", where(), `is not a finite number (${String(cell)})`);
+    if (!Number.isFinite(cell)) throw new RheoError("value", argument, `${place} is not a finite number (${String(cell)})`);
     return cell;
   }
-  if (typeof cell === "boolean") throw new RheoError("value", where(), `is a TRUE/FALSE value, not a number`);
+  if (typeof cell === "boolean") throw new RheoError("value", argument, `${place} is a TRUE/FALSE value, not a number`);
   if (typeof cell === "string") {
     let text = cell.trim();
     if (text === "") return null;
     if (decimalComma && /^[-+]?\d*,\d+([eE][-+]?\d+)?$/.test(text)) text = text.replace(",", ".");
     if (/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(text)) return Number(text);
-    throw new RheoError("value", where(), `is text "${cell}", not a number`);
+    throw new RheoError("value", argument, `${place} is text "${cell}", not a number`);
   }
-  throw new RheoError("value", where(), `is not a number (${typeof cell})`);
+  throw new RheoError("value", argument, `${place} is not a number (${typeof cell})`);
 }
 
 /**
@@ -122,8 +127,7 @@ export function readRawTable(cells: unknown[][], options: Partial<RawTableOption
     const blanks: ColumnName[] = [];
     for (const name of used) {
       const col = byName.get(name) as ColumnInfo;
-      const where = () => `${col.header} (column ${col.index + 1}): ${opt.rowWord} ${number}`;
-      const v = readNumberCell(rowCells[col.index], where, opt.decimalComma);
+      const v = readNumberCell(rowCells[col.index], `${col.header} (column ${col.index + 1})`, `${opt.rowWord} ${number}`, opt.decimalComma);
       if (v === null) blanks.push(name);
       else values.set(name, toSI(v, col.unit as string, COLUMN_QUANTITIES[name].quantity, col.header));
     }
