@@ -15,7 +15,7 @@
  * - "global": one polynomial of degree 1–3 over all points;
  * - "difference": central finite differences (one-sided at the ends); noisy, for comparison.
  * Measured on exact Carreau data (η0 = 8000 Pa·s, λ = 0.8 s, n = 0.35; 10 rates over 10–3000 1/s,
- * flow integral by quadrature), the worst wall-rate errors were: transition 0.10 %, local quadratic
+ * flow integral by quadrature), the worst wall-rate errors were: transition 0.14 %, local quadratic
  * 1.7 %, global cubic 1.9 %, global quadratic 3.2 %, finite difference 1.5 %; with 1 % pressure
  * noise (200 draws) the rms errors were 1.2 %, 1.5 %, 1.3 %, 1.2 % and 2.0 %. Hence the default.
  * test/rabinowitsch.test.ts keeps these figures honest.

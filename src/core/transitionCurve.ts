@@ -8,17 +8,65 @@
  * This is the log–log form of the Carreau–Yasuda law (Yasuda, Armstrong & Cohen 1981,
  * Rheol. Acta 20, 163: n₁ = 1, n₂ = n, x₀ = −ln λ), with the low-rate slope n₁ left free so the
  * same shape follows a yield-stress paste (n' rising from near 0) as well as a melt (n' falling
- * from 1). It is fitted by Levenberg–Marquardt (ml-levenberg-marquardt) with an analytic
- * Jacobian, and is compared with a quadratic by the corrected Akaike criterion
+ * from 1). It is fitted by the core's Levenberg–Marquardt solver (fit/levenbergMarquardt.ts) with
+ * an analytic Jacobian, the bounded parameters mapped through logistic transforms, and is compared with a quadratic by the corrected Akaike criterion
  * (Hurvich & Tsai 1989, Biometrika 76, 297) so that noise on a near-power-law curve is not
  * mistaken for a transition.
  */
-import { levenbergMarquardt } from "ml-levenberg-marquardt";
+import { levenbergMarquardt } from "./fit/levenbergMarquardt";
 import { fitLine, fitPolynomial, polynomialSlope } from "./regression";
 
-/** Bounds on (c₀, n₁, n₂, a, x₀); a ≤ 3 keeps the step no sharper than a Carreau knee (a = 2). */
-const MIN = [-1e9, 0.01, 0.01, 0.3, -50];
-const MAX = [1e9, 1.5, 1.5, 3, 50];
+/** Bounds on (n₁, n₂, a, x₀); a ≤ 3 keeps the step no sharper than a Carreau knee (a = 2). */
+const MIN = [0.01, 0.01, 0.3, -50];
+const MAX = [1.5, 1.5, 3, 50];
+const SOLVER = { maxIterations: 200, functionTolerance: 1e-12, stepTolerance: 1e-12, gradientTolerance: 1e-12 };
+
+/** Bounded parameter p = lo + (hi − lo)·σ(u) and its derivative dp/du. */
+function bounded(u: number, i: number): [number, number] {
+  const lo = MIN[i] as number;
+  const hi = MAX[i] as number;
+  const g = logistic(u);
+  return [lo + (hi - lo) * g, (hi - lo) * g * (1 - g)];
+}
+
+function unbounded(p: number, i: number): number {
+  const lo = MIN[i] as number;
+  const hi = MAX[i] as number;
+  const f = Math.min(1 - 1e-9, Math.max(1e-9, (p - lo) / (hi - lo)));
+  return Math.log(f / (1 - f));
+}
+
+/** Least-squares fit of the curve to (t, y) from a start (c₀, n₁, n₂, a, x₀); returns parameters and SSR. */
+function fitCurve(t: number[], y: number[], start: number[]): { p: number[]; ssr: number } {
+  const m = t.length;
+  const toParams = (u: ArrayLike<number>) => [u[0] as number, ...[1, 2, 3, 4].map((j) => bounded(u[j] as number, j - 1)[0])];
+  const result = levenbergMarquardt(
+    {
+      residualCount: m,
+      parameterCount: 5,
+      evaluate(u, residuals, jac) {
+        const p = toParams(u);
+        const f = curve(p);
+        const J = jacobian(p);
+        const scale = [1, ...[1, 2, 3, 4].map((j) => bounded(u[j] as number, j - 1)[1])];
+        for (let i = 0; i < m; i++) {
+          const ti = t[i] as number;
+          const r = f(ti) - (y[i] as number);
+          if (!Number.isFinite(r)) return false;
+          residuals[i] = r;
+          if (jac) {
+            const row = J(ti);
+            for (let j = 0; j < 5; j++) jac[i * 5 + j] = (row[j] as number) * (scale[j] as number);
+          }
+        }
+        return true;
+      },
+    },
+    [start[0] as number, ...[1, 2, 3, 4].map((j) => unbounded(start[j] as number, j - 1))],
+    SOLVER,
+  );
+  return { p: toParams(result.u), ssr: 2 * result.cost };
+}
 
 function softplus(z: number): number {
   return z > 30 ? z : Math.log1p(Math.exp(z));
@@ -84,17 +132,7 @@ export function transitionSlopes(x: number[], y: number[]): { slopes: number[]; 
   let best: number[] | undefined;
   let bestSsr = Infinity;
   for (const a0 of [1, 2.5]) {
-    const result = levenbergMarquardt({ x: t, y }, curve, {
-      initialValues: [c0, n1, n2, a0, 0],
-      jacobianFunction: jacobian,
-      maxIterations: 200,
-      errorTolerance: 1e-14,
-      minValues: MIN,
-      maxValues: MAX,
-    });
-    const p = result.parameterValues;
-    const f = curve(p);
-    const ssr = t.reduce((acc, ti, i) => acc + (f(ti) - (y[i] as number)) ** 2, 0);
+    const { p, ssr } = fitCurve(t, y, [c0, n1, n2, a0, 0]);
     if (Number.isFinite(ssr) && ssr < bestSsr) {
       bestSsr = ssr;
       best = p;
