@@ -1,0 +1,81 @@
+/**
+ * Dense symmetric positive-definite algebra for the few-parameter systems of the fit (k ≤ ~10).
+ * Matrices are row-major Float64Arrays of k·k; written by hand because at this size the
+ * allocation of a general matrix library costs more than the arithmetic.
+ */
+
+/**
+ * Cholesky factorisation A = L·Lᵀ in place (lower triangle holds L; the upper triangle is left
+ * as it was). Returns false when A is not numerically positive definite.
+ */
+export function choleskyInPlace(a: Float64Array, k: number): boolean {
+  for (let j = 0; j < k; j++) {
+    let d = a[j * k + j] as number;
+    for (let s = 0; s < j; s++) d -= (a[j * k + s] as number) ** 2;
+    if (!(d > 0) || !Number.isFinite(d)) return false;
+    const root = Math.sqrt(d);
+    a[j * k + j] = root;
+    for (let i = j + 1; i < k; i++) {
+      let v = a[i * k + j] as number;
+      for (let s = 0; s < j; s++) v -= (a[i * k + s] as number) * (a[j * k + s] as number);
+      a[i * k + j] = v / root;
+    }
+  }
+  return true;
+}
+
+/** Solves L·Lᵀ·x = b with the factor from {@link choleskyInPlace}; b is overwritten with x. */
+export function choleskySolveInPlace(l: Float64Array, k: number, b: Float64Array): void {
+  for (let i = 0; i < k; i++) {
+    let v = b[i] as number;
+    for (let s = 0; s < i; s++) v -= (l[i * k + s] as number) * (b[s] as number);
+    b[i] = v / (l[i * k + i] as number);
+  }
+  for (let i = k - 1; i >= 0; i--) {
+    let v = b[i] as number;
+    for (let s = i + 1; s < k; s++) v -= (l[s * k + i] as number) * (b[s] as number);
+    b[i] = v / (l[i * k + i] as number);
+  }
+}
+
+/**
+ * Inverse of a symmetric positive-definite matrix, or undefined when it is singular.
+ * Uses Jacobi (diagonal) scaling first so that parameters of very different magnitude
+ * (η0 ~ 1e4 Pa·s next to n ~ 0.3) do not make a well-posed problem look singular.
+ */
+export function inverseSpd(a: Float64Array, k: number): Float64Array | undefined {
+  const scale = new Float64Array(k);
+  for (let i = 0; i < k; i++) {
+    const d = a[i * k + i] as number;
+    if (!(d > 0)) return undefined;
+    scale[i] = 1 / Math.sqrt(d);
+  }
+  const l = new Float64Array(k * k);
+  for (let i = 0; i < k; i++) for (let j = 0; j < k; j++) l[i * k + j] = (a[i * k + j] as number) * (scale[i] as number) * (scale[j] as number);
+  if (!choleskyInPlace(l, k)) return undefined;
+  const inv = new Float64Array(k * k);
+  const column = new Float64Array(k);
+  for (let j = 0; j < k; j++) {
+    column.fill(0);
+    column[j] = 1;
+    choleskySolveInPlace(l, k, column);
+    for (let i = 0; i < k; i++) inv[i * k + j] = (column[i] as number) * (scale[i] as number) * (scale[j] as number);
+  }
+  return inv;
+}
+
+/** Aᵀ·A (k×k) and Aᵀ·r (k) of a row-major m×k matrix A. */
+export function normalEquations(jac: Float64Array, r: Float64Array, m: number, k: number, ata: Float64Array, atr: Float64Array): void {
+  ata.fill(0);
+  atr.fill(0);
+  for (let i = 0; i < m; i++) {
+    const row = i * k;
+    const ri = r[i] as number;
+    for (let a = 0; a < k; a++) {
+      const ja = jac[row + a] as number;
+      atr[a] = (atr[a] as number) + ja * ri;
+      for (let b = 0; b <= a; b++) ata[a * k + b] = (ata[a * k + b] as number) + ja * (jac[row + b] as number);
+    }
+  }
+  for (let a = 0; a < k; a++) for (let b = 0; b < a; b++) ata[b * k + a] = ata[a * k + b] as number;
+}

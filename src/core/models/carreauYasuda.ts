@@ -1,0 +1,68 @@
+/**
+ * Carreau–Yasuda model: η = η∞ + (η0 − η∞)·[1 + (λγ̇)^a]^((n−1)/a)
+ * (Yasuda, Armstrong & Cohen, Rheol. Acta 20 (1981) 163). With a = 2 it is the Carreau model.
+ */
+import { highRateIndex, inside, plateauViscosity, rateAtViscosity } from "./guess";
+import { sigmoid, softplus } from "./numerics";
+import { ETA0, ETA_INF, LAMBDA, N_INDEX, parameter } from "./parameterSpec";
+import type { GuessData, ModelDefinition } from "./types";
+
+/**
+ * ln η of Carreau–Yasuda and, when `out` is given, ∂ln η/∂(eta0, etaInf, lambda, n, a) written
+ * at out[0..4] (out[4] only when `withA`).
+ */
+export function carreauYasudaLog(
+  eta0: number,
+  etaInf: number,
+  lambda: number,
+  n: number,
+  a: number,
+  rate: number,
+  out?: Float64Array,
+  withA = true,
+): number {
+  const lnX = Math.log(lambda * rate);
+  const lnB = softplus(a * lnX); // ln(1 + (λγ̇)^a)
+  const f = Math.exp(((n - 1) / a) * lnB); // [1 + (λγ̇)^a]^((n−1)/a)
+  const eta = etaInf + (eta0 - etaInf) * f;
+  if (out) {
+    const q = sigmoid(a * lnX); // z/(1 + z)
+    const scale = ((eta0 - etaInf) * f) / eta;
+    out[0] = f / eta;
+    out[1] = (1 - f) / eta;
+    out[2] = (scale * (n - 1) * q) / lambda;
+    out[3] = (scale * lnB) / a;
+    if (withA) out[4] = scale * (n - 1) * ((q * lnX) / a - lnB / (a * a));
+  }
+  return Math.log(eta);
+}
+
+/** λ at which a Carreau–Yasuda curve with exponent a and index n halves η0 at rate `half`. */
+export function lambdaFromHalfRate(half: number, n: number, a: number): number {
+  return Math.pow(Math.pow(2, a / (1 - n)) - 1, 1 / a) / half;
+}
+
+/** Carreau–Yasuda guesses: plateau, high-rate slope, half-viscosity rate; a = 1. */
+export function carreauYasudaGuess(data: GuessData, a: number): number[] {
+  const eta0 = plateauViscosity(data);
+  const n = highRateIndex(data);
+  const half = rateAtViscosity(data, eta0 / 2);
+  return [eta0, inside(0.3 * Math.min(...data.viscosity), 0), lambdaFromHalfRate(half, n, a), n, a];
+}
+
+/** Carreau–Yasuda model `carreau-yasuda`: eta0, etaInf (Pa·s), lambda (s), n, a (1). */
+export const carreauYasuda: ModelDefinition = {
+  id: "carreau-yasuda",
+  description: "Carreau–Yasuda: Carreau with an adjustable transition sharpness a",
+  formula: "η = etaInf + (eta0 − etaInf)·[1 + (lambda·γ̇)^a]^((n−1)/a)",
+  reference: "Yasuda, Armstrong & Cohen, Rheol. Acta 20 (1981) 163",
+  parameters: [ETA0, ETA_INF, LAMBDA, N_INDEX, parameter("a", "1", "Yasuda transition exponent a", 0)],
+  needsTemperature: false,
+  defaultFixed: {},
+  hasYieldStress: false,
+  logViscosity: (p, rate) =>
+    carreauYasudaLog(p[0] as number, p[1] as number, p[2] as number, p[3] as number, p[4] as number, rate),
+  logGradient: (p, rate, _t, out) =>
+    carreauYasudaLog(p[0] as number, p[1] as number, p[2] as number, p[3] as number, p[4] as number, rate, out),
+  initialGuess: (data) => carreauYasudaGuess(data, 1),
+};
