@@ -20,8 +20,8 @@ const GL_WEIGHTS = [
   0.0951585116824928, 0.0622535239386479, 0.0271524594117541,
 ];
 
-/** ∫ fn over (upper·1e-12, upper] by 16-point Gauss–Legendre on log-spaced panels. */
-function integrateLogPanels(fn: (g: number) => number, upper: number, panels: number): number {
+/** ∫ fn over (upper·1e-12, upper] by 16-point Gauss–Legendre on log-spaced panels (shared with slitFlow.ts). */
+export function integrateLogPanels(fn: (g: number) => number, upper: number, panels: number): number {
   const lower = upper * 1e-12;
   let total = 0;
   for (let k = 0; k < panels; k++) {

@@ -1,0 +1,74 @@
+/**
+ * Forward model of slit-die flow (parallel plates, W ≫ H, edge effects neglected): the apparent
+ * wall shear rate γ̇_a = 6Q/(WH²) a generalised-Newtonian liquid gives at a known wall stress,
+ * from the plane-Poiseuille flow integral (Macosko 1994, §6.3; ISO 11443 slit dies):
+ *
+ *   γ̇_a = 6Q/(WH²) = (3/τ_w²) ∫₀^τw τ γ̇(τ) dτ,   written over the rate with τ = f(g) = η(g)·g:
+ *   γ̇_a = (3/τ_w²) ∫₀^γ̇w f(g) g f'(g) dg.
+ *
+ * Newtonian: γ̇_a = γ̇_w; power law: γ̇_w = γ̇_a(2n+1)/(3n). Round-die twin: forwardFlow.ts.
+ */
+import { RheoError, requireNonNegative, requirePositive } from "./errors";
+import { integrateLogPanels } from "./forwardFlow";
+
+/**
+ * Apparent slit shear rate: γ̇_a = 6Q/(WH²).
+ * @param flowRate Q in m³/s (≥ 0); slitWidth W, slitHeight H in m (> 0)
+ * @returns γ̇_a in 1/s
+ * @example apparentSlitShearRate(1e-8, 0.01, 0.001) // 6 1/s
+ */
+export function apparentSlitShearRate(flowRate: number, slitWidth: number, slitHeight: number): number {
+  requireNonNegative(flowRate, "flowRate");
+  requirePositive(slitWidth, "slitWidth");
+  requirePositive(slitHeight, "slitHeight");
+  return (6 * flowRate) / (slitWidth * slitHeight ** 2);
+}
+
+/**
+ * Flow rate giving an apparent slit rate (inverse of {@link apparentSlitShearRate}): Q = γ̇_a·W·H²/6.
+ * @returns Q in m³/s
+ */
+export function flowRateForApparentSlitShearRate(shearRateApparent: number, slitWidth: number, slitHeight: number): number {
+  requireNonNegative(shearRateApparent, "shearRateApparent");
+  requirePositive(slitWidth, "slitWidth");
+  requirePositive(slitHeight, "slitHeight");
+  return (shearRateApparent * slitWidth * slitHeight ** 2) / 6;
+}
+
+/**
+ * Apparent slit rate 6Q/(WH²) of a liquid with viscosity η(γ̇) at true wall rate `wallRate` (1/s).
+ * The stress must rise with rate.
+ * @example apparentSlitRateFromWallRate(() => 10, 100) // 100 (Newtonian)
+ */
+export function apparentSlitRateFromWallRate(viscosity: (rate: number) => number, wallRate: number, panels = 60): number {
+  if (!(wallRate > 0) || !Number.isFinite(wallRate)) {
+    throw new RheoError("domain", "wallRate", `must be greater than zero, got ${wallRate}`);
+  }
+  const stress = (g: number) => viscosity(g) * g;
+  const slope = (g: number) => {
+    const h = g * 1e-6;
+    return (stress(g + h) - stress(g - h)) / (2 * h);
+  };
+  const tauW = stress(wallRate);
+  const integral = integrateLogPanels((g) => stress(g) * g * slope(g), wallRate, panels);
+  return (3 / tauW ** 2) * integral;
+}
+
+/**
+ * True wall rate at which the liquid gives the apparent slit rate `apparentRate` (inverse of
+ * {@link apparentSlitRateFromWallRate}, bisection in ln γ̇ over γ̇_w/γ̇_a in (0.5, 10)).
+ * @returns γ̇_w in 1/s
+ */
+export function wallRateFromApparentSlitRate(viscosity: (rate: number) => number, apparentRate: number): number {
+  if (!(apparentRate > 0) || !Number.isFinite(apparentRate)) {
+    throw new RheoError("domain", "apparentRate", `must be greater than zero, got ${apparentRate}`);
+  }
+  let lo = Math.log(apparentRate * 0.5);
+  let hi = Math.log(apparentRate * 10);
+  for (let i = 0; i < 60; i++) {
+    const mid = (lo + hi) / 2;
+    if (apparentSlitRateFromWallRate(viscosity, Math.exp(mid)) < apparentRate) lo = mid;
+    else hi = mid;
+  }
+  return Math.exp((lo + hi) / 2);
+}
