@@ -1,0 +1,90 @@
+/**
+ * The method record of a run: what was read (source, columns, dies), every setting, the
+ * equations and references of each step actually used, the add-in version, the date and the
+ * warnings, so that a result can be audited later without the pane.
+ */
+import { getModel } from "../core/models";
+import { COLUMN_QUANTITIES } from "../io/headers";
+import type { RunOutput } from "./runReduction";
+import { describeSettings } from "./settings";
+import type { PlanMeta } from "./resultsPlan";
+import { CellValue, SheetPlan, blockLayout, CellBlock } from "./sheetPlan";
+
+/** One equation of the record: step, formula in plain text, reference. */
+export type EquationLine = [step: string, formula: string, reference: string];
+
+/** The equations of the steps a run used, in order. */
+export function equationsUsed(run: RunOutput): EquationLine[] {
+  const roles = new Set(run.input.columns.map((c) => c.role));
+  const lines: EquationLine[] = [];
+  if (roles.has("flow_rate")) lines.push(["Flow rate", "Q read from the flow_rate column", "-"]);
+  else if (roles.has("piston_speed")) lines.push(["Flow rate", "Q = v_p·π·D_b²/4 (piston speed v_p, barrel bore D_b)", "volume displaced by the piston"]);
+  else if (roles.has("mass_rate")) lines.push(["Flow rate", "Q = ṁ/ρ (mass rate, melt density)", "definition of density"]);
+  lines.push(["Apparent wall shear rate", "γ̇_a = 32Q/(π·D³)", "Hagen–Poiseuille; Macosko 1994, §6.2"]);
+  lines.push(["Apparent wall shear stress", "τ_app = ΔP·D/(4L)", "force balance on the melt in the die; Macosko 1994, §6.2"]);
+  if (run.settings.endCorrection === "bagley") {
+    lines.push(["Bagley end correction", "ΔP = 2τ_w·(L/R + e) fitted over die lengths at each γ̇_a; τ_w = slope/2, e = intercept/slope", "Bagley, J. Appl. Phys. 28 (1957) 624"]);
+    lines.push(["Std. error of τ_w", "s(τ_w) = s(slope)/2 from the least-squares line (three or more dies)", "ordinary least squares"]);
+  } else {
+    lines.push(["No end correction", "τ_w = τ_app of the longest die (entrance loss included)", "-"]);
+  }
+  lines.push(["Rabinowitsch correction", "γ̇_w = γ̇_a·(3n' + 1)/(4n'), n' = d ln τ_w / d ln γ̇_a", "Rabinowitsch, Z. Phys. Chem. A145 (1929) 1"]);
+  lines.push(["Slope n'", `${run.settings.rabinowitschMethod} method (see settings)`, "Macosko 1994, eq. 6.2.15"]);
+  lines.push(["Viscosity", "η = τ_w/γ̇_w; apparent η_a = τ_w/γ̇_a", "definition"]);
+  const fitted = new Set(run.fits.flatMap((f) => f.compare?.ranked.map((r) => r.model) ?? []));
+  for (const id of fitted) {
+    const m = getModel(id);
+    lines.push([`Model ${id}`, m.formula, m.reference]);
+  }
+  if (fitted.size > 0) {
+    lines.push(["Model fit", "least squares on ln η (Levenberg–Marquardt); 95 % intervals from Student t", "Seber & Wild, Nonlinear Regression (1989)"]);
+    lines.push(["Model ranking", "AIC; ΔAIC_i = AIC_i − min AIC; Akaike weight w_i = exp(−ΔAIC_i/2)/Σ exp(−ΔAIC_j/2)", "Burnham & Anderson 2002, §2.9"]);
+  }
+  return lines;
+}
+
+/** The method sheet plan of a run. */
+export function buildMethodPlan(run: RunOutput, meta: PlanMeta): SheetPlan {
+  const blocks: CellBlock[] = [];
+  let row = 0;
+  const add = (b: Omit<CellBlock, "row" | "col">, gap = 1) => {
+    const block = { ...b, row, col: 0 };
+    blocks.push(block);
+    row += blockLayout(block).rowCount + gap;
+  };
+  add({ id: "method-title", role: "heading", title: "Rheoledger method record", rows: [] }, 0);
+  add({ id: "method-note", role: "text", rows: [["Written by the task pane with the results; edit neither if the record is to stay true to the results."]] });
+  add({
+    id: "method-run",
+    role: "list",
+    title: "Run",
+    header: ["item", "value"],
+    rows: [
+      ["Results sheet", meta.names.results],
+      ["Data source", run.input.sourceLabel],
+      ["Data rows used", run.raw.measurements.length],
+      ["Groups (temperature, die bore)", run.result.groups.length],
+      ["Date", meta.date],
+      ["Rheoledger version", meta.version],
+    ],
+  });
+  add({ id: "method-settings", role: "list", title: "Settings", header: ["setting", "value"], rows: describeSettings(run.settings) });
+  const columns: CellValue[][] = run.input.columns.map((c) => [
+    `${c.index + 1}: ${c.header || "(no header)"}`,
+    c.role === "ignore" ? "ignored" : c.role === "die" ? "die label (die list)" : `${c.role} [${c.unit}]: ${COLUMN_QUANTITIES[c.role].description}`,
+    c.recognised ? "recognised" : "mapped by hand",
+  ]);
+  add({ id: "method-columns", role: "list", title: "Columns read", header: ["column", "read as", "how"], rows: columns });
+  if (run.input.dies.length > 0) {
+    add({ id: "method-dies", role: "list", title: "Die list", header: ["die", "bore D [mm]", "length L [mm]"], rows: run.input.dies.map((d) => [d.label, d.diameterMm, d.lengthMm]) });
+  }
+  add({ id: "method-equations", role: "list", title: "Equations", header: ["step", "formula", "reference"], rows: equationsUsed(run) });
+  add({
+    id: "method-warnings",
+    role: "list",
+    title: `Warnings (${run.warnings.length})`,
+    header: ["code", "message"],
+    rows: run.warnings.length > 0 ? run.warnings.map((w) => [w.code, w.message]) : [["NONE", "No warnings."]],
+  });
+  return { name: meta.names.method, blocks, charts: [], columnWidths: [34, 60, 40] };
+}

@@ -1,0 +1,167 @@
+/**
+ * DOM pieces of the pane: the column mapping cards, the die list rows, the model check boxes,
+ * inline field errors and progress. Every control gets a label; no inline handlers or styles.
+ */
+import { getModel } from "../core/models";
+import { ColumnChoice, ColumnRole, DieEntry, roleOptions, unitOptions } from "./columns";
+import { FieldId, PANE_MODELS, SETTING_HELP } from "./settings";
+
+/** The element with `id`, typed; throws when the page lacks it (a build error, not a user one). */
+export function byId<T extends HTMLElement = HTMLElement>(id: string): T {
+  const el = document.getElementById(id);
+  if (!el) throw new Error(`pane: element #${id} is missing`);
+  return el as T;
+}
+
+function el<K extends keyof HTMLElementTagNameMap>(tag: K, attrs: Record<string, string> = {}, text?: string): HTMLElementTagNameMap[K] {
+  const e = document.createElement(tag);
+  for (const [k, v] of Object.entries(attrs)) e.setAttribute(k, v);
+  if (text !== undefined) e.textContent = text;
+  return e;
+}
+
+/** The control an error of `field` belongs to (for aria-invalid and focus). */
+const FIELD_CONTROL: Record<FieldId, string> = {
+  source: "source",
+  columns: "columns",
+  dies: "dies",
+  endCorrection: "end-bagley",
+  rabinowitschMethod: "rabinowitschMethod",
+  rabinowitschDegree: "rabinowitschDegree",
+  rabinowitschWindow: "rabinowitschWindow",
+  models: "models",
+  transducerRangeBar: "transducerRangeBar",
+  run: "run",
+  share: "share-sheet",
+};
+
+/** Shows `message` next to its field, marks the control invalid, and returns the control. */
+export function showFieldError(field: FieldId, message: string): HTMLElement {
+  const box = byId(`${field}-error`);
+  box.textContent = message;
+  box.hidden = false;
+  const control = byId(FIELD_CONTROL[field]);
+  if (control instanceof HTMLInputElement || control instanceof HTMLSelectElement) control.setAttribute("aria-invalid", "true");
+  return control;
+}
+
+/** Clears every inline error. */
+export function clearFieldErrors(): void {
+  for (const field of Object.keys(FIELD_CONTROL) as FieldId[]) {
+    const box = document.getElementById(`${field}-error`);
+    if (box) {
+      box.hidden = true;
+      box.textContent = "";
+    }
+  }
+  document.querySelectorAll("[aria-invalid]").forEach((e) => e.removeAttribute("aria-invalid"));
+}
+
+/** Progress: a bar and a polite live status line. `fraction` null hides the bar. */
+export function showProgress(text: string, fraction: number | null): void {
+  const bar = byId<HTMLProgressElement>("progress");
+  bar.hidden = fraction === null;
+  if (fraction !== null) bar.value = fraction;
+  byId("status").textContent = text;
+}
+
+/** Renders one card per column with its recognised role and unit and two lists to change them. */
+export function renderColumns(container: HTMLElement, columns: readonly ColumnChoice[], onChange: (index: number, role: ColumnRole, unit: string | null, changed: "role" | "unit") => void): void {
+  container.replaceChildren();
+  if (columns.length === 0) {
+    container.append(el("p", { class: "muted" }, "No data read yet."));
+    return;
+  }
+  for (const c of columns) {
+    const card = el("div", { class: "col-card", "data-column": String(c.index) });
+    const head = el("div", { class: "col-head" });
+    head.append(el("code", {}, c.header || `(column ${c.index + 1} has no header)`));
+    head.append(el("span", { class: c.recognised ? "badge" : "badge todo" }, c.recognised ? "recognised" : c.problem ?? "check"));
+    const selects = el("div", { class: "col-selects" });
+    const roleId = `col-${c.index}-role`;
+    const unitId = `col-${c.index}-unit`;
+    const roleWrap = el("div");
+    roleWrap.append(el("label", { for: roleId }, `Column ${c.index + 1} is`));
+    const role = el("select", { id: roleId });
+    for (const o of roleOptions()) {
+      const opt = el("option", { value: o.role }, o.label);
+      if (o.role === c.role) opt.selected = true;
+      role.append(opt);
+    }
+    roleWrap.append(role);
+    const unitWrap = el("div");
+    unitWrap.append(el("label", { for: unitId }, `Unit of column ${c.index + 1}`));
+    const unit = el("select", { id: unitId });
+    const units = unitOptions(c.role);
+    if (units.length === 0) unit.append(el("option", { value: "" }, "(none)"));
+    else if (c.unit === null) unit.append(el("option", { value: "" }, "(choose)"));
+    for (const u of units) {
+      const opt = el("option", { value: u }, u);
+      if (c.unit !== null && u.toLowerCase() === c.unit.toLowerCase()) opt.selected = true;
+      unit.append(opt);
+    }
+    unit.disabled = units.length === 0;
+    unitWrap.append(unit);
+    role.addEventListener("change", () => onChange(c.index, role.value as ColumnRole, null, "role"));
+    unit.addEventListener("change", () => onChange(c.index, c.role, unit.value === "" ? null : unit.value, "unit"));
+    selects.append(roleWrap, unitWrap);
+    card.append(head, selects);
+    container.append(card);
+  }
+}
+
+/** Renders the die list as rows of labelled inputs; edits call `onChange` with the new list. */
+export function renderDies(container: HTMLElement, dies: readonly DieEntry[], onChange: (dies: DieEntry[]) => void): void {
+  container.replaceChildren();
+  dies.forEach((d, i) => {
+    const row = el("div", { class: "die-row" });
+    const input = (key: keyof DieEntry, label: string, value: string, mode: string) => {
+      const id = `die-${i}-${key}`;
+      const wrap = el("div");
+      wrap.append(el("label", { for: id }, label));
+      const inp = el("input", { id, type: "text", inputmode: mode, autocomplete: "off", value });
+      inp.addEventListener("change", () => {
+        const next = dies.map((x) => ({ ...x }));
+        const target = next[i] as DieEntry;
+        if (key === "label") target.label = inp.value;
+        else target[key] = inp.value.trim() === "" ? NaN : Number(inp.value.replace(",", "."));
+        onChange(next);
+      });
+      wrap.append(inp);
+      return wrap;
+    };
+    row.append(input("label", `Die ${i + 1} label`, d.label, "text"), input("diameterMm", "Bore D [mm]", Number.isFinite(d.diameterMm) ? String(d.diameterMm) : "", "decimal"), input("lengthMm", "Length L [mm]", Number.isFinite(d.lengthMm) ? String(d.lengthMm) : "", "decimal"));
+    const remove = el("button", { type: "button", class: "link", "aria-label": `Remove die ${i + 1}` }, "Remove");
+    remove.addEventListener("click", () => onChange(dies.filter((_, k) => k !== i)));
+    row.append(remove);
+    container.append(row);
+  });
+}
+
+/** Renders one labelled check box per model with its one-line description. */
+export function renderModels(container: HTMLElement, chosen: readonly string[], onChange: (models: string[]) => void): void {
+  container.replaceChildren();
+  for (const id of PANE_MODELS) {
+    const m = getModel(id);
+    const wrap = el("div", { class: "choice" });
+    const boxId = `model-${id}`;
+    const box = el("input", { type: "checkbox", id: boxId, value: id, "aria-describedby": `${boxId}-help` });
+    box.checked = chosen.includes(id);
+    box.addEventListener("change", () => {
+      const boxes = Array.from(container.querySelectorAll<HTMLInputElement>("input[type=checkbox]"));
+      onChange(boxes.filter((b) => b.checked).map((b) => b.value));
+    });
+    wrap.append(box, el("label", { for: boxId }, id), el("p", { class: "help", id: `${boxId}-help` }, m.description));
+    container.append(wrap);
+  }
+}
+
+/** Fills the one-line explanations that do not change. */
+export function fillStaticHelp(): void {
+  byId("end-bagley-help").textContent = SETTING_HELP.endCorrection.bagley;
+  byId("end-none-help").textContent = SETTING_HELP.endCorrection.none;
+  byId("rabinowitschDegree-help").textContent = SETTING_HELP.rabinowitschDegree;
+  byId("rabinowitschWindow-help").textContent = SETTING_HELP.rabinowitschWindow;
+  byId("models-help").textContent = SETTING_HELP.models;
+  byId("transducerRangeBar-help").textContent = SETTING_HELP.transducerRangeBar;
+}

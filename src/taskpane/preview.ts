@@ -1,0 +1,62 @@
+/**
+ * Renders a sheet plan as HTML (tables, small SVG charts): the pane shows it in preview mode
+ * (outside Office) and as a quick look after a run. Pure: returns markup with every text escaped.
+ */
+import { chartSvg, escapeXml } from "./svgChart";
+import { CellBlock, CellValue, SheetPlan, blockLayout } from "./sheetPlan";
+
+/** A cell as shown in the preview: numbers to 4 significant digits, exponent outside 1e-3…1e6. */
+export function formatCell(v: CellValue): string {
+  if (v === null) return "";
+  if (typeof v === "boolean") return v ? "TRUE" : "FALSE";
+  if (typeof v === "string") return v;
+  if (!Number.isFinite(v)) return String(v);
+  if (Number.isInteger(v) && Math.abs(v) < 1e6) return String(v);
+  const a = Math.abs(v);
+  if (a !== 0 && (a >= 1e6 || a < 1e-3)) return v.toExponential(3);
+  return Number(v.toPrecision(4)).toString();
+}
+
+function tableHtml(block: CellBlock): string {
+  const lay = blockLayout(block);
+  const head = block.header ? `<thead><tr>${block.header.map((h) => `<th scope="col">${escapeXml(h)}</th>`).join("")}</tr></thead>` : "";
+  const body = block.rows
+    .map((r) => `<tr>${Array.from({ length: lay.width }, (_, c) => {
+      const v = r[c] ?? null;
+      return `<td${typeof v === "number" ? ` class="num"` : ""}>${escapeXml(formatCell(v))}</td>`;
+    }).join("")}</tr>`)
+    .join("");
+  const caption = block.title !== undefined ? `<caption>${escapeXml(block.title)}</caption>` : "";
+  return `<div class="table-wrap" tabindex="0" role="region" aria-label="${escapeXml(block.title ?? block.id)}"><table data-block="${escapeXml(block.id)}">${caption}${head}<tbody>${body}</tbody></table></div>`;
+}
+
+function blockHtml(block: CellBlock): string {
+  if (block.role === "heading") {
+    return block.id === "title" || block.id === "method-title" ? "" : `<h4 class="group-heading" data-block="${escapeXml(block.id)}">${escapeXml(block.title ?? "")}</h4>`;
+  }
+  if (block.role === "text") return `<p class="stamp" data-block="${escapeXml(block.id)}">${escapeXml(String(block.rows[0]?.[0] ?? ""))}</p>`;
+  return tableHtml(block);
+}
+
+/**
+ * The markup of a sheet plan: tables in sheet order, the charts (each with a legend of its
+ * series), and the chart data folded away at the end.
+ */
+export function sheetPlanHtml(plan: SheetPlan): string {
+  const main = plan.blocks.filter((b) => b.role !== "chartData" && b.id !== "chartdata-title");
+  const data = plan.blocks.filter((b) => b.role === "chartData");
+  const out: string[] = [`<h3 class="sheet-name">Sheet “${escapeXml(plan.name)}”</h3>`];
+  out.push(...main.map(blockHtml));
+  if (plan.charts.length > 0) {
+    out.push(`<div class="charts">`);
+    for (const c of plan.charts) {
+      const legend = c.id.startsWith("bagley")
+        ? `<p class="legend-note">One colour per apparent shear rate: measured points and the fitted line, drawn back to zero pressure.</p>`
+        : `<ul class="legend">${c.series.map((s) => `<li><svg class="swatch" viewBox="0 0 14 8" aria-hidden="true"><line x1="0" y1="4" x2="14" y2="4" stroke="${s.colour}" stroke-width="${s.style === "markers" ? 0 : 2}"${s.style === "dashed" ? ` stroke-dasharray="4 2"` : ""}/>${s.style === "markers" ? `<circle cx="7" cy="4" r="3" fill="${s.colour}"/>` : ""}</svg>${escapeXml(s.name)}</li>`).join("")}</ul>`;
+      out.push(`<figure class="chart-figure"><figcaption>${escapeXml(c.title)}</figcaption>${chartSvg(plan, c)}${legend}</figure>`);
+    }
+    out.push(`</div>`);
+  }
+  if (data.length > 0) out.push(`<details class="chart-data"><summary>Chart data</summary>${data.map(tableHtml).join("")}</details>`);
+  return out.join("");
+}

@@ -1,0 +1,201 @@
+/**
+ * The pane's Excel writer and "copy as values" against office-addin-mock objects (see
+ * helpers/fakeExcel.ts): new uniquely named sheets only, existing cells untouched, tables where
+ * the plan puts them, charts with the right series ranges, the method sheet listing every
+ * setting, and no partial sheet left when a step fails.
+ */
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
+import { parseCsv } from "../src/io/csv";
+import { detectColumns } from "../src/taskpane/columns";
+import { pairedSheetNames, uniqueSheetName, writeWorkbookPlan } from "../src/taskpane/excelWriter";
+import { buildWorkbookPlan } from "../src/taskpane/plan";
+import { RunOutput, runReduction } from "../src/taskpane/runReduction";
+import { DEFAULT_PANE_SETTINGS, describeSettings } from "../src/taskpane/settings";
+import { a1, blockLayout, findBlock, seriesAddresses } from "../src/taskpane/sheetPlan";
+import { copySheetAsValues, valuesCopyGrid } from "../src/taskpane/shareValues";
+import { FakeExcel } from "./helpers/fakeExcel";
+
+const META = { version: "9.9.9", date: "2025-01-02T03:04:05.000Z" };
+let run: RunOutput;
+
+beforeAll(async () => {
+  const cells = parseCsv(readFileSync(join(__dirname, "../workbooks/demo-film-grade.csv"), "utf8")).lines.map((l) => l.cells);
+  // one model keeps the suite fast; the plan tests cover several
+  run = await runReduction({ cells, columns: detectColumns(cells[0] ?? []), dies: [], sourceLabel: "Data!A1:F82" }, { ...DEFAULT_PANE_SETTINGS, models: ["cross"] });
+});
+
+function withData(options = {}) {
+  const fake = new FakeExcel(options);
+  fake.addSheet("Data");
+  fake.addSheet("Rheo results"); // a previous run
+  return fake;
+}
+
+describe("uniqueSheetName / pairedSheetNames", () => {
+  test("uniqueSheetName(base, existing) counts up past taken names, ignoring case", () => {
+    expect(uniqueSheetName("Rheo results", [])).toBe("Rheo results");
+    expect(uniqueSheetName("Rheo results", ["rheo RESULTS", "Rheo results 2"])).toBe("Rheo results 3");
+  });
+  test("uniqueSheetName keeps Excel's 31-character limit", () => {
+    const long = "A sheet with a rather long name indeed";
+    expect(uniqueSheetName(`${long} values`, []).length).toBe(31);
+    expect(uniqueSheetName(long.slice(0, 31), [long.slice(0, 31)])).toMatch(/ 2$/);
+  });
+  test("pairedSheetNames gives results and method sheets one shared number", () => {
+    expect(pairedSheetNames(["Rheo method"])).toEqual({ results: "Rheo results 2", method: "Rheo method 2" });
+  });
+});
+
+describe("writeWorkbookPlan(batch, makePlan)", () => {
+  test("creates two new sheets with unique names and never writes to existing sheets", async () => {
+    const fake = withData();
+    const names = await writeWorkbookPlan(fake.batch, (n) => buildWorkbookPlan(run, { ...META, names: n }));
+    expect(names).toEqual({ results: "Rheo results 2", method: "Rheo method 2" });
+    expect(fake.names()).toEqual(["Data", "Rheo results", "Rheo results 2", "Rheo method 2"]);
+    expect(fake.sheet("Data").ranges).toEqual([]);
+    expect(fake.sheet("Rheo results").ranges).toEqual([]);
+    expect(fake.sheet("Rheo results").charts).toEqual([]);
+  });
+
+  test("tables land where the plan puts them, with the core's numbers", async () => {
+    const fake = withData();
+    let plan = buildWorkbookPlan(run, { ...META, names: { results: "", method: "" } });
+    await writeWorkbookPlan(fake.batch, (n) => (plan = buildWorkbookPlan(run, { ...META, names: n })));
+    const cells = fake.written("Rheo results 2");
+    const flow = findBlock(plan.results, "flow-1");
+    const lay = blockLayout(flow);
+    expect(cells.get(a1(lay.titleRow as number, flow.col))).toBe("Flow curve (Rabinowitsch-corrected)");
+    expect(cells.get(a1(lay.headerRow as number, flow.col + 5))).toBe("viscosity [Pa.s]");
+    const g = run.result.groups[0];
+    g?.flowCurve.forEach((f, i) => {
+      expect(cells.get(a1(lay.firstDataRow + i, flow.col))).toBe(f.shearRateApparent);
+      expect(cells.get(a1(lay.firstDataRow + i, flow.col + 1))).toBe(f.wallShearStress / 1e3);
+      expect(cells.get(a1(lay.firstDataRow + i, flow.col + 5))).toBe(f.viscosity);
+    });
+    const bagley = findBlock(plan.results, "bagley-1");
+    expect(cells.get(a1(blockLayout(bagley).firstDataRow, bagley.col + 4))).toBe(g?.bagley[0]?.endCorrection);
+    expect(cells.get("A1")).toBe("Rheoledger results");
+  });
+
+  test("charts get the right series: one per group on the flow curve, Bagley lines from zero pressure", async () => {
+    const fake = withData();
+    let plan = buildWorkbookPlan(run, { ...META, names: { results: "", method: "" } });
+    await writeWorkbookPlan(fake.batch, (n) => (plan = buildWorkbookPlan(run, { ...META, names: n })));
+    const charts = fake.sheet("Rheo results 2").charts;
+    expect(charts.map((c) => c.mock.name)).toEqual(plan.results.charts.map((c) => `Rheo ${c.id}`));
+    const flow = charts[0];
+    const spec = plan.results.charts[0];
+    expect(flow?.series).toHaveLength(run.result.groups.length);
+    flow?.series.forEach((s, i) => {
+      const want = seriesAddresses(plan.results, spec?.series[i] as never);
+      expect([s.x, s.y]).toEqual([want.x, want.y]);
+    });
+    expect(flow?.mock.axes.categoryAxis.logBase).toBe(10);
+    expect(flow?.mock.axes.valueAxis.logBase).toBe(10);
+    const bagley = charts.find((c) => c.mock.name === "Rheo bagley-1");
+    const g = run.result.groups[0];
+    expect(bagley?.series).toHaveLength(2 * (g?.bagley.length ?? 0));
+    expect(bagley?.mock.axes.valueAxis.minimum).toBe(0);
+    // the first line series starts at L/R = -e, zero pressure
+    const cells = fake.written("Rheo results 2");
+    const line = bagley?.series[1];
+    const first = (line?.x as string).split(":")[0] as string;
+    expect(cells.get(first)).toBeCloseTo(-(g?.bagley[0]?.endCorrection as number), 12);
+    expect(cells.get((line?.y as string).split(":")[0] as string)).toBe(0);
+    expect(line?.mock.chartType).toBe("XYScatterLinesNoMarkers");
+  });
+
+  test("the method sheet lists every setting, the version, the date and the warnings", async () => {
+    const fake = withData();
+    await writeWorkbookPlan(fake.batch, (n) => buildWorkbookPlan(run, { ...META, names: n }));
+    const text = [...fake.written("Rheo method 2").values()].map(String);
+    for (const [label, value] of describeSettings(run.settings)) {
+      expect(text).toContain(label);
+      expect(text).toContain(value);
+    }
+    expect(text).toContain("9.9.9");
+    expect(text).toContain(META.date);
+    expect(text).toContain("Rheo results 2");
+    for (const w of run.warnings) expect(text).toContain(w.message);
+  });
+
+  test("a failure while adding charts leaves no new sheet behind and rethrows", async () => {
+    const fake = withData({ failAtChart: 2 });
+    await expect(writeWorkbookPlan(fake.batch, (n) => buildWorkbookPlan(run, { ...META, names: n }))).rejects.toThrow(/chart could not be created/);
+    expect(fake.names()).toEqual(["Data", "Rheo results"]);
+    expect(fake.batches).toBe(2); // the cleanup runs in a batch of its own
+  });
+
+  test("a failing sync after the cells were written also removes the new sheets", async () => {
+    const fake = withData({ failAtSync: 2 });
+    await expect(writeWorkbookPlan(fake.batch, (n) => buildWorkbookPlan(run, { ...META, names: n }))).rejects.toThrow(/sync failed/);
+    expect(fake.names()).toEqual(["Data", "Rheo results"]);
+  });
+
+  test("a plan that cannot be built creates nothing", async () => {
+    const fake = withData();
+    await expect(
+      writeWorkbookPlan(fake.batch, () => {
+        throw new Error("plan failed");
+      }),
+    ).rejects.toThrow(/plan failed/);
+    expect(fake.names()).toEqual(["Data", "Rheo results"]);
+  });
+});
+
+describe("copy as values", () => {
+  const formulas = [
+    ["rate [1/s]", "stress [kPa]", "double"],
+    [10, "=RHEO.WALLSTRESS(A2,1,20)", "=B2*2"],
+    [20, "=_xldudf_RHEO.WALLSTRESS(A3,1,20)", "=B3*2"],
+  ];
+  const values = [
+    ["rate [1/s]", "stress [kPa]", "double"],
+    [10, 12.5, 25],
+    [20, 17.25, 34.5],
+  ];
+
+  test("valuesCopyGrid replaces only the add-in's formulas and reports where they were", () => {
+    const { grid, replaced } = valuesCopyGrid(formulas, values);
+    expect(grid).toEqual([
+      ["rate [1/s]", "stress [kPa]", "double"],
+      [10, 12.5, "=B2*2"],
+      [20, 17.25, "=B3*2"],
+    ]);
+    expect(replaced.map((r) => [r.row, r.col])).toEqual([
+      [1, 1],
+      [2, 1],
+    ]);
+  });
+
+  test("copySheetAsValues writes a new sheet and keeps each formula in a note (ExcelApi 1.18)", async () => {
+    const fake = new FakeExcel();
+    fake.addSheet("Lab", { formulas, values, rowIndex: 2, columnIndex: 1 });
+    const done = await copySheetAsValues(fake.batch, "Lab", () => true);
+    expect(done).toEqual({ name: "Lab values", replaced: 2, keeper: "notes" });
+    const cells = fake.written("Lab values", "formulas");
+    expect(cells.get("C4")).toBe(12.5);
+    expect(cells.get("D4")).toBe("=B2*2");
+    expect(fake.sheet("Lab values").notes).toEqual([
+      { address: "C4", text: "Value of the Rheoledger formula =RHEO.WALLSTRESS(A2,1,20)" },
+      { address: "C5", text: "Value of the Rheoledger formula =_xldudf_RHEO.WALLSTRESS(A3,1,20)" },
+    ]);
+    expect(fake.sheet("Lab").ranges).toEqual([]);
+  });
+
+  test("without notes (ExcelApi 1.10 only) the formulas go to comments", async () => {
+    const fake = new FakeExcel();
+    fake.addSheet("Lab", { formulas, values, rowIndex: 0, columnIndex: 0 });
+    const done = await copySheetAsValues(fake.batch, "Lab", (v) => Number(v.split(".")[1]) <= 10);
+    expect(done.keeper).toBe("comments");
+    expect(fake.comments.map((c) => c.address)).toEqual(["'Lab values'!B2", "'Lab values'!B3"]);
+  });
+
+  test("a failure while copying removes the half-made copy", async () => {
+    const fake = new FakeExcel({ failAtSync: 2 });
+    fake.addSheet("Lab", { formulas, values, rowIndex: 0, columnIndex: 0 });
+    await expect(copySheetAsValues(fake.batch, "Lab", () => true)).rejects.toThrow(/sync failed/);
+    expect(fake.names()).toEqual(["Lab"]);
+  });
+});
