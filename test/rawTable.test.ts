@@ -38,7 +38,7 @@ describe("readRawTable(cells)", () => {
   test("converts to SI (NIST SP 811 factors) and derives Q from piston speed", () => {
     const t = readRawTable([HEADER, [1, 20, 15, "60", 100, 200]]);
     const m = t.measurements[0]!;
-    expectClose(m.dieDiameter, 1e-3, { rel: 1e-15 });
+    expectClose(m.dieDiameter as number, 1e-3, { rel: 1e-15 });
     expectClose(m.dieLength, 20e-3, { rel: 1e-15 });
     expectClose(m.pressure, 1e7, { rel: 1e-15 });
     expectClose(m.temperature as number, 473.15, { rel: 1e-15 });
@@ -59,7 +59,7 @@ describe("readRawTable(cells)", () => {
     expect(t.warnings.map((w) => w.code)).toEqual(["COLUMN_IGNORED"]);
   });
   test("decimal commas on request", () => {
-    expectClose(readRawTable([HEADER, ["1,5", 20, 15, 60, 100, 200]], { decimalComma: true }).measurements[0]!.dieDiameter, 1.5e-3, { rel: 1e-15 });
+    expectClose(readRawTable([HEADER, ["1,5", 20, 15, 60, 100, 200]], { decimalComma: true }).measurements[0]!.dieDiameter as number, 1.5e-3, { rel: 1e-15 });
   });
 });
 

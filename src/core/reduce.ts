@@ -6,16 +6,43 @@
  *   2. Bagley end correction across the die lengths (bagley.ts), or none on request;
  *   3. Rabinowitsch correction of the corrected flow curve (rabinowitsch.ts);
  *   4. η = τ_w/γ̇_w and η_a = τ_w/γ̇_a.
+ *
+ * Slit dies (slit.ts) are reduced the same way with γ̇_a = 6Q/(WH²), τ = ΔP·H/(2L), Bagley in L/H
+ * and the slit Rabinowitsch factor. Dies with L/D (L/H) below orifice.maxLengthOverDiameter are
+ * orifice dies (orifice.ts): never on the Bagley line; their entrance pressure is reported beside
+ * Bagley's and is subtracted with endCorrection "orifice". The optional methods (slip,
+ * representative rate, uncertainty, heating, extensional viscosity, pressure dependence, melt
+ * flow rate) are applied by reduceMethods.ts and add fields; the basic fields never change.
  */
 import { RheoError, Warning, warning } from "./errors";
 import { apparentShearRate, apparentWallShearStress } from "./capillary";
 import { BagleyOptions, BagleyRow, bagleyCorrection } from "./bagley";
 import { RabinowitschOptions, rabinowitschCorrection } from "./rabinowitsch";
+import { slitWallShearStress, slitWarnings } from "./slit";
+import { apparentSlitShearRate } from "./slitFlow";
+import { DEFAULT_ORIFICE_OPTIONS, OrificeOptions, compareEntrancePressures, orificeCorrection } from "./orifice";
+import { interpolateLogLog } from "./interpolate";
+import { bagleyStressUncertainty } from "./uncertainty";
+import { MeltFlowResult, meltFlowPoint } from "./meltFlowRate";
+import {
+  CurveSource,
+  DEFAULT_METHOD_OPTIONS,
+  GroupMethodResults,
+  MethodOptions,
+  SlipResultRow,
+  applyGroupMethods,
+  fittedTemperatureCoefficients,
+  slipAcrossGroups,
+} from "./reduceMethods";
 
 /** One raw measurement, SI. */
 export interface Measurement {
-  /** die bore D, m */
-  dieDiameter: number;
+  /** die bore D, m (round dies; omitted for a slit) */
+  dieDiameter?: number;
+  /** slit width W, m (slit dies, with slitHeight; then no dieDiameter) */
+  slitWidth?: number;
+  /** slit height (gap) H, m */
+  slitHeight?: number;
   /** die land length L, m */
   dieLength: number;
   /** volumetric flow rate Q, m³/s */
@@ -29,9 +56,16 @@ export interface Measurement {
 }
 
 /** Options of {@link reduce}. */
-export interface ReduceOptions {
-  /** "bagley": end correction across die lengths (needs ≥ 2 lengths); "none": apparent stress of the longest die */
-  endCorrection: "bagley" | "none";
+export interface ReduceOptions extends MethodOptions {
+  /**
+   * "bagley": end correction across die lengths (needs ≥ 2 lengths); "none": apparent stress of the
+   * longest die; "orifice": the longest die minus an orifice die's pressure at the same rate
+   */
+  endCorrection: "bagley" | "none" | "orifice";
+  /** which dies count as orifice dies, and when the two entrance pressures disagree */
+  orifice: Partial<OrificeOptions>;
+  /** a melt-flow-rate result to place as an apparent point: MVR (m³/s) or MFR (kg/s) with density, load (kg) */
+  meltFlowRate: { volumeRate?: number; massRate?: number; density?: number; load: number } | null;
   bagley: Partial<BagleyOptions>;
   rabinowitsch: Partial<RabinowitschOptions>;
   /** temperatures closer than this (K) form one group */
@@ -47,18 +81,25 @@ export const DEFAULT_REDUCE_OPTIONS: Readonly<ReduceOptions> = Object.freeze({
   rabinowitsch: {},
   temperatureTolerance: 0.5,
   diameterTolerance: 0.005,
+  orifice: {},
+  meltFlowRate: null,
+  ...DEFAULT_METHOD_OPTIONS,
 });
 
 /** A raw point with its apparent quantities. */
 export interface PointRow {
   row: number;
+  /** D, m (NaN for a slit) */
   dieDiameter: number;
+  /** slit W and H, m (slits only) */
+  slitWidth?: number;
+  slitHeight?: number;
   dieLength: number;
   flowRate: number;
   pressure: number;
   /** γ̇_a, 1/s */
   shearRateApparent: number;
-  /** τ_w,app = ΔP·D/(4L), Pa */
+  /** τ_w,app = ΔP·D/(4L) (ΔP·H/(2L) for a slit), Pa */
   wallShearStressApparent: number;
 }
 
@@ -79,21 +120,44 @@ export interface FlowCurveRow {
 }
 
 /** The reduction of one temperature and die diameter. */
-export interface ReductionGroup {
+export interface ReductionGroup extends GroupMethodResults {
   /** K, or null when the data carry no temperature */
   temperature: number | null;
-  /** m */
+  /** m (NaN for a slit group: see slitWidth and slitHeight) */
   dieDiameter: number;
-  dies: { dieLength: number; lengthOverRadius: number; label: string; points: number }[];
+  /** "round" or "slit" */
+  geometry: "round" | "slit";
+  /** slit W and H, m (slit groups only) */
+  slitWidth?: number;
+  slitHeight?: number;
+  /** lengthOverRadius is L/R for round dies and L/H for slits; orifice marks an orifice die */
+  dies: { dieLength: number; lengthOverRadius: number; label: string; points: number; orifice?: boolean }[];
+  /** both entrance-pressure estimates side by side, when the group has an orifice die */
+  entrancePressures?: EntrancePressureRow[];
   points: PointRow[];
   bagley: BagleyRow[];
   flowCurve: FlowCurveRow[];
   warnings: Warning[];
 }
 
+/** The Bagley and orifice estimates of the entrance pressure at one apparent rate, Pa. */
+export interface EntrancePressureRow {
+  shearRateApparent: number;
+  /** Bagley intercept, or null where no Bagley line exists at this rate */
+  entrancePressure: number | null;
+  /** orifice die's pressure at this rate (interpolated log–log), or null outside its range */
+  entrancePressureOrifice: number | null;
+  /** (Bagley − orifice)/orifice, or null */
+  difference: number | null;
+}
+
 /** Result of {@link reduce}. */
 export interface ReductionResult {
   groups: ReductionGroup[];
+  /** Mooney slip rows (option `slip`), one set per temperature with two or more diameters */
+  slip?: SlipResultRow[];
+  /** the melt-flow-rate point (option `meltFlowRate`) */
+  meltFlowRate?: MeltFlowResult;
   /** every group's warnings, each prefixed with its group */
   warnings: Warning[];
 }
@@ -108,7 +172,18 @@ function checkMeasurement(m: Measurement, index: number): number {
       throw new RheoError("domain", name, `must be ${allowZero ? "zero or more" : "greater than zero"}, got ${value}`, row);
     }
   };
-  need(m.dieDiameter, "dieDiameter");
+  if (m.slitWidth !== undefined || m.slitHeight !== undefined) {
+    if (m.dieDiameter !== undefined) {
+      throw new RheoError("value", "dieDiameter", "is given together with a slit width and height; a row is either a round die or a slit", row);
+    }
+    if (m.slitWidth === undefined) throw new RheoError("missing", "slitWidth", "a slit needs both its width and its height", row);
+    if (m.slitHeight === undefined) throw new RheoError("missing", "slitHeight", "a slit needs both its width and its height", row);
+    need(m.slitWidth, "slitWidth");
+    need(m.slitHeight, "slitHeight");
+  } else {
+    if (m.dieDiameter === undefined) throw new RheoError("missing", "dieDiameter", "needs a die diameter, or a slit width and height", row);
+    need(m.dieDiameter, "dieDiameter");
+  }
   need(m.dieLength, "dieLength");
   need(m.flowRate, "flowRate");
   need(m.pressure, "pressure");
@@ -132,33 +207,65 @@ function mm(x: number): string {
   return `${Number((x * 1e3).toPrecision(4))} mm`;
 }
 
-function groupLabel(temperature: number | null, diameter: number): string {
+function groupLabel(temperature: number | null, diameter: number, slit?: { width: number; height: number }): string {
   const t = temperature === null ? "" : `${Number((temperature - 273.15).toFixed(2))} °C, `;
-  return `${t}D = ${mm(diameter)}`;
+  return slit ? `${t}slit ${mm(slit.width)} × ${mm(slit.height)}` : `${t}D = ${mm(diameter)}`;
 }
 
-function reduceGroup(points: PointRow[], temperature: number | null, opt: ReduceOptions): ReductionGroup {
-  const dieDiameter = Math.exp(points.reduce((s, p) => s + Math.log(p.dieDiameter), 0) / points.length);
+function reduceGroup(
+  points: PointRow[],
+  temperature: number | null,
+  opt: ReduceOptions,
+  slit?: { width: number; height: number },
+): { group: ReductionGroup; sources: CurveSource[] } {
+  const geometry = slit ? "slit" : "round";
+  const dieDiameter = slit ? NaN : Math.exp(points.reduce((s, p) => s + Math.log(p.dieDiameter), 0) / points.length);
+  const label = groupLabel(temperature, dieDiameter, slit);
+  // x of the Bagley plot: L/R for round dies, L/H for slits (ΔP = ΔP_ent + 2τ_w·x in both).
+  const xOf = (length: number) => (slit ? length / slit.height : (2 * length) / dieDiameter);
+  // τ = ΔP·g with g = D/(4L) (round) or H/(2L) (slit)
+  const stressFactor = (length: number) => (slit ? slit.height / (2 * length) : dieDiameter / (4 * length));
+  const orificeOpt: OrificeOptions = { ...DEFAULT_ORIFICE_OPTIONS, ...opt.orifice };
+  const isOrifice = (length: number) => length / (slit ? slit.height : dieDiameter) < orificeOpt.maxLengthOverDiameter;
   const byLength = cluster(points, (p) => p.dieLength, (a, b) => Math.abs(a - b) <= 1e-6 * a);
   const dies = byLength.map((g) => {
     const dieLength = (g[0] as PointRow).dieLength;
-    return { dieLength, lengthOverRadius: (2 * dieLength) / dieDiameter, label: `L=${mm(dieLength)}`, points: g.length };
+    const die: ReductionGroup["dies"][number] = { dieLength, lengthOverRadius: xOf(dieLength), label: `L=${mm(dieLength)}`, points: g.length };
+    if (isOrifice(dieLength)) die.orifice = true;
+    return die;
   });
-  const warnings: Warning[] = [];
+  const longDies = byLength.filter((g) => !isOrifice((g[0] as PointRow).dieLength));
+  const orificePoints = points.filter((p) => isOrifice(p.dieLength)).sort((a, b) => a.shearRateApparent - b.shearRateApparent);
+  const warnings: Warning[] = slit ? slitWarnings(slit.width, slit.height) : [];
+  const ratioName = slit ? "L/H" : "L/D";
+  if (longDies.length === 0) {
+    throw new RheoError("missing", "dieLength", `${label} has only orifice dies (${ratioName} < ${orificeOpt.maxLengthOverDiameter}); a long die is needed too`);
+  }
+  if (orificePoints.length > 0 && opt.endCorrection !== "orifice") {
+    warnings.push(
+      warning("ORIFICE_DIE_NOT_ON_BAGLEY", `The die of ${ratioName} < ${orificeOpt.maxLengthOverDiameter} (L = ${mm((orificePoints[0] as PointRow).dieLength)}) is treated as an orifice die: it is kept off the Bagley line and its entrance pressure is listed beside Bagley's.`),
+    );
+  }
+  if (opt.endCorrection === "orifice" && orificePoints.length === 0) {
+    throw new RheoError("missing", "dieLength", `${label} has no orifice die (${ratioName} < ${orificeOpt.maxLengthOverDiameter}); the orifice end correction needs one, or choose bagley or none`);
+  }
+  const orificeRates = orificePoints.map((p) => p.shearRateApparent);
+  const orificePressures = orificePoints.map((p) => p.pressure);
+  const orificeAt = (rate: number) => (orificePoints.length > 0 ? (interpolateLogLog(orificeRates, orificePressures, rate) ?? null) : null);
   let bagley: BagleyRow[] = [];
-  let curve: { rate: number; stress: number }[];
-  if (opt.endCorrection === "bagley") {
-    if (dies.length < 2) {
+  const wantBagley = opt.endCorrection === "bagley" || (opt.endCorrection === "orifice" && longDies.length >= 2);
+  if (wantBagley) {
+    if (longDies.length < 2) {
       throw new RheoError(
         "missing",
         "dieLength",
-        `${groupLabel(temperature, dieDiameter)} has a single die length (${mm(dies[0]?.dieLength ?? 0)}); the Bagley correction needs two or more (or choose no end correction)`,
+        `${label} has a single die length (${mm(longDies[0]?.[0]?.dieLength ?? 0)}); the Bagley correction needs two or more (or choose no end correction)`,
       );
     }
     const result = bagleyCorrection(
-      points.map((p) => ({
+      longDies.flat().map((p) => ({
         die: `L=${mm(p.dieLength)}`,
-        lengthOverRadius: (2 * p.dieLength) / dieDiameter,
+        lengthOverRadius: xOf(p.dieLength),
         shearRateApparent: p.shearRateApparent,
         pressure: p.pressure,
       })),
@@ -166,18 +273,72 @@ function reduceGroup(points: PointRow[], temperature: number | null, opt: Reduce
     );
     bagley = result.rows;
     warnings.push(...result.warnings);
-    curve = bagley.map((r) => ({ rate: r.shearRateApparent, stress: r.wallShearStress }));
-  } else {
-    const longest = byLength[byLength.length - 1] as PointRow[];
-    warnings.push(
-      warning("END_CORRECTION_NONE", `No end correction: the wall stress of the longest die (${mm((longest[0] as PointRow).dieLength)}) includes its entrance loss and is overestimated.`),
+  }
+  let curve: { rate: number; stress: number; source: CurveSource }[];
+  const longest = longDies[longDies.length - 1] as PointRow[];
+  const longestLength = (longest[0] as PointRow).dieLength;
+  if (opt.endCorrection === "bagley") {
+    curve = bagley.map((r) => ({
+      rate: r.shearRateApparent,
+      stress: r.wallShearStress,
+      source: {
+        pressure: Math.max(...r.points.map((p) => p.pressure)),
+        entrancePressure: r.entrancePressure,
+        stressUncertainty: (uP: number) => bagleyStressUncertainty(r.points.map((p) => p.lengthOverRadius), uP, r.slopeStandardError),
+        bagleyPoints: r.points.map((p) => ({ lengthOverRadius: p.lengthOverRadius, pressure: p.pressure })),
+      },
+    }));
+  } else if (opt.endCorrection === "orifice") {
+    // For a slit, a "diameter" of 2H makes D/(4L) equal H/(2L).
+    const corrected = orificeCorrection(
+      {
+        dieDiameter: slit ? 2 * slit.height : dieDiameter,
+        dieLength: longestLength,
+        shearRateApparent: longest.map((p) => p.shearRateApparent),
+        pressure: longest.map((p) => p.pressure),
+      },
+      { shearRateApparent: orificeRates, pressure: orificePressures },
     );
-    curve = longest.map((p) => ({ rate: p.shearRateApparent, stress: p.wallShearStressApparent })).sort((a, b) => a.rate - b.rate);
+    warnings.push(...corrected.warnings);
+    const g = stressFactor(longestLength);
+    curve = corrected.rows
+      .map((r) => ({
+        rate: r.shearRateApparent,
+        stress: r.wallShearStress,
+        source: { pressure: r.pressure, entrancePressure: r.entrancePressureOrifice, stressUncertainty: (uP: number) => Math.SQRT2 * uP * g, bagleyPoints: null },
+      }))
+      .sort((a, b) => a.rate - b.rate);
+  } else {
+    warnings.push(
+      warning("END_CORRECTION_NONE", `No end correction: the wall stress of the longest die (${mm(longestLength)}) includes its entrance loss and is overestimated.`),
+    );
+    const g = stressFactor(longestLength);
+    curve = longest
+      .map((p) => ({
+        rate: p.shearRateApparent,
+        stress: p.wallShearStressApparent,
+        source: { pressure: p.pressure, entrancePressure: orificeAt(p.shearRateApparent), stressUncertainty: (uP: number) => uP * g, bagleyPoints: null },
+      }))
+      .sort((a, b) => a.rate - b.rate);
+  }
+  let entrancePressures: EntrancePressureRow[] | undefined;
+  if (orificePoints.length > 0 && (bagley.length > 0 || opt.endCorrection !== "bagley")) {
+    const rates = bagley.length > 0 ? bagley.map((r) => r.shearRateApparent) : curve.map((c) => c.rate);
+    const fromBagley = rates.map((rate) => bagley.find((r) => r.shearRateApparent === rate)?.entrancePressure ?? null);
+    const fromOrifice = rates.map(orificeAt);
+    const cmp = compareEntrancePressures(rates, fromBagley, fromOrifice, orificeOpt.maxDisagreement);
+    warnings.push(...cmp.warnings);
+    entrancePressures = rates.map((rate, i) => ({
+      shearRateApparent: rate,
+      entrancePressure: fromBagley[i] ?? null,
+      entrancePressureOrifice: fromOrifice[i] ?? null,
+      difference: cmp.difference[i] ?? null,
+    }));
   }
   const rab = rabinowitschCorrection(
     curve.map((c) => c.rate),
     curve.map((c) => c.stress),
-    opt.rabinowitsch,
+    { ...opt.rabinowitsch, geometry },
   );
   warnings.push(...rab.warnings);
   const flowCurve: FlowCurveRow[] = curve.map((c, i) => {
@@ -191,7 +352,13 @@ function reduceGroup(points: PointRow[], temperature: number | null, opt: Reduce
       viscosityApparent: c.stress / c.rate,
     };
   });
-  return { temperature, dieDiameter, dies, points, bagley, flowCurve, warnings };
+  const group: ReductionGroup = { temperature, dieDiameter, geometry, dies, points, bagley, flowCurve, warnings };
+  if (slit) {
+    group.slitWidth = slit.width;
+    group.slitHeight = slit.height;
+  }
+  if (entrancePressures) group.entrancePressures = entrancePressures;
+  return { group, sources: curve.map((c) => c.source) };
 }
 
 /**
@@ -206,38 +373,82 @@ function reduceGroup(points: PointRow[], temperature: number | null, opt: Reduce
  */
 export function reduce(measurements: Measurement[], options: Partial<ReduceOptions> = {}): ReductionResult {
   const opt: ReduceOptions = { ...DEFAULT_REDUCE_OPTIONS, ...options };
-  if (opt.endCorrection !== "bagley" && opt.endCorrection !== "none") {
-    throw new RheoError("value", "endCorrection", `unknown end correction "${String(opt.endCorrection)}"; accepted: bagley, none`);
+  if (opt.endCorrection !== "bagley" && opt.endCorrection !== "none" && opt.endCorrection !== "orifice") {
+    throw new RheoError("value", "endCorrection", `unknown end correction "${String(opt.endCorrection)}"; accepted: bagley, none, orifice`);
   }
   if (measurements.length === 0) throw new RheoError("missing", "measurements", "no data rows");
   const points: (PointRow & { temperature: number | null })[] = measurements.map((m, i) => {
     const row = checkMeasurement(m, i);
+    if (m.slitWidth !== undefined && m.slitHeight !== undefined) {
+      return {
+        row,
+        dieDiameter: NaN,
+        slitWidth: m.slitWidth,
+        slitHeight: m.slitHeight,
+        dieLength: m.dieLength,
+        flowRate: m.flowRate,
+        pressure: m.pressure,
+        temperature: m.temperature ?? null,
+        shearRateApparent: apparentSlitShearRate(m.flowRate, m.slitWidth, m.slitHeight),
+        wallShearStressApparent: slitWallShearStress(m.pressure, m.slitHeight, m.dieLength),
+      };
+    }
+    const dieDiameter = m.dieDiameter as number;
     return {
       row,
-      dieDiameter: m.dieDiameter,
+      dieDiameter,
       dieLength: m.dieLength,
       flowRate: m.flowRate,
       pressure: m.pressure,
       temperature: m.temperature ?? null,
-      shearRateApparent: apparentShearRate(m.flowRate, m.dieDiameter),
-      wallShearStressApparent: apparentWallShearStress(m.pressure, m.dieDiameter, m.dieLength),
+      shearRateApparent: apparentShearRate(m.flowRate, dieDiameter),
+      wallShearStressApparent: apparentWallShearStress(m.pressure, dieDiameter, m.dieLength),
     };
   });
   const withoutT = points.filter((p) => p.temperature === null);
   const withT = points.filter((p) => p.temperature !== null);
   const tGroups = cluster(withT, (p) => p.temperature as number, (a, b) => Math.abs(a - b) <= opt.temperatureTolerance);
   if (withoutT.length > 0) tGroups.push(withoutT);
-  const groups: ReductionGroup[] = [];
-  const warnings: Warning[] = [];
+  const reduced: { group: ReductionGroup; sources: CurveSource[] }[] = [];
+  const close = (a: number, b: number) => Math.abs(a - b) <= opt.diameterTolerance * a;
   for (const tg of tGroups) {
     const temps = tg.map((p) => p.temperature).filter((t): t is number => t !== null);
     const temperature = temps.length ? temps.reduce((s, t) => s + t, 0) / temps.length : null;
-    for (const dg of cluster(tg, (p) => p.dieDiameter, (a, b) => Math.abs(a - b) <= opt.diameterTolerance * a)) {
-      const group = reduceGroup(dg, temperature, opt);
-      groups.push(group);
-      const label = groupLabel(group.temperature, group.dieDiameter);
-      warnings.push(...group.warnings.map((w) => ({ code: w.code, message: `${label}: ${w.message}` })));
+    const round = tg.filter((p) => p.slitWidth === undefined);
+    for (const dg of cluster(round, (p) => p.dieDiameter, close)) {
+      reduced.push(reduceGroup(dg, temperature, opt));
+    }
+    for (const wg of cluster(tg.filter((p) => p.slitWidth !== undefined), (p) => p.slitWidth as number, close)) {
+      for (const hg of cluster(wg, (p) => p.slitHeight as number, close)) {
+        const mean = (f: (p: PointRow) => number) => Math.exp(hg.reduce((s, p) => s + Math.log(f(p)), 0) / hg.length);
+        reduced.push(reduceGroup(hg, temperature, opt, { width: mean((p) => p.slitWidth as number), height: mean((p) => p.slitHeight as number) }));
+      }
     }
   }
-  return { groups, warnings };
+  const groups = reduced.map((r) => r.group);
+  const fitted = opt.heating && opt.heating.temperatureCoefficient === undefined ? fittedTemperatureCoefficients(groups) : null;
+  const warnings: Warning[] = [];
+  for (const { group, sources } of reduced) {
+    const given = opt.heating?.temperatureCoefficient;
+    const b = given !== undefined ? { value: given, source: "given" as const } : group.temperature !== null && fitted?.has(group.temperature) ? { value: fitted.get(group.temperature) as number, source: "fitted" as const } : null;
+    const radius = group.geometry === "slit" ? (group.slitHeight as number) / 2 : group.dieDiameter / 2;
+    const methods = applyGroupMethods(group, sources, group.geometry, radius, opt, b);
+    Object.assign(group, methods.results);
+    group.warnings.push(...methods.warnings);
+    const slit = group.geometry === "slit" ? { width: group.slitWidth as number, height: group.slitHeight as number } : undefined;
+    const label = groupLabel(group.temperature, group.dieDiameter, slit);
+    warnings.push(...group.warnings.map((w) => ({ code: w.code, message: `${label}: ${w.message}` })));
+  }
+  const result: ReductionResult = { groups, warnings };
+  if (opt.slip !== false) {
+    const slip = slipAcrossGroups(groups, opt.slip === true ? { rabinowitsch: opt.rabinowitsch } : { rabinowitsch: opt.rabinowitsch, ...opt.slip });
+    result.slip = slip.rows;
+    warnings.push(...slip.warnings);
+  }
+  if (opt.meltFlowRate) {
+    const { load, ...flow } = opt.meltFlowRate;
+    result.meltFlowRate = meltFlowPoint(flow, load);
+    warnings.push(...result.meltFlowRate.warnings);
+  }
+  return result;
 }

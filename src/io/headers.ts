@@ -8,6 +8,8 @@ import { Quantity, isUnitOf, acceptedUnits } from "../core/units";
 export const COLUMN_QUANTITIES = {
   die_diameter: { quantity: "length", description: "die bore D" },
   die_length: { quantity: "length", description: "die land length L" },
+  slit_width: { quantity: "length", description: "slit die width W (with slit_height, instead of die_diameter)" },
+  slit_height: { quantity: "length", description: "slit die height (gap) H" },
   piston_speed: { quantity: "speed", description: "piston (crosshead) speed" },
   barrel_diameter: { quantity: "length", description: "barrel bore" },
   flow_rate: { quantity: "volumetricFlow", description: "volumetric flow rate" },

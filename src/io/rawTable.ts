@@ -65,7 +65,8 @@ export function readNumberCell(cell: unknown, argument: string, place: string, d
 /**
  * Reads a raw table (first row headers) into SI measurements.
  *
- * Needs die_diameter, die_length, pressure, and a flow: flow_rate, or piston_speed with
+ * Needs die_diameter (or slit_width and slit_height for slit dies; a row has one or the other),
+ * die_length, pressure, and a flow: flow_rate, or piston_speed with
  * barrel_diameter (column or option), or mass_rate with density (column or option);
  * temperature is optional. Unknown columns are ignored with a warning. A row whose needed cells
  * are all blank is skipped silently; one with some blank is skipped with a warning.
@@ -91,7 +92,13 @@ export function readRawTable(cells: unknown[][], options: Partial<RawTableOption
     if (byName.has(c.name)) throw new RheoError("value", `column ${c.index + 1}`, `"${c.header}" repeats the quantity ${c.name}`);
     byName.set(c.name, c);
   }
-  const required: ColumnName[] = ["die_diameter", "die_length", "pressure"];
+  const hasSlit = byName.has("slit_width") || byName.has("slit_height");
+  if (hasSlit && !(byName.has("slit_width") && byName.has("slit_height"))) {
+    const missing = byName.has("slit_width") ? "slit_height" : "slit_width";
+    throw new RheoError("missing", missing, `a slit die needs both "slit_width [unit]" and "slit_height [unit]" columns`);
+  }
+  const geometryColumns: ColumnName[] = [...(byName.has("die_diameter") || !hasSlit ? ["die_diameter" as const] : []), ...(hasSlit ? ["slit_width" as const, "slit_height" as const] : [])];
+  const required: ColumnName[] = [...geometryColumns, "die_length", "pressure"];
   for (const name of required) {
     if (!byName.has(name)) {
       throw new RheoError("missing", name, `no "${name} [unit]" column; found: ${columns.map((c) => `"${c.header}"`).join(", ")}`);
@@ -132,6 +139,18 @@ export function readRawTable(cells: unknown[][], options: Partial<RawTableOption
       else values.set(name, toSI(v, col.unit as string, COLUMN_QUANTITIES[name].quantity, col.header));
     }
     if (blanks.length === used.length) continue;
+    if (hasSlit) {
+      // Geometry: die_diameter, or slit_width with slit_height; the other kind is left blank.
+      const round = values.has("die_diameter");
+      const slit = values.has("slit_width") || values.has("slit_height");
+      if (round && slit) {
+        throw new RheoError("value", `${opt.rowWord} ${number}`, "has both a die diameter and a slit size; give die_diameter for a round die or slit_width and slit_height for a slit");
+      }
+      const notNeeded: ColumnName[] = round ? ["slit_width", "slit_height"] : slit ? ["die_diameter"] : [];
+      const stillBlank = blanks.filter((name) => !notNeeded.includes(name));
+      blanks.length = 0;
+      blanks.push(...stillBlank);
+    }
     if (blanks.length > 0) {
       skippedRows.push(number);
       warnings.push(warning("ROW_SKIPPED_BLANK", `${opt.rowWord} ${number} skipped: blank ${blanks.join(", ")}.`));
@@ -151,12 +170,14 @@ export function readRawTable(cells: unknown[][], options: Partial<RawTableOption
     } catch (e) {
       return fail(flowSource, e);
     }
-    for (const name of ["die_diameter", "die_length", "pressure", flowSource] as ColumnName[]) {
+    const isSlit = values.has("slit_width") || values.has("slit_height");
+    const geometry: ColumnName[] = isSlit ? ["slit_width", "slit_height"] : ["die_diameter"];
+    for (const name of [...geometry, "die_length", "pressure", flowSource] as ColumnName[]) {
       const v = name === flowSource ? flowRate : get(name);
       if (!(v > 0)) fail(name, new RheoError("domain", name, `must be greater than zero, got ${values.get(name)}`));
     }
     const m: Measurement = {
-      dieDiameter: get("die_diameter"),
+      ...(isSlit ? { slitWidth: get("slit_width"), slitHeight: get("slit_height") } : { dieDiameter: get("die_diameter") }),
       dieLength: get("die_length"),
       flowRate,
       pressure: get("pressure"),

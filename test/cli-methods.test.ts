@@ -1,0 +1,84 @@
+import { main } from "../src/cli/main";
+import { parseHeating, parseMeltFlow, parseTransducer } from "../src/cli/methodFlags";
+import { expectClose } from "./helpers/expectClose";
+
+async function run(args: string[], files: Record<string, string>) {
+  let stdout = "";
+  let stderr = "";
+  const code = await main(args, { readFile: (p) => files[p] as string, stdout: (t) => (stdout += t), stderr: (t) => (stderr += t) });
+  return { code, stdout, stderr };
+}
+
+/** Newtonian liquid, μ = 400 Pa·s, dies of 0.5, 1 and 2 mm with 0.2 mm orifices; invented data. */
+function csv(): string {
+  const lines = ["die_diameter [mm],die_length [mm],flow_rate [mm3/s],pressure [bar],temperature [C]"];
+  for (const D of [0.5, 1, 2]) {
+    for (const L of [0.1 * D, 10 * D, 20 * D, 30 * D]) {
+      for (const rate of [10, 30, 100, 300]) {
+        const Q = (rate * Math.PI * D ** 3) / 32; // mm3/s
+        const p = (Math.sqrt(8 / 3) * 400 * rate + (4 * 400 * rate * L) / D) / 1e5;
+        lines.push(`${D},${L},${Q},${p},200`);
+      }
+    }
+  }
+  return lines.join("\n");
+}
+
+describe("rheoledger reduce with the method flags", () => {
+  const files = { "n.csv": csv() };
+  test("--slip --extensional --representative --pressure --transducer --mfr: JSON keys in SI", async () => {
+    const r = await run(["reduce", "n.csv", "--json", "--slip", "--extensional", "--representative", "--pressure", "--transducer", "1000 bar, 0.25 %", "--mfr", "10 cm3/10min, 2.16 kg"], files);
+    expect(r.stderr).toBe("");
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.slip.length).toBeGreaterThan(0);
+    for (const s of doc.slip) {
+      expect(Object.keys(s)).toEqual(expect.arrayContaining(["wallShearStress", "slipVelocity", "shearRateApparentCorrected"]));
+      // no slip in the data: v_s ≈ 0 relative to the rate × radius scale
+      expect(Math.abs(s.slipVelocity)).toBeLessThan(1e-9);
+    }
+    const g = doc.groups[0];
+    expect(g.geometry).toBe("round");
+    expect(g.entrancePressures.length).toBe(4);
+    g.extensional.forEach((e: { troutonRatio: number }) => expectClose(e.troutonRatio, 3, { rel: 1e-6 }));
+    expect(Object.keys(g.flowCurve[0])).toEqual(expect.arrayContaining(["viscosityRepresentative", "viscosityUncertainty", "wallShearStressUncertainty", "shearRateWallUncertainty"]));
+    expect(g.pressureDependence.rows.length).toBe(4);
+    expectClose(doc.meltFlowRate.viscosityApparent, 1048.612614495892, { rel: 1e-12 });
+    expect(doc.warnings.map((w: { code: string }) => w.code)).toContain("ORIFICE_DIE_NOT_ON_BAGLEY");
+  });
+  test("--orifice and --heating: text tables with units", async () => {
+    const r = await run(["reduce", "n.csv", "--orifice", "--heating", "density=0.75 g/cm3, cp=2.5 kJ/(kg.K), k=0.2 W/(m.K), b=0.03 1/K"], files);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain("Entrance pressure: Bagley and orifice die");
+    expect(r.stdout).toContain("Viscous heating (b = 0.03 1/K, given)");
+    expect(r.stdout).toContain("adiabatic rise [K]");
+  });
+  test("bad flag values exit 1 naming the flag", async () => {
+    expect((await run(["reduce", "n.csv", "--transducer", "1000 bar"], files)).stderr).toMatch(/--transducer: expected "full scale, accuracy"/);
+    expect((await run(["reduce", "n.csv", "--heating", "rho=1"], files)).stderr).toMatch(/--heating: expected key=value pairs/);
+    expect((await run(["reduce", "n.csv", "--mfr", "10 g/10min, 2.16 kg"], files)).stderr).toMatch(/--density: an MFR in mass per time needs the melt density/);
+    expect((await run(["reduce", "n.csv", "--orifice", "--end-correction", "none"], files)).code).toBe(1);
+  });
+});
+
+describe("flag parsers", () => {
+  test("parseTransducer: % or fraction", () => {
+    expect(parseTransducer("1000 bar, 0.25 %")).toEqual({ fullScale: 1e8, accuracy: 0.0025 });
+    expectClose(parseTransducer("50 MPa, 0.005").accuracy, 0.005, { rel: 1e-15 });
+  });
+  test("parseHeating: units converted to SI, b optional", () => {
+    const h = parseHeating("density=0.76 g/cm3, cp=2.1 kJ/(kg.K), k=0.18");
+    expectClose(h.density, 760, { rel: 1e-15 });
+    expectClose(h.heatCapacity, 2100, { rel: 1e-15 });
+    expect(h.conductivity).toBe(0.18);
+    expect(h.temperatureCoefficient).toBeUndefined();
+    expect(() => parseHeating("density=760, cp=2000")).toThrow(/--heating: needs k=/);
+  });
+  test("parseMeltFlow: MVR by volume unit, MFR by mass unit with density", () => {
+    expectClose(parseMeltFlow("10 cm3/10min, 2.16 kg", undefined).volumeRate as number, 10e-6 / 600, { rel: 1e-15 });
+    const m = parseMeltFlow("2 g/10min, 5 kg", 750);
+    expectClose(m.massRate as number, 2e-3 / 600, { rel: 1e-15 });
+    expect(m.load).toBe(5);
+    expect(() => parseMeltFlow("2 bar, 5 kg", 750)).toThrow(/not a mass rate/);
+  });
+});

@@ -1,0 +1,121 @@
+import { reduce, Measurement } from "../src/core/reduce";
+import { compareEntrancePressures, isOrificeDie, orificeCorrection, orificeEntrancePressure, DEFAULT_ORIFICE_OPTIONS } from "../src/core/orifice";
+import { flowRateForApparentShearRate } from "../src/core/capillary";
+import { expectClose } from "./helpers/expectClose";
+
+/**
+ * Newtonian liquid (Hagen–Poiseuille: τ_w = μγ̇_a, ΔP_die = 4τ_w L/D) with an entrance loss that
+ * grows as a power of the rate, ΔP_ent = c·γ̇^0.5. An orifice die of length ~0 reads ΔP_ent alone
+ * (Bagley 1957; ISO 11443, from memory), so both end corrections must recover τ_w = μγ̇ exactly.
+ */
+const MU = 500;
+const D = 1e-3;
+const entrance = (rate: number) => 2e5 * Math.sqrt(rate);
+function die(L: number, rates: number[], extra = (_rate: number) => 0): Measurement[] {
+  return rates.map((rate) => ({ dieDiameter: D, dieLength: L, flowRate: flowRateForApparentShearRate(rate, D), pressure: entrance(rate) + extra(rate) + (4 * MU * rate * L) / D }));
+}
+const RATES = [10, 30, 100, 300, 1000];
+
+describe("orifice core functions", () => {
+  test("isOrificeDie: L/D below 1 by default", () => {
+    expect(DEFAULT_ORIFICE_OPTIONS.maxLengthOverDiameter).toBe(1);
+    expect(isOrificeDie(0.25e-3, 1e-3)).toBe(true);
+    expect(isOrificeDie(0, 1e-3)).toBe(true);
+    expect(isOrificeDie(1e-3, 1e-3)).toBe(false);
+    expect(() => isOrificeDie(-1, 1e-3)).toThrow(/dieLength: must be zero or more/);
+  });
+  test("orificeEntrancePressure interpolates log–log and never extrapolates", () => {
+    expectClose(orificeEntrancePressure([10, 1000], [1e5, 1e7], 100) as number, 1e6, { rel: 1e-12 });
+    expect(orificeEntrancePressure([10, 1000], [1e5, 1e7], 2000)).toBeUndefined();
+    expect(() => orificeEntrancePressure([10, 1000], [1e5], 100)).toThrow(/orificePressure: has 1 values/);
+  });
+  test("orificeCorrection: τ = (ΔP − ΔP_orifice)·D/(4L), exact on Newtonian data", () => {
+    const long = die(20e-3, RATES);
+    const r = orificeCorrection(
+      { dieDiameter: D, dieLength: 20e-3, shearRateApparent: RATES, pressure: long.map((m) => m.pressure) },
+      { shearRateApparent: RATES, pressure: RATES.map(entrance) },
+    );
+    r.rows.forEach((row) => {
+      expectClose(row.wallShearStress, MU * row.shearRateApparent, { rel: 1e-12 });
+      expect(row.interpolated).toBe(false);
+    });
+    expect(r.warnings).toEqual([]);
+  });
+  test("ORIFICE_RATE_OUTSIDE and ORIFICE_PRESSURE_TOO_HIGH drop points with a warning; none left is an error", () => {
+    const r = orificeCorrection(
+      { dieDiameter: D, dieLength: 20e-3, shearRateApparent: [5, 50, 100], pressure: [1e6, 1e3, 2e7] },
+      { shearRateApparent: [10, 200], pressure: [1e5, 2e6] },
+    );
+    expect(r.warnings.map((w) => w.code)).toEqual(["ORIFICE_RATE_OUTSIDE", "ORIFICE_PRESSURE_TOO_HIGH"]);
+    expect(r.rows.map((x) => x.shearRateApparent)).toEqual([100]);
+    expect(() => orificeCorrection({ dieDiameter: D, dieLength: 20e-3, shearRateApparent: [5000], pressure: [1e7] }, { shearRateApparent: [10, 200], pressure: [1e5, 2e6] })).toThrow(
+      /orificePressure: no long-die point lies within/,
+    );
+  });
+  test("compareEntrancePressures: ORIFICE_BAGLEY_DISAGREE above 20 % (common practice)", () => {
+    const ok = compareEntrancePressures([10, 100], [1.1e5, 1e6], [1e5, 1e6]);
+    expect(ok.warnings).toEqual([]);
+    expectClose(ok.difference[0] as number, 0.1, { rel: 1e-12 });
+    const bad = compareEntrancePressures([10, 100], [1.5e5, null], [1e5, 1e6]);
+    expect(bad.warnings.map((w) => w.code)).toEqual(["ORIFICE_BAGLEY_DISAGREE"]);
+    expect(bad.difference[1]).toBeNull();
+  });
+});
+
+describe("reduce() with an orifice die", () => {
+  // orifice run at rates between the long dies' rates: its pressure is interpolated
+  const orificeRates = [8, 20, 60, 200, 600, 1200];
+  const data = [...die(10e-3, RATES), ...die(20e-3, RATES), ...die(30e-3, RATES), ...die(1e-6, orificeRates)];
+
+  test("default (Bagley): the orifice die stays off the Bagley line; both entrance pressures side by side", () => {
+    const r = reduce(data);
+    const g = r.groups[0]!;
+    expect(g.dies.filter((d) => d.orifice).map((d) => d.dieLength)).toEqual([1e-6]);
+    g.bagley.forEach((b) => {
+      expect(b.diesUsed).toBe(3);
+      expectClose(b.entrancePressure, entrance(b.shearRateApparent), { rel: 1e-9 });
+    });
+    expect(r.warnings.map((w) => w.code)).toContain("ORIFICE_DIE_NOT_ON_BAGLEY");
+    const e = g.entrancePressures!;
+    expect(e).toHaveLength(RATES.length);
+    e.forEach((x, i) => {
+      expectClose(x.shearRateApparent, RATES[i] as number, { rel: 1e-12 });
+      expectClose(x.entrancePressure as number, entrance(x.shearRateApparent), { rel: 1e-9 });
+      // √rate is a straight line in log–log, so the interpolated orifice reading is exact up to the
+      // orifice die's own 1 µm land (4μγ̇·L/D: at most 3.2e-4 of the entrance loss here)
+      expectClose(x.entrancePressureOrifice as number, entrance(x.shearRateApparent), { rel: 4e-4 });
+    });
+  });
+
+  test("endCorrection orifice: τ_w = μγ̇ from the longest die minus the orifice; Bagley still reported", () => {
+    const r = reduce(data, { endCorrection: "orifice" });
+    const g = r.groups[0]!;
+    expect(g.bagley.length).toBe(RATES.length);
+    g.flowCurve.forEach((f) => {
+      expectClose(f.wallShearStress, MU * f.shearRateApparent, { rel: 1e-3 });
+      expectClose(f.viscosity as number, MU, { rel: 2e-3 });
+    });
+    expect(r.warnings.map((w) => w.code)).not.toContain("ORIFICE_DIE_NOT_ON_BAGLEY");
+  });
+
+  test("ORIFICE_BAGLEY_DISAGREE when the orifice reads a different entrance loss", () => {
+    const off = [...die(10e-3, RATES), ...die(20e-3, RATES), ...die(1e-6, RATES, (rate) => entrance(rate))];
+    const r = reduce(off);
+    expect(r.warnings.map((w) => w.code)).toContain("ORIFICE_BAGLEY_DISAGREE");
+    r.groups[0]!.entrancePressures!.forEach((x) => expectClose(x.difference as number, -0.5, { rel: 1e-3 }));
+  });
+
+  test("orifice with a single long die; errors without an orifice die or without a long die", () => {
+    const r = reduce([...die(20e-3, RATES), ...die(0.2e-3, RATES)], { endCorrection: "orifice" });
+    expect(r.groups[0]!.bagley).toEqual([]);
+    expect(r.groups[0]!.entrancePressures!.map((x) => x.entrancePressure)).toEqual(RATES.map(() => null));
+    expect(() => reduce(die(20e-3, RATES), { endCorrection: "orifice" })).toThrow(/has no orifice die/);
+    expect(() => reduce(die(0.2e-3, RATES))).toThrow(/has only orifice dies/);
+    expect(() => reduce(die(20e-3, RATES), { endCorrection: "bogus" as "none" })).toThrow(/accepted: bagley, none, orifice/);
+  });
+
+  test("orifice.maxLengthOverDiameter moves the threshold", () => {
+    const r = reduce([...die(10e-3, RATES), ...die(20e-3, RATES), ...die(2e-3, RATES)], { orifice: { maxLengthOverDiameter: 3 } });
+    expect(r.groups[0]!.dies.filter((d) => d.orifice).map((d) => d.dieLength)).toEqual([2e-3]);
+  });
+});
