@@ -7,6 +7,10 @@
  * λ = 0.6 s, a = 0.8, n = 0.38) shifted with an Arrhenius activation energy of 55 kJ/mol, the
  * exact capillary flow integral for the wall stress, an entrance loss of 2τ_w·e with
  * e = 2 + 1.5·log10(γ̇_a), and 0.5 % Gaussian noise on every pressure (seed 207).
+ *
+ * With `{ orifice: true }` the rows of an orifice die (L = 0.25 mm, same bore) follow the long dies,
+ * from the same pressure law at L/R = 0.5: ΔP = 2τ_w(0.5 + e). The long-die rows are unchanged
+ * (the noise stream reaches the orifice rows last), so the CSV the demo reads stays the same.
  */
 import { writeFileSync } from "node:fs";
 import { wallRateFromApparentRate } from "../../src/core/forwardFlow";
@@ -22,6 +26,7 @@ export const FILM_GRADE = {
   barrelDiameter: 15e-3,
   dieDiameter: 1e-3,
   dieLengths: [10e-3, 20e-3, 30e-3],
+  orificeLength: 0.25e-3,
   temperaturesC: [190, 210, 230],
   pistonSpeedsMmMin: [0.6, 1.2, 2.5, 5, 10, 20, 40, 80, 120],
   pressureNoise: 0.005,
@@ -36,14 +41,21 @@ function viscosityAt(temperatureK: number) {
   return (rate: number) => aT * p.eta0 * Math.pow(1 + Math.pow(p.lambda * aT * rate, p.a), (p.n - 1) / p.a);
 }
 
-/** CSV rows of the scenario (header first). */
-export function filmGradeRows(): string[][] {
+/** Viscosity function η(γ̇) of the invented grade at `temperatureK` (for recovery tests). */
+export const filmGradeViscosity = viscosityAt;
+
+/**
+ * CSV rows of the scenario (header first): the long dies at every temperature, then with
+ * `orifice` the orifice die at every temperature.
+ */
+export function filmGradeRows(options: { orifice?: boolean } = {}): string[][] {
   const p = FILM_GRADE;
   const random = seededRandom(p.seed);
   const rows: string[][] = [["temperature [C]", "die_diameter [mm]", "die_length [mm]", "barrel_diameter [mm]", "piston_speed [mm/min]", "pressure [bar]"]];
-  for (const tC of p.temperaturesC) {
+  const lengthSets = options.orifice ? [p.dieLengths, [p.orificeLength]] : [p.dieLengths];
+  for (const lengths of lengthSets) for (const tC of p.temperaturesC) {
     const eta = viscosityAt(tC + 273.15);
-    for (const L of p.dieLengths) {
+    for (const L of lengths) {
       for (const v of p.pistonSpeedsMmMin) {
         const q = ((v * 1e-3) / 60) * (Math.PI * p.barrelDiameter ** 2) / 4;
         const rateApp = (32 * q) / (Math.PI * p.dieDiameter ** 3);

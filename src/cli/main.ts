@@ -6,17 +6,24 @@
 import { RheoError } from "../core/errors";
 import { parseArgs } from "./args";
 import { REDUCE_FLAGS, runReduce } from "./reduceCommand";
+import { writeResultsFile } from "./resultsFile";
+import { runPlanCommand } from "./planCommand";
+import { runCompareCommand } from "./compareCommand";
 
 export interface CliIO {
   readFile(path: string): string;
   stdout(text: string): void;
   stderr(text: string): void;
+  /** writes a binary file (creating its folder); needed by `reduce --out` */
+  writeFile?(path: string, data: Uint8Array): void;
 }
 
 const USAGE = `rheoledger — capillary-rheometer data reduction
 
 Usage:
   rheoledger reduce FILE.csv [options]
+  rheoledger plan OPTIONS.json [--json]          plan dies, speeds, pressures, material (plan --help)
+  rheoledger compare LOT.csv --reference REF.csv | --model NAME --params k=v,...  (compare --help)
 
 Options for reduce:
 ${Object.entries(REDUCE_FLAGS)
@@ -27,16 +34,19 @@ The CSV has one header row of "quantity [unit]" cells: die_diameter, die_length,
 flow_rate, or piston_speed with barrel_diameter, or mass_rate with density; temperature optional.
 `;
 
-/** Runs the command line; returns the process exit code (0 ok, 1 bad input, 2 usage). */
-export function main(argv: string[], io: CliIO): number {
+/** Runs the command line; returns the process exit code (0 ok, 1 bad input, 2 usage, 3 lot not passed by `compare`). */
+// `reduce --out FILE.xlsx` returns a Promise (the workbook is written asynchronously); every other path a number.
+export function main(argv: string[], io: CliIO): number | Promise<number> {
   if (argv.length === 0 || argv[0] === "--help" || argv[0] === "-h" || argv[0] === "help") {
     io.stdout(USAGE);
     return argv.length === 0 ? 2 : 0;
   }
   try {
     const command = argv[0];
+    if (command === "plan") return runPlanCommand(argv, io);
+    if (command === "compare") return runCompareCommand(argv, io);
     if (command !== "reduce") {
-      io.stderr(`rheoledger: unknown command "${command}"; accepted: reduce\n\n${USAGE}`);
+      io.stderr(`rheoledger: unknown command "${command}"; accepted: reduce, plan, compare\n\n${USAGE}`);
       return 2;
     }
     const args = parseArgs(argv, REDUCE_FLAGS);
@@ -53,6 +63,8 @@ export function main(argv: string[], io: CliIO): number {
       return 1;
     }
     const out = runReduce(text, args);
+    const outPath = args.flags.get("out");
+    if (typeof outPath === "string") return writeResultsFile(out, file, outPath, io, args.flags.has("json"));
     io.stdout(out.stdout);
     return 0;
   } catch (e) {

@@ -1,0 +1,44 @@
+/**
+ * The short text summary of a reduction (`rheoledger reduce --summary`, `npm run demo`): one line
+ * per group with its rate window, viscosity range, end corrections and best-fitting model, then
+ * the number of warnings.
+ */
+import type { Warning } from "../core/errors";
+import type { GroupFits } from "../core/flowCurveFits";
+import type { ReductionResult } from "../core/reduce";
+import { num } from "./format";
+
+function span(values: number[], digits = 3): string {
+  if (values.length === 0) return "—";
+  return `${num(Math.min(...values), digits)}–${num(Math.max(...values), digits)}`;
+}
+
+/** The summary text; `fits` in the order of result.groups. */
+export function reductionSummary(result: ReductionResult, inputWarnings: Warning[], fits?: GroupFits[]): string {
+  const out: string[] = [`Reduced ${result.groups.length} group${result.groups.length === 1 ? "" : "s"}:`];
+  result.groups.forEach((g, i) => {
+    const t = g.temperature === null ? "no temperature" : `${num(g.temperature - 273.15)} °C`;
+    const rates = g.flowCurve.map((f) => f.shearRateWall).filter((v): v is number => v !== null);
+    const etas = g.flowCurve.map((f) => f.viscosity).filter((v): v is number => v !== null);
+    const parts = [
+      `${g.flowCurve.length} points`,
+      `true wall rate ${span(rates)} 1/s`,
+      `viscosity ${span(etas)} Pa.s`,
+      `n' ${span(g.flowCurve.map((f) => f.nPrime), 2)}`,
+    ];
+    if (g.bagley.length > 0) parts.push(`Bagley e ${span(g.bagley.map((b) => b.endCorrection), 2)}`);
+    const best = fits?.[i]?.ranked[0];
+    if (best) {
+      const p = Object.entries(best.result.parameters)
+        .filter(([name]) => !best.result.fixed.includes(name))
+        .map(([name, v]) => `${name} ${num(v, 3)}`)
+        .join(", ");
+      parts.push(`best fit ${best.model} (${p})`);
+    }
+    out.push(`  ${t}, D ${num(g.dieDiameter * 1e3)} mm, ${g.dies.length} dies: ${parts.join("; ")}`);
+  });
+  const warnings = [...inputWarnings, ...result.warnings];
+  const codes = [...new Set(warnings.map((w) => w.code))];
+  out.push(warnings.length === 0 ? "No warnings." : `${warnings.length} warning${warnings.length === 1 ? "" : "s"} (${codes.join(", ")}); the full list is in the Warnings sheet or without --summary.`);
+  return out.join("\n") + "\n";
+}

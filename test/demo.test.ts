@@ -1,0 +1,50 @@
+/**
+ * `npm run demo` (the README's run command): the command line it runs, taken from package.json,
+ * run in-process through main() with the workbook redirected to a temporary folder.
+ */
+import { mkdtempSync, readFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import ExcelJS from "exceljs";
+import { main } from "../src/cli/main";
+
+const ROOT = path.join(__dirname, "..");
+
+/** The arguments the demo script passes to bin/rheoledger.js. */
+function demoArgs(): string[] {
+  const script = (JSON.parse(readFileSync(path.join(ROOT, "package.json"), "utf8")) as { scripts: Record<string, string> }).scripts.demo as string;
+  const m = /node bin\/rheoledger\.js (.*)$/.exec(script);
+  if (!m) throw new Error(`unexpected demo script: ${script}`);
+  return (m[1] as string).trim().split(/\s+/);
+}
+
+describe("npm run demo", () => {
+  it("reduces the demo CSV, prints a short summary and writes the results workbook", async () => {
+    const args = demoArgs();
+    expect(args.slice(0, 2)).toEqual(["reduce", "workbooks/demo-film-grade.csv"]);
+    const outAt = args.indexOf("--out");
+    expect(outAt).toBeGreaterThan(0);
+    const target = path.join(mkdtempSync(path.join(tmpdir(), "rheoledger-demo-")), "demo-results.xlsx");
+    args[outAt + 1] = target;
+    const written = new Map<string, Uint8Array>();
+    let stdout = "";
+    let stderr = "";
+    const code = await main(args, {
+      readFile: (p) => readFileSync(path.join(ROOT, p), "utf8"),
+      stdout: (t) => (stdout += t),
+      stderr: (t) => (stderr += t),
+      writeFile: (p, d) => written.set(p, d),
+    });
+    expect(stderr).toBe("");
+    expect(code).toBe(0);
+    // the summary: one line per temperature group, the warnings count, where the workbook went
+    expect(stdout).toMatch(/^Reduced 3 groups:/);
+    for (const t of ["190 °C", "210 °C", "230 °C"]) expect(stdout).toContain(`  ${t}, D 1 mm, 3 dies: 9 points`);
+    expect(stdout).toMatch(/No warnings\.|\d+ warnings?/);
+    expect(stdout).toContain(`Results workbook written to ${target}`);
+    expect(stdout.split("\n").length).toBeLessThan(12);
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.load(Buffer.from(written.get(target) as Uint8Array) as unknown as ArrayBuffer);
+    expect(wb.worksheets.map((w) => w.name)).toEqual(["Summary", "Bagley", "Flow curve", "Fits", "Warnings"]);
+  });
+});
