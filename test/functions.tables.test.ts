@@ -204,8 +204,7 @@ describe("RHEO.REDUCE(rawData, ...)", () => {
     raw[3]![3] = "n/a";
     const e = errorOf(sheet.reduceData(raw));
     expect(e.code).toBe("#VALUE!");
-    // src/io/rawTable.ts composes the location; it currently puts a colon after the row number.
-    expect(e.message).toMatch(/^pressure \[bar\] \(column 4\): row 4:? is text "n\/a", not a number$/);
+    expect(e.message).toBe('pressure [bar] (column 4): row 4 is text "n/a", not a number');
   });
   test("one die length with the Bagley correction is #N/A; endCorrection none works", () => {
     const raw = rawTable().slice(0, 1 + RATES.length);
@@ -215,6 +214,15 @@ describe("RHEO.REDUCE(rawData, ...)", () => {
   });
   test("no header row or an unknown end correction is refused", () => {
     expect(errorOf(sheet.reduceData([[1, 2]])).code).toBe("#N/A");
-    expect(errorOf(sheet.reduceData(rawTable(), "orifice")).message).toBe('endCorrection: unknown choice "orifice"; accepted: bagley, none');
+    expect(errorOf(sheet.reduceData(rawTable(), "magic")).message).toBe('endCorrection: unknown choice "magic"; accepted: bagley, orifice, none');
+  });
+  test('endCorrection "orifice" subtracts a zero-length die (ISO 11443 orifice method, from memory)', () => {
+    // An orifice die of L = 0.01 mm reads the entrance loss 2τ_w·e plus a negligible land
+    // (2τ_w·0.02): the corrected stress of the 20 mm die is τ_w(1 − 0.01/20) = τ_w within 0.05 %.
+    const raw = rawTable();
+    for (const a of RATES) raw.push([1, 0.01, (a * Math.PI) / 32, (2 * stressOf(a) * (0.02 + 2.5)) / 1e5, 200]);
+    const out = sheet.reduceData(raw, "orifice", "global", 1);
+    expect(out).toHaveLength(1 + RATES.length);
+    out.slice(1).forEach((r, i) => expectClose(num(r[3]), stressOf(RATES[i]!), { rel: 6e-4 }));
   });
 });

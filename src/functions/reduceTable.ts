@@ -45,8 +45,8 @@ function optionalQuantity(value: unknown, argument: string, unit: string, quanti
 /** RHEO.REDUCE (see functions.ts for the argument descriptions). */
 export function reduceTable(a: ReduceArgs): unknown[][] {
   const end = optionalText(a.endCorrection, "endCorrection", DEFAULT_REDUCE_OPTIONS.endCorrection).toLowerCase();
-  if (end !== "bagley" && end !== "none") {
-    throw new RheoError("value", "endCorrection", `unknown choice "${end}"; accepted: bagley, none`);
+  if (end !== "bagley" && end !== "none" && end !== "orifice") {
+    throw new RheoError("value", "endCorrection", `unknown choice "${end}"; accepted: bagley, orifice, none`);
   }
   const method = methodArg(a.method);
   const degree = integerArg(a.degree, "degree", DEFAULT_RABINOWITSCH_OPTIONS.degree, 1, 3);
@@ -68,7 +68,8 @@ export function reduceTable(a: ReduceArgs): unknown[][] {
   const table: unknown[][] = [reduceHeader(stressUnit, viscosityUnit)];
   for (const g of result.groups) {
     const temperature = g.temperature === null ? "" : fromSI(g.temperature, U.temperature, "temperature");
-    const diameter = fromSI(g.dieDiameter, U.length, "length");
+    // slit groups have no diameter: the cell stays blank (the flow curve uses the slit formulas)
+    const diameter = Number.isFinite(g.dieDiameter) ? fromSI(g.dieDiameter, U.length, "length") : "";
     g.flowCurve.forEach((f, i) => {
       const noWallRate = (what: string) =>
         cellError("#NUM!", `${what}: flow-curve point ${i + 1} has n' = ${f.nPrime}, not positive; no true wall rate exists there`);
