@@ -11,6 +11,7 @@
 import { existsSync, readFileSync, writeFileSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
+import { createRequire } from "node:module";
 import process from "node:process";
 import console from "node:console";
 
@@ -18,7 +19,8 @@ const root = join(dirname(fileURLToPath(import.meta.url)), "..");
 const START = "<!-- function-reference:start -->";
 const END = "<!-- function-reference:end -->";
 const NAMESPACE = "RHEO";
-const SOURCES = ["src/functions/functions.ts"];
+/** The files holding @customfunction blocks: FUNCTION_FILES of webpack.config.js (one list). */
+const SOURCES = createRequire(import.meta.url)("../webpack.config.js").FUNCTION_FILES;
 
 /** `@example` text per custom-function id, read from the JSDoc blocks of the source files. */
 export function readExamples(sourceText) {

@@ -40,6 +40,28 @@ function built(file: string): string {
 
 const metadata = () => JSON.parse(built("functions.json")) as { functions: FunctionMeta[] };
 
+/**
+ * The other FUNCTION_FILES (fitting.ts, ...): checks each exported function is declared with as
+ * many parameters as its signature has; returns how many there are.
+ */
+async function declaredOutsideFunctionsTs(): Promise<number> {
+  let count = 0;
+  const meta = new Map(metadata().functions.map((f) => [f.id, f]));
+  for (const file of webpackConfig.FUNCTION_FILES.map((f) => path.join(root, f)).filter((f) => f !== source)) {
+    const generated = await generateCustomFunctionsMetadata([file]);
+    const byJsName = new Map(generated.associate.map((a) => [a.functionName, a.id]));
+    // eslint-disable-next-line @typescript-eslint/no-require-imports
+    const module = require(file) as Record<string, unknown>;
+    for (const [jsName, fn] of Object.entries(module).filter(([, v]) => typeof v === "function")) {
+      const id = byJsName.get(jsName);
+      expect({ file, jsName, id }).toEqual({ file, jsName, id: expect.any(String) });
+      expect((meta.get(id as string) as FunctionMeta).parameters).toHaveLength((fn as (...args: unknown[]) => unknown).length);
+      count++;
+    }
+  }
+  return count;
+}
+
 describe("dist/functions.json", () => {
   test("is what the metadata generator makes of the current source (the build is not stale)", async () => {
     const fresh = await generateCustomFunctionsMetadata(webpackConfig.FUNCTION_FILES.map((f) => path.join(root, f)));
@@ -52,6 +74,7 @@ describe("dist/functions.json", () => {
     const byJsName = new Map(generated.associate.map((a) => [a.functionName, a.id]));
     const exported = Object.entries(sheet).filter(([, v]) => typeof v === "function");
     expect(exported.length).toBeGreaterThanOrEqual(14);
+    const others = await declaredOutsideFunctionsTs();
     const meta = new Map(metadata().functions.map((f) => [f.id, f]));
     for (const [jsName, fn] of exported) {
       const id = byJsName.get(jsName);
@@ -60,7 +83,7 @@ describe("dist/functions.json", () => {
       expect(f).toBeDefined();
       expect(f.parameters).toHaveLength((fn as (...args: unknown[]) => unknown).length);
     }
-    expect(meta.size).toBe(exported.length);
+    expect(meta.size).toBe(exported.length + others);
   });
 
   test("every function and parameter has a description Excel can show", () => {

@@ -10,15 +10,23 @@ import { parseCsv } from "../io/csv";
 import { readRawTable } from "../io/rawTable";
 import { FlagSpec, ParsedArgs, splitQuantity } from "./args";
 import { num, table } from "./format";
+import { GroupFits, fitFlowCurves } from "../core/flowCurveFits";
+import { reductionSummary } from "./summary";
+import { METHOD_FLAGS, flowCurveExtrasJson, groupExtrasJson, groupExtrasText, methodOptionsFromFlags, topExtrasJson, topExtrasText } from "./methodFlags";
+import { FIT_FLAGS, buildFitReport, fitReportText, withFitJson } from "./fitReport";
 
 export const REDUCE_FLAGS: Record<string, FlagSpec> = {
   json: { value: false, description: "print one JSON document in SI units instead of tables" },
-  "end-correction": { value: true, description: "bagley (default) or none" },
+  "end-correction": { value: true, description: "bagley (default), none, or orifice (needs an orifice die)" },
   method: { value: true, description: "Rabinowitsch slope method: transition (default), local, global, difference" },
   degree: { value: true, description: "polynomial degree for the local (1–2) or global (1–3) method" },
   window: { value: true, description: "points per local fit (default 5)" },
   "barrel-diameter": { value: true, description: 'barrel bore when the file has no barrel_diameter column, e.g. "15 mm"' },
   density: { value: true, description: 'melt density when the file has no density column, e.g. "0.76 g/cm3"' },
+  ...METHOD_FLAGS,
+  ...FIT_FLAGS,
+  out: { value: true, description: "also write the results workbook (xlsx: summary, Bagley, flow curve, fits, warnings) to FILE" },
+  summary: { value: false, description: "print a short summary (with model fits) instead of the full tables" },
 };
 
 /** What a command hands back: text for standard output, and the data it printed. */
@@ -26,6 +34,10 @@ export interface CommandOutput {
   stdout: string;
   result: ReductionResult;
   options: Partial<ReduceOptions>;
+  /** warnings from reading the file */
+  inputWarnings: Warning[];
+  /** model fits per group, computed for --summary and --out */
+  fits?: GroupFits[];
 }
 
 function wholeNumber(text: string, flag: string): number {
@@ -39,7 +51,7 @@ export function reduceOptionsFromFlags(args: ParsedArgs): Partial<ReduceOptions>
   const options: Partial<ReduceOptions> = {};
   const end = args.flags.get("end-correction");
   if (typeof end === "string") {
-    if (end !== "bagley" && end !== "none") throw new RheoError("value", "--end-correction", `expected bagley or none, got "${end}"`);
+    if (end !== "bagley" && end !== "none" && end !== "orifice") throw new RheoError("value", "--end-correction", `expected bagley, none or orifice, got "${end}"`);
     options.endCorrection = end;
   }
   const rab: ReduceOptions["rabinowitsch"] = {};
@@ -50,6 +62,10 @@ export function reduceOptionsFromFlags(args: ParsedArgs): Partial<ReduceOptions>
   const window = args.flags.get("window");
   if (typeof window === "string") rab.window = wholeNumber(window, "--window");
   options.rabinowitsch = rab;
+  const density = args.flags.get("density");
+  const densityParts = typeof density === "string" ? splitQuantity(density, "--density") : undefined;
+  const densitySI = densityParts ? toSI(densityParts.value, densityParts.unit, "density", "--density") : undefined;
+  Object.assign(options, methodOptionsFromFlags(args, densitySI));
   return options;
 }
 
@@ -92,16 +108,19 @@ export function reductionJson(result: ReductionResult, inputWarnings: Warning[])
         r2: b.r2,
         diesUsed: b.diesUsed,
       })),
-      flowCurve: g.flowCurve.map((f) => ({
+      flowCurve: g.flowCurve.map((f, i) => ({
         shearRateApparent: f.shearRateApparent,
         wallShearStress: f.wallShearStress,
         nPrime: f.nPrime,
         shearRateWall: f.shearRateWall,
         viscosity: f.viscosity,
         viscosityApparent: f.viscosityApparent,
+        ...flowCurveExtrasJson(g, i),
       })),
+      ...groupExtrasJson(g),
       warnings: g.warnings,
     })),
+    ...topExtrasJson(result),
     warnings: [...inputWarnings, ...result.warnings],
   };
 }
@@ -111,7 +130,10 @@ export function reductionText(result: ReductionResult, inputWarnings: Warning[])
   const out: string[] = [];
   for (const g of result.groups) {
     const t = g.temperature === null ? "temperature not given" : `${num(g.temperature - 273.15)} °C`;
-    out.push(`== ${t}, die diameter ${num(g.dieDiameter * 1e3)} mm; dies: ${g.dies.map((d) => `L ${num(d.dieLength * 1e3)} mm (L/D ${num(d.dieLength / g.dieDiameter)})`).join(", ")}`);
+    if (g.geometry === "slit") {
+      const h = g.slitHeight as number;
+      out.push(`== ${t}, slit ${num((g.slitWidth as number) * 1e3)} × ${num(h * 1e3)} mm; dies: ${g.dies.map((d) => `L ${num(d.dieLength * 1e3)} mm (L/H ${num(d.dieLength / h)})`).join(", ")}`);
+    } else out.push(`== ${t}, die diameter ${num(g.dieDiameter * 1e3)} mm; dies: ${g.dies.map((d) => `L ${num(d.dieLength * 1e3)} mm (L/D ${num(d.dieLength / g.dieDiameter)})`).join(", ")}`);
     if (g.bagley.length > 0) {
       out.push("", "Bagley end correction");
       out.push(
@@ -128,8 +150,10 @@ export function reductionText(result: ReductionResult, inputWarnings: Warning[])
         g.flowCurve.map((f) => [num(f.shearRateApparent), num(f.wallShearStress / 1e3), num(f.nPrime, 3), num(f.shearRateWall), num(f.viscosity), num(f.viscosityApparent)]),
       ),
     );
+    out.push(...groupExtrasText(g));
     out.push("");
   }
+  out.push(...topExtrasText(result));
   const warnings = [...inputWarnings, ...result.warnings];
   if (warnings.length > 0) {
     out.push("Warnings");
@@ -143,8 +167,12 @@ export function runReduce(text: string, args: ParsedArgs): CommandOutput {
   const raw = readCsvMeasurements(text, args);
   const options = reduceOptionsFromFlags(args);
   const result = reduce(raw.measurements, options);
+  const fits = args.flags.has("summary") || args.flags.has("out") ? fitFlowCurves(result) : undefined;
+  const fitReport = buildFitReport(args, result);
   const stdout = args.flags.has("json")
-    ? JSON.stringify(reductionJson(result, raw.warnings), null, 2) + "\n"
-    : reductionText(result, raw.warnings);
-  return { stdout, result, options };
+    ? JSON.stringify(withFitJson(reductionJson(result, raw.warnings), fitReport), null, 2) + "\n"
+    : (args.flags.has("summary")
+        ? reductionSummary(result, raw.warnings, fits)
+        : reductionText(result, raw.warnings)) + fitReportText(fitReport, result);
+  return { stdout, result, options, inputWarnings: raw.warnings, fits };
 }
