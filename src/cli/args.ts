@@ -62,5 +62,7 @@ export function parseArgs(argv: string[], specs: Record<string, FlagSpec>): Pars
 export function splitQuantity(text: string, flag: string): { value: number; unit: string } {
   const m = /^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*$/.exec(text);
   if (!m) throw new RheoError("value", flag, `expected a number with a unit, e.g. "15 mm", got "${text}"`);
-  return { value: Number(m[1]), unit: m[2] ?? "" };
+  const value = Number(m[1]);
+  if (!Number.isFinite(value)) throw new RheoError("value", flag, `the number in "${text}" is too large to represent`);
+  return { value, unit: m[2] ?? "" };
 }

@@ -1,9 +1,14 @@
 /**
  * Least-squares straight lines and polynomials, with the statistics the corrections need.
- * The fits themselves come from ml-regression; this module adds the standard errors of the
- * coefficients (Draper & Smith, Applied Regression Analysis, 3rd ed. 1998, §1.4 and §3.1).
+ * Lines come from mljs (ml-regression-simple-linear), polynomials from the Householder QR of
+ * ./linearLeastSquares; this module adds the standard errors of the coefficients
+ * (Draper & Smith, Applied Regression Analysis, 3rd ed. 1998, §1.4 and §3.1).
  */
-import { PolynomialRegression, SimpleLinearRegression } from "ml-regression";
+// The sub-package, not the ml-regression umbrella (which pulls every mljs regression into the
+// worksheet-function bundle); polynomials without ml-regression-polynomial, whose ml-matrix was
+// ~70 KB of that bundle's 150 KB budget (see linearLeastSquares.ts).
+import { SimpleLinearRegression } from "ml-regression-simple-linear";
+import { leastSquares } from "./linearLeastSquares";
 
 /** A fitted line y = intercept + slope·x. Standard errors are NaN-free: 0 when n = 2. */
 export interface LineFit {
@@ -60,17 +65,15 @@ export function fitLine(x: number[], y: number[]): LineFit {
 }
 
 /**
- * Least-squares polynomial y = Σ c_k (x − x0)^k, k = 0..degree (ml-regression
- * PolynomialRegression), centred on x0 for conditioning. Returns the coefficients c_0..c_degree.
+ * Least-squares polynomial y = Σ c_k (x − x0)^k, k = 0..degree, centred on x0 for conditioning
+ * (Householder QR of the Vandermonde matrix: {@link leastSquares}). Returns the coefficients
+ * c_0..c_degree; a power the data cannot determine (fewer distinct x than degree + 1) gets 0.
+ * @example fitPolynomial([0, 1, 2], [1, 3, 7], 2) // [1, 1, 1] (y = 1 + x + x²)
  */
 export function fitPolynomial(x: number[], y: number[], degree: number, x0 = 0): number[] {
   const shifted = x.map((v) => v - x0);
-  const reg = new PolynomialRegression(shifted, y, degree);
-  const coefficients = new Array<number>(degree + 1).fill(0);
-  reg.powers.forEach((p, i) => {
-    coefficients[p] = reg.coefficients[i] as number;
-  });
-  return coefficients;
+  const columns = Array.from({ length: degree + 1 }, (_, k) => shifted.map((t) => t ** k));
+  return leastSquares(columns, y);
 }
 
 /** Value of Σ c_k t^k. */

@@ -41,6 +41,7 @@ function scalar(value: unknown, argument: string): number {
 /**
  * Apparent wall shear rate in a slit die, 6Q/(W·H²), in 1/s.
  * @customfunction SLITSHEARRATEAPP
+ * @example =RHEO.SLITSHEARRATEAPP(C2:C12, 10, 1) for a 10 mm × 1 mm slit gives 1/s per row.
  * @param flowRate Volumetric flow rate Q: a cell, column or row (default unit mm3/s).
  * @param slitWidth Slit width W: one cell or a range as long as flowRate (default unit mm).
  * @param slitHeight Slit height (gap) H: one cell or a range as long as flowRate (default unit mm).
@@ -65,6 +66,7 @@ export function slitShearRateApp(flowRate: unknown[][], slitWidth: unknown[][], 
 /**
  * Wall shear stress in a slit die, (ΔP − ΔPent)·H/(2L); without entrancePressure the apparent stress.
  * @customfunction SLITWALLSTRESS
+ * @example =RHEO.SLITWALLSTRESS(E2:E12, 1, 20, H2:H12, "bar", "mm", "kPa") gives the end-corrected slit wall stress in kPa.
  * @param pressure Measured pressure drop ΔP: a cell, column or row (default unit bar).
  * @param slitHeight Slit height (gap) H: one cell or a range as long as pressure (default unit mm).
  * @param dieLength Slit length L: one cell or a range as long as pressure (default unit mm).
@@ -102,6 +104,7 @@ export function slitWallStress(
 /**
  * Entrance pressure read off an orifice (zero-length) die at given apparent rates, interpolated log–log; never extrapolated.
  * @customfunction ORIFICEPRESSURE
+ * @example =RHEO.ORIFICEPRESSURE(J2:J9, K2:K9, C2:C9) gives the orifice entrance pressure (bar) at the long die's rates.
  * @param orificeShearRate Apparent shear rates at which the orifice die was run, in 1/s: a column or row.
  * @param orificePressure The orifice die's pressures (same length; default unit bar).
  * @param shearRateApparent The long die's apparent rates in 1/s, where the entrance pressure is wanted.
@@ -129,6 +132,7 @@ export function orificePressure(orificeShearRate: unknown[][], orificePressure: 
 /**
  * Mooney wall-slip table from flow curves of two or more die diameters: wall stress, slip velocity, slip-corrected apparent rate, true wall rate, viscosity.
  * @customfunction SLIPVELOCITY
+ * @example =RHEO.SLIPVELOCITY(A2:A31, C2:C31, D2:D31, "mm", "kPa", TRUE) spills the Mooney slip table for three bores.
  * @param dieDiameter Die diameter of each flow-curve point: a column (default unit mm).
  * @param shearRateApparent Apparent shear rate of each point in 1/s (same length).
  * @param wallShearStress End-corrected wall shear stress of each point (same length; default unit Pa).
@@ -166,6 +170,7 @@ export function slipVelocity(dieDiameter: unknown[][], shearRateApparent: unknow
 /**
  * Representative-rate (Schümmer) cross-check: the rate (π/4)·γ̇a and the viscosity τw/γ̇a placed at it, per row.
  * @customfunction REPVISCOSITY
+ * @example =RHEO.REPVISCOSITY(C2:C12, D2:D12) gives the representative rate and viscosity beside the Rabinowitsch result.
  * @param shearRateApparent Apparent shear rate in 1/s: a cell, column or row.
  * @param wallShearStress End-corrected wall shear stress: one cell or a range as long (default unit Pa).
  * @param stressUnit Unit of wallShearStress (default Pa).
@@ -191,6 +196,7 @@ export function repViscosity(shearRateApparent: unknown[][], wallShearStress: un
 /**
  * Cogswell extensional flow from the entrance pressure: tensile stress, extension rate, extensional viscosity and Trouton ratio per row.
  * @customfunction COGSWELL
+ * @example =RHEO.COGSWELL(E2:E10, F2:F10, G2:G10, H2:H10) spills extension rate, tensile stress, extensional viscosity and Trouton ratio.
  * @param entrancePressure Entrance pressure ΔPent: a cell, column or row (default unit bar).
  * @param shearRateWall True wall shear rate in 1/s (same length or one cell).
  * @param viscosity Shear viscosity at that rate (same length; default unit Pa.s).
@@ -220,6 +226,7 @@ export function cogswellFlow(entrancePressure: unknown[][], shearRateWall: unkno
 /**
  * Adiabatic temperature rise of the melt passing the die, ΔP/(ρ·cp), in K.
  * @customfunction HEATING
+ * @example =RHEO.HEATING(E2:E12, 0.76, 2300) gives the adiabatic temperature rise in K per row.
  * @param pressure Pressure drop over the die: a cell, column or row (default unit bar).
  * @param density Melt density: one cell or a range as long (default unit g/cm3).
  * @param heatCapacity Specific heat capacity cp: one cell or a range as long (default unit J/(kg.K)).
@@ -244,6 +251,7 @@ export function heating(pressure: unknown[][], density: unknown[][], heatCapacit
 /**
  * Nahme–Griffith number b·η·γ̇w²·R²/k: above about 1, viscous heating distorts the measured viscosity.
  * @customfunction NAHME
+ * @example =RHEO.NAHME(0.03, G2:G12, F2:F12, 1, 0.2) gives the Nahme–Griffith number per row for a 1 mm die.
  * @param temperatureCoefficient b = −d ln η/dT in 1/K: one cell or a range.
  * @param viscosity Viscosity η: a cell, column or row (default unit Pa.s).
  * @param shearRateWall True wall shear rate in 1/s (same length or one cell).
@@ -271,6 +279,7 @@ export function nahme(temperatureCoefficient: unknown[][], viscosity: unknown[][
 /**
  * Pressure coefficient of viscosity β from one curved Bagley line (three or more dies at one rate), Barus law.
  * @customfunction PRESSURECOEFF
+ * @example =RHEO.PRESSURECOEFF({10;20;40;60}, {151;262;487;731}) estimates the pressure coefficient β in 1/GPa from one rate's Bagley points.
  * @param lengthOverRadius L/R of each die (L/H for slits): a column or row, three or more distinct values.
  * @param pressure Pressure of each die at the same apparent rate (same length; default unit bar).
  * @param pressureUnit Unit of pressure (default bar).
@@ -293,6 +302,7 @@ export function pressureCoeff(lengthOverRadius: unknown[][], pressure: unknown[]
 /**
  * Expanded uncertainty (k = 2 by default) of one pressure reading from the transducer's full scale and accuracy (rectangular, GUM).
  * @customfunction PRESSUREUNC
+ * @example =RHEO.PRESSUREUNC(1000, 0.25) gives the standard and expanded pressure uncertainty in bar.
  * @param fullScale Transducer full-scale range (default unit bar).
  * @param accuracy Accuracy in percent of full scale, e.g. 0.25.
  * @param pressureUnit Unit of fullScale and of the result (default bar).
@@ -311,6 +321,7 @@ export function pressureUnc(fullScale: unknown, accuracy: unknown, pressureUnit?
 /**
  * Apparent flow-curve point of a melt-flow-rate test in the standard die (2.095 × 8.000 mm, barrel 9.550 mm).
  * @customfunction MFRPOINT
+ * @example =RHEO.MFRPOINT(12, "g/10min", 2.16, 0.76) places an MFR result as an apparent shear rate and viscosity.
  * @param rate The MFR (mass per time, e.g. g/10min) or MVR (volume per time, e.g. cm3/10min).
  * @param rateUnit Unit of rate: a mass rate such as "g/10min" (then give density) or a volume rate such as "cm3/10min".
  * @param load Test load in kg, e.g. 2.16.

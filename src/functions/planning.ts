@@ -11,6 +11,7 @@ import { lotCheckSheet, planSheet } from "./planFunctions";
 /**
  * Plans a capillary test: per die a log-spaced speed ladder with predicted pressures, range flags, the suggested transducer, material and time.
  * @customfunction PLAN
+ * @example =RHEO.PLAN(A2:B12, D2:G5, I2:J4) spills the speed ladder with predicted pressures per die.
  * @param settings Two columns, name | value: barrelDiameter, usableLength, density, dwellTime, shearRateMin, shearRateMax, points and a prior (priorModel with priorParameters, or mfr with mfrLoad). Numbers in mm, g/cm3, s, 1/s, or text like "15 mm". See README.
  * @param dies Table with a header row: name, type (capillary, orifice, slit), diameter [mm], length [mm], width [mm], height [mm], transducer (optional).
  * @param transducers Table with a header row: name, full_scale [bar], accuracy [%].
@@ -24,6 +25,7 @@ export function plan(settings: unknown[][], dies: unknown[][], transducers: unkn
 /**
  * Compares a lot's flow curve with a reference table or model within a tolerance band: per-rate deviation, PASS/FAIL, verdict and worst point.
  * @customfunction LOTCHECK
+ * @example =RHEO.LOTCHECK(A2:A9, B2:B9, D2:D9, E2:E9, 10) spills the deviation per rate, PASS/FAIL and the verdict.
  * @param lotShearRate The lot's shear rates in 1/s: a column or row.
  * @param lotViscosity The lot's viscosities (same length; default unit Pa.s).
  * @param referenceShearRate The reference rates in 1/s (for a model: the rates to compare at; blank for the lot's rates).

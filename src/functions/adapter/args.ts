@@ -4,8 +4,9 @@
  * null; all of them mean "use the default".
  */
 import { RheoError } from "../../core/errors";
-import { Quantity, acceptedUnits, isUnitOf, knownQuantities } from "../../core/units";
+import { Quantity, acceptedUnits, knownQuantities } from "../../core/units";
 import { isBlank, readNumber } from "./ranges";
+import { isKnownUnit } from "./unitScale";
 
 /**
  * Default units of the worksheet functions' inputs and outputs. The JSDoc of each function in
@@ -44,7 +45,7 @@ export function optionalText(value: unknown, argument: string, fallback: string)
  */
 export function unitArg(value: unknown, argument: string, quantity: Quantity, fallback: string): string {
   const unit = optionalText(value, argument, fallback);
-  if (!isUnitOf(quantity, unit)) {
+  if (!isKnownUnit(quantity, unit)) {
     throw new RheoError("value", argument, `unknown ${quantity} unit "${unit}"; accepted: ${acceptedUnits(quantity).join(", ")}`);
   }
   return unit;

@@ -3,8 +3,9 @@
  * compute per row or over all rows, convert back, spill aligned with the input.
  */
 import { RheoError } from "../../core/errors";
-import { Quantity, fromSI, toSI } from "../../core/units";
+import { Quantity } from "../../core/units";
 import { Rows, column, eachRow, pairRows, readVector, spill } from "./ranges";
+import { unitScale } from "./unitScale";
 
 /** One data argument: its range, its name and (for dimensional data) its quantity and unit. */
 export interface DataArg {
@@ -31,7 +32,8 @@ export function readRows(args: DataArg[]): SheetRows {
     typed[a.argument] = column(rows, a.argument);
     units[a.argument] = unit;
     if (quantity !== undefined && unit !== undefined) {
-      rows.columns[a.argument] = column(rows, a.argument).map((v) => toSI(v, unit, quantity, a.argument));
+      const scale = unitScale(quantity, unit, a.argument);
+      rows.columns[a.argument] = column(rows, a.argument).map(scale.toSI);
     }
   }
   return { ...rows, typed, units };
@@ -49,6 +51,8 @@ export function mapRows(
   output?: { quantity: Quantity; unit: string },
   rename: Record<string, string> = {},
 ): unknown[][] {
+  const single = singleCellResult(args, compute, output);
+  if (single !== undefined) return single;
   const rows = readRows(args);
   const names = args.map((a) => a.argument);
   let k = 0;
@@ -61,7 +65,42 @@ export function mapRows(
       k++;
     }
   });
-  return spill(rows, output ? values.map((v) => fromSI(v, output.unit, output.quantity)) : values);
+  return spill(rows, output ? values.map(unitScale(output.quantity, output.unit, "unit").fromSI) : values);
+}
+
+/** The number in a 1×1 range, or undefined for anything else (blank, text, a longer range...). */
+function singleNumber(range: unknown): number | undefined {
+  if (!Array.isArray(range) || range.length !== 1) return undefined;
+  const row: unknown = range[0];
+  if (!Array.isArray(row) || row.length !== 1) return undefined;
+  const cell: unknown = row[0];
+  return typeof cell === "number" && Number.isFinite(cell) ? cell : undefined;
+}
+
+/**
+ * Fast path of {@link mapRows} for the commonest call: one formula per row, every data argument a
+ * single cell holding a finite number (Excel batches thousands of these). Gives exactly what the
+ * general path gives ([[value]]); returns undefined, to take the general path, for any other
+ * input or when `compute` throws (the general path then builds the positioned error message).
+ */
+function singleCellResult(
+  args: DataArg[],
+  compute: (...values: number[]) => number,
+  output?: { quantity: Quantity; unit: string },
+): unknown[][] | undefined {
+  const values: number[] = [];
+  for (const a of args) {
+    const v = singleNumber(a.range);
+    if (v === undefined) return undefined;
+    values.push(a.quantity !== undefined && a.unit !== undefined ? unitScale(a.quantity, a.unit, a.argument).toSI(v) : v);
+  }
+  let result: number;
+  try {
+    result = compute(...values);
+  } catch {
+    return undefined;
+  }
+  return [[output ? unitScale(output.quantity, output.unit, "unit").fromSI(result) : result]];
 }
 
 function inUserTerms(thrown: unknown, rows: SheetRows, k: number, rename: Record<string, string>): unknown {

@@ -1,0 +1,372 @@
+/**
+ * `npm run bench`: speed and bundle-size figures on the current machine, as medians over repeated
+ * runs, each against its target (PASS/MISS). Never part of the tests: timings depend on the
+ * machine and its load, so no test asserts on them.
+ *
+ *   npm run bench                          print the table
+ *   npm run bench -- --write-readme        also write it into README.md (between the
+ *                                          `<!-- performance -->` and `<!-- performance:end -->` markers)
+ *   npm run bench -- --quick               fewer repeats (a smoke run; figures are noisier)
+ *   npm run bench -- --no-build            read dist/ as it is, even when older than the sources
+ *
+ * What is measured (all data invented, generated from known laws with a fixed seed):
+ *   1. fitModel("carreau-yasuda") on 40 points (2 % log-normal noise): the complete call (guesses,
+ *      solve, bound test, statistics). When /usr/bin/python3 has scipy, scripts/bench_scipy.py
+ *      fits the same points with the same residuals (ln η), coordinates (ln p), start and
+ *      tolerances, and the ratio scipy/ours is printed; otherwise that line says why it is skipped.
+ *   2. reduce() of 4 dies × 10 piston speeds (Bagley, Rabinowitsch "transition") and a
+ *      Carreau–Yasuda fit of the corrected flow curve.
+ *   3. RHEO.WALLSTRESSAPP filled down a 10 000-row column: 10 000 calls with 1×1 ranges in one
+ *      loop, the way Excel hands a batch of per-cell invocations to the custom-functions runtime.
+ *      For comparison (not a target), the same column as one call with a 10 000-row range.
+ *   4. Minified sizes of dist/functions.js and dist/taskpane.js from a production build (run
+ *      first when dist/ is missing or older than the sources). 1 KB = 1024 bytes, as the
+ *      webpack budget in webpack.config.js counts.
+ */
+import { spawnSync } from "node:child_process";
+import { existsSync, readFileSync, readdirSync, statSync, writeFileSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { performance } from "node:perf_hooks";
+import { gzipSync } from "node:zlib";
+import { fitModel } from "../src/core/fit";
+import { getModel } from "../src/core/models";
+import { gaussian, seededRandom } from "../src/core/random";
+import { type Measurement, reduce } from "../src/core/reduce";
+import { wallRateFromApparentRate } from "../src/core/forwardFlow";
+import { wallStressApp } from "../src/functions/functions";
+
+/** The issue's targets. */
+export const BENCH_TARGETS = Object.freeze({
+  fitMs: 0.2,
+  scipyRatio: 3,
+  reductionMs: 2,
+  column10kMs: 20,
+  functionsBundleBytes: 150 * 1024,
+  taskpaneBundleBytes: 400 * 1024,
+});
+
+const ROOT = process.cwd();
+const flags = new Set(process.argv.slice(2));
+const QUICK = flags.has("--quick");
+
+/** Keeps results alive so that no timed work can be optimised away. */
+let sink = 0;
+
+interface Timing {
+  median: number;
+  min: number;
+  runs: number;
+}
+
+/**
+ * Median wall time of one call of `fn`, in ms: `repeats` samples, each the mean over `batch`
+ * consecutive calls (so sub-millisecond calls are timed well above the clock's resolution),
+ * after `warmup` untimed calls (JIT compilation).
+ */
+function time(fn: () => number, repeats: number, batch: number, warmup: number): Timing {
+  for (let i = 0; i < warmup; i++) sink += fn();
+  const samples: number[] = [];
+  for (let r = 0; r < repeats; r++) {
+    const t0 = performance.now();
+    for (let b = 0; b < batch; b++) sink += fn();
+    samples.push((performance.now() - t0) / batch);
+  }
+  samples.sort((a, b) => a - b);
+  const mid = samples.length >> 1;
+  const median = samples.length % 2 ? (samples[mid] as number) : ((samples[mid - 1] as number) + (samples[mid] as number)) / 2;
+  return { median, min: samples[0] as number, runs: repeats * batch };
+}
+
+const reps = (n: number) => (QUICK ? Math.max(5, Math.round(n / 4)) : n);
+
+// ---------------------------------------------------------------------------------------------
+// 1. Carreau–Yasuda fit on 40 points
+
+/** Invented melt: η0 = 3000 Pa·s, λ = 0.25 s, n = 0.35, a = 0.7, η∞ = 0; 2 % log-normal noise; 0.1–10⁴ 1/s. */
+export const FIT_TRUTH = Object.freeze({ eta0: 3000, lambda: 0.25, n: 0.35, a: 0.7, noise: 0.02, seed: 4040, points: 40 });
+
+function fitData(): { shearRate: number[]; viscosity: number[] } {
+  const t = FIT_TRUTH;
+  const random = seededRandom(t.seed);
+  const shearRate: number[] = [];
+  const viscosity: number[] = [];
+  for (let i = 0; i < t.points; i++) {
+    const rate = Math.pow(10, -1 + (5 * i) / (t.points - 1)); // 0.1 … 10 000 1/s
+    const eta = t.eta0 * Math.pow(1 + Math.pow(t.lambda * rate, t.a), (t.n - 1) / t.a);
+    shearRate.push(rate);
+    viscosity.push(eta * Math.exp(t.noise * gaussian(random)));
+  }
+  return { shearRate, viscosity };
+}
+
+interface ScipyAnswer {
+  scipy: string;
+  variants: { name: string; medianMs: number; nfev: number; success: boolean; parameters: Record<string, number> }[];
+}
+
+/** Runs scripts/bench_scipy.py; a reason string when python3 or scipy is absent. */
+function scipyFit(data: { shearRate: number[]; viscosity: number[] }, start: number[]): ScipyAnswer | string {
+  const python = "/usr/bin/python3";
+  if (!existsSync(python)) return `${python} not found`;
+  const job = JSON.stringify({ ...data, start, repeats: reps(21), batch: 10 });
+  const run = spawnSync(python, [path.join(ROOT, "scripts", "bench_scipy.py")], { input: job, encoding: "utf8", timeout: 300000 });
+  let answer: (ScipyAnswer & { error?: undefined }) | { error: string } | undefined;
+  try {
+    answer = JSON.parse(run.stdout);
+  } catch {
+    answer = undefined;
+  }
+  if (!answer) return `bench_scipy.py gave no answer (${(run.stderr || run.error?.message || `status ${run.status}`).trim().split("\n").pop()})`;
+  if (answer.error !== undefined) return answer.error;
+  return answer;
+}
+
+// ---------------------------------------------------------------------------------------------
+// 2. Full reduction of 4 dies × 10 rates with a fit
+
+/** Invented test: one 1 mm bore, L = 5, 10, 20, 30 mm, 15 mm barrel, 10 piston speeds, 0.5 % noise. */
+export const REDUCTION_SETUP = Object.freeze({
+  eta0: 3000, lambda: 0.25, n: 0.35, a: 0.7,
+  dieDiameter: 1e-3, dieLengths: [5e-3, 10e-3, 20e-3, 30e-3], barrelDiameter: 15e-3,
+  pistonSpeedsMmMin: [0.5, 1, 2, 4, 8, 15, 30, 60, 120, 200], noise: 0.005, seed: 410,
+});
+
+function reductionData(): Measurement[] {
+  const s = REDUCTION_SETUP;
+  const eta = (rate: number) => s.eta0 * Math.pow(1 + Math.pow(s.lambda * rate, s.a), (s.n - 1) / s.a);
+  const random = seededRandom(s.seed);
+  const out: Measurement[] = [];
+  for (const v of s.pistonSpeedsMmMin) {
+    const flowRate = ((v * 1e-3) / 60) * ((Math.PI * s.barrelDiameter ** 2) / 4);
+    const rateApp = (32 * flowRate) / (Math.PI * s.dieDiameter ** 3);
+    const wall = wallRateFromApparentRate(eta, rateApp);
+    const tau = eta(wall) * wall;
+    const e = 2 + 1.5 * Math.log10(rateApp); // invented entrance loss, in die radii
+    for (const L of s.dieLengths) {
+      const pressure = 2 * tau * ((2 * L) / s.dieDiameter + e) * (1 + s.noise * gaussian(random));
+      out.push({ dieDiameter: s.dieDiameter, dieLength: L, flowRate, pressure });
+    }
+  }
+  return out;
+}
+
+function reduceAndFit(measurements: Measurement[]): number {
+  const result = reduce(measurements);
+  const curve = (result.groups[0]?.flowCurve ?? []).filter((f) => f.shearRateWall !== null && f.viscosity !== null);
+  const fit = fitModel("carreau-yasuda", {
+    shearRate: curve.map((f) => f.shearRateWall as number),
+    viscosity: curve.map((f) => f.viscosity as number),
+  });
+  return fit.parameters.n as number;
+}
+
+// ---------------------------------------------------------------------------------------------
+// 3. A 10 000-row column through a per-row worksheet function
+
+const COLUMN_ROWS = 10000;
+
+function columnPressures(): number[] {
+  const random = seededRandom(10000);
+  return Array.from({ length: COLUMN_ROWS }, () => 20 + 400 * random()); // bar
+}
+
+/** One formula per row, `=RHEO.WALLSTRESSAPP(E2, 1, 20)` filled down: Excel's batch of invocations. */
+function perRowCalls(pressures: number[]): number {
+  let total = 0;
+  for (let i = 0; i < pressures.length; i++) {
+    const out = wallStressApp([[pressures[i]]], [[1]], [[20]], null as unknown as string, null as unknown as string, null as unknown as string);
+    total += (out[0] as unknown[])[0] as number;
+  }
+  return total;
+}
+
+/** One formula over the whole column, `=RHEO.WALLSTRESSAPP(E2:E10001, 1, 20)`, spilling. */
+function oneSpillCall(column: unknown[][]): number {
+  const out = wallStressApp(column, [[1]], [[20]]);
+  return ((out[out.length - 1] as unknown[])[0] as number) + out.length;
+}
+
+// ---------------------------------------------------------------------------------------------
+// 4. Bundle sizes
+
+const BUNDLES = ["functions.js", "taskpane.js"] as const;
+const BUILD_INPUTS = ["src", "webpack.config.js", "package.json", "package-lock.json", "manifest.xml", "tsconfig.json"];
+
+function newestMtime(p: string): number {
+  if (!existsSync(p)) return 0;
+  const st = statSync(p);
+  if (!st.isDirectory()) return st.mtimeMs;
+  return Math.max(st.mtimeMs, ...readdirSync(p).map((name) => newestMtime(path.join(p, name))));
+}
+
+/** Sizes of the built bundles, building first when dist/ is missing or older than its inputs. */
+function bundleSizes(): { sizes: Record<string, { bytes: number; gzip: number } | null>; note: string } {
+  const dist = path.join(ROOT, "dist");
+  const built = BUNDLES.map((b) => path.join(dist, b));
+  const oldest = Math.min(...built.map((f) => (existsSync(f) ? statSync(f).mtimeMs : 0)));
+  const newestInput = Math.max(...BUILD_INPUTS.map((p) => newestMtime(path.join(ROOT, p))));
+  let note = "dist/ up to date";
+  if (oldest < newestInput && !flags.has("--no-build")) {
+    process.stderr.write("bench: dist/ is missing or older than the sources; running `npm run build` ...\n");
+    const started = Date.now();
+    const run = spawnSync("npm", ["run", "build", "--silent"], { cwd: ROOT, encoding: "utf8", stdio: ["ignore", "pipe", "pipe"] });
+    note = run.status === 0 ? "fresh production build" : `production build FAILED (status ${run.status}); sizes are of what it emitted`;
+    if (run.status !== 0) process.stderr.write((run.stdout + run.stderr).split("\n").filter((l) => /error|ERROR/.test(l)).slice(0, 10).join("\n") + "\n");
+    // a failed build may have emitted nothing: then the old files do not count
+    for (const f of built) if (existsSync(f) && statSync(f).mtimeMs < started - 1000 && run.status !== 0) note += `; ${path.basename(f)} is stale`;
+  } else if (oldest < newestInput) {
+    note = "dist/ older than the sources (--no-build)";
+  }
+  const sizes: Record<string, { bytes: number; gzip: number } | null> = {};
+  for (const b of BUNDLES) {
+    const f = path.join(dist, b);
+    if (!existsSync(f)) sizes[b] = null;
+    else {
+      const content = readFileSync(f);
+      sizes[b] = { bytes: content.length, gzip: gzipSync(content, { level: 9 }).length };
+    }
+  }
+  return { sizes, note };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Report
+
+interface Line {
+  what: string;
+  measured: string;
+  target: string;
+  verdict: "PASS" | "MISS" | "";
+}
+
+const ms = (v: number) => (v < 1 ? `${(v * 1000).toFixed(0)} µs` : `${v.toFixed(v < 10 ? 2 : 1)} ms`);
+const kb = (bytes: number) => `${(bytes / 1024).toFixed(1)} KB`;
+const verdict = (ok: boolean): "PASS" | "MISS" => (ok ? "PASS" : "MISS");
+
+function machine(): string {
+  let cpu = os.cpus()[0]?.model ?? "unknown CPU";
+  try {
+    const m = /^model name\s*:\s*(.+)$/m.exec(readFileSync("/proc/cpuinfo", "utf8"));
+    if (m?.[1]) cpu = m[1].trim();
+  } catch {
+    // not Linux: os.cpus() is the fallback
+  }
+  const cores = typeof os.availableParallelism === "function" ? os.availableParallelism() : os.cpus().length;
+  const load = os.loadavg()[0] as number;
+  return `${cores} cores (nproc), ${cpu}, Node ${process.version}, ${os.platform()} ${os.arch()}, load average ${load.toFixed(1)}`;
+}
+
+function markdownTable(lines: Line[]): string {
+  return [
+    "| what | median | target | |",
+    "|---|---|---|---|",
+    ...lines.map((l) => `| ${l.what} | ${l.measured} | ${l.target} | ${l.verdict} |`),
+  ].join("\n");
+}
+
+function plainTable(lines: Line[]): string {
+  const w = [0, 1, 2].map((c) => Math.max(...lines.map((l) => [l.what, l.measured, l.target][c]!.length), 6));
+  const row = (a: string, b: string, c: string, d: string) => `${a.padEnd(w[0]!)}  ${b.padStart(w[1]!)}  ${c.padEnd(w[2]!)}  ${d}`;
+  return [row("what", "median", "target", ""), row("-".repeat(w[0]!), "-".repeat(w[1]!), "-".repeat(w[2]!), "----"), ...lines.map((l) => row(l.what, l.measured, l.target, l.verdict))].join("\n");
+}
+
+/** Replaces the block after `<!-- performance -->` (up to `<!-- performance:end -->`) in README.md. */
+function writeReadme(block: string): void {
+  const file = path.join(ROOT, "README.md");
+  const text = readFileSync(file, "utf8"); // read right before writing: others edit this file too
+  const start = "<!-- performance -->";
+  const end = "<!-- performance:end -->";
+  const i = text.indexOf(start);
+  if (i < 0) throw new Error(`README.md has no ${start} marker; add it where the figures belong`);
+  const j = text.indexOf(end, i);
+  const after = j < 0 ? text.slice(i + start.length) : text.slice(j + end.length);
+  writeFileSync(file, `${text.slice(0, i)}${start}\n${block}\n${end}${after}`);
+}
+
+function main(): void {
+  const lines: Line[] = [];
+  const notes: string[] = [];
+
+  // 1. fit
+  const data = fitData();
+  const ours = fitModel("carreau-yasuda", data);
+  if (!ours.converged) throw new Error(`bench: the Carreau–Yasuda fit did not converge (${ours.stopReason})`);
+  const fitTime = time(() => fitModel("carreau-yasuda", data).parameters.n as number, reps(41), 20, 200);
+  lines.push({ what: "Carreau–Yasuda fit, 40 points", measured: ms(fitTime.median), target: `≤ ${ms(BENCH_TARGETS.fitMs)}`, verdict: verdict(fitTime.median <= BENCH_TARGETS.fitMs) });
+  const heldTime = time(() => fitModel("carreau-yasuda", data, { fixed: { etaInf: 0 } }).parameters.n as number, reps(41), 20, 100);
+  lines.push({ what: "same fit with η∞ held at 0 (info)", measured: ms(heldTime.median), target: "", verdict: "" });
+  const scipy = scipyFit(data, getModel("carreau-yasuda").initialGuess(data));
+  if (typeof scipy === "string") {
+    lines.push({ what: "scipy ÷ ours, same fit", measured: "skipped", target: `≥ ${BENCH_TARGETS.scipyRatio}×`, verdict: "" });
+    notes.push(`scipy comparison skipped: ${scipy}.`);
+  } else {
+    for (const v of scipy.variants) {
+      const ratio = v.medianMs / fitTime.median;
+      const agree = Math.max(...Object.entries(v.parameters).map(([k, p]) => Math.abs((ours.parameters[k] as number) / p - 1)));
+      lines.push({ what: `scipy ${scipy.scipy} (${v.name}) ÷ ours`, measured: `${ratio.toFixed(1)}× (${ms(v.medianMs)})`, target: `≥ ${BENCH_TARGETS.scipyRatio}×`, verdict: verdict(ratio >= BENCH_TARGETS.scipyRatio) });
+      notes.push(`scipy.optimize.least_squares ${scipy.scipy}, ${v.name}: ${v.nfev} residual evaluations, ${v.success ? "converged" : "NOT converged"}, largest relative parameter difference from ours ${agree.toExponential(1)}.`);
+    }
+  }
+  notes.push(
+    `fitModel: ${ours.iterations} solver iterations, stop "${ours.stopReason}", n = ${(ours.parameters.n as number).toFixed(4)} (generated with ${FIT_TRUTH.n}), ` +
+      `η∞ = ${(ours.parameters.etaInf as number).toPrecision(3)} Pa·s. It first solves with η∞ held on its bound 0 and, when the cost falls as η∞ leaves it (here), ` +
+      "solves again with all five parameters free; scipy is given the five-parameter problem once.",
+  );
+
+  // 2. reduction
+  const measurements = reductionData();
+  const reduceTime = time(() => reduceAndFit(measurements), reps(31), 5, 30);
+  lines.push({ what: "reduce 4 dies × 10 rates + CY fit", measured: ms(reduceTime.median), target: `≤ ${ms(BENCH_TARGETS.reductionMs)}`, verdict: verdict(reduceTime.median <= BENCH_TARGETS.reductionMs) });
+
+  // 3. per-row worksheet function
+  const pressures = columnPressures();
+  const firstCall = wallStressApp([[pressures[0]]], [[1]], [[20]]);
+  if (typeof (firstCall[0] as unknown[])[0] !== "number") throw new Error("bench: RHEO.WALLSTRESSAPP returned an error for valid input");
+  const rowTime = time(() => perRowCalls(pressures), reps(15), 1, 3);
+  lines.push({ what: "RHEO.WALLSTRESSAPP × 10 000 rows (per-row calls)", measured: ms(rowTime.median), target: `≤ ${ms(BENCH_TARGETS.column10kMs)}`, verdict: verdict(rowTime.median <= BENCH_TARGETS.column10kMs) });
+  const column = pressures.map((p) => [p]);
+  const spillTime = time(() => oneSpillCall(column), reps(15), 1, 3);
+  lines.push({ what: "same column as one 10 000-row range (info)", measured: ms(spillTime.median), target: "", verdict: "" });
+
+  // 4. bundles
+  const { sizes, note } = bundleSizes();
+  const budgets: Record<string, number> = { "functions.js": BENCH_TARGETS.functionsBundleBytes, "taskpane.js": BENCH_TARGETS.taskpaneBundleBytes };
+  for (const b of BUNDLES) {
+    const s = sizes[b];
+    const budget = budgets[b] as number;
+    lines.push({
+      what: `dist/${b} minified (gzip)`,
+      measured: s ? `${kb(s.bytes)} (${kb(s.gzip)})` : "not built",
+      target: `≤ ${kb(budget)}`,
+      verdict: verdict(s !== null && s !== undefined && s.bytes <= budget),
+    });
+  }
+  notes.push(`bundles: ${note}.`);
+
+  const date = new Date().toISOString().slice(0, 10);
+  const where = machine();
+  console.log(`Rheoledger bench, ${date}: ${where}${QUICK ? " (--quick)" : ""}\n`);
+  console.log(plainTable(lines));
+  console.log("\n" + notes.map((n) => `- ${n}`).join("\n"));
+  if (sink === 42) console.log(""); // use the sink
+
+  if (flags.has("--write-readme")) {
+    const block = [
+      "",
+      `Latest \`npm run bench\` on ${date}:`,
+      `${where}.`,
+      "Medians over repeated runs (each sample the mean of a batch of calls, after warm-up);",
+      "1 KB = 1024 bytes. Figures vary with the machine and its load; no test depends on them.",
+      "",
+      markdownTable(lines),
+      "",
+      ...notes.map((n) => `- ${n}`),
+      "",
+    ].join("\n");
+    writeReadme(block);
+    console.log("\nREADME.md: performance section updated.");
+  }
+}
+
+main();
