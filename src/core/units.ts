@@ -178,14 +178,26 @@ export function normaliseUnitText(text: string): string {
     .replace(/\s+/g, " ");
 }
 
-function findUnit(quantity: Quantity, text: string): UnitDef | undefined {
-  const wanted = normaliseUnitText(text);
-  const compact = wanted.replace(/ /g, "");
-  for (const def of TABLE[quantity]) {
-    const names = [def.symbol, ...(def.aliases ?? [])].map(normaliseUnitText);
-    if (names.includes(wanted) || names.map((n) => n.replace(/ /g, "")).includes(compact)) return def;
+/** Per quantity: every spelling (normalised, spaces removed) → its unit; built once on first use. */
+const SPELLINGS = new Map<Quantity, Map<string, UnitDef>>();
+
+function spellings(quantity: Quantity): Map<string, UnitDef> {
+  let map = SPELLINGS.get(quantity);
+  if (!map) {
+    map = new Map();
+    for (const def of TABLE[quantity]) {
+      for (const name of [def.symbol, ...(def.aliases ?? [])]) {
+        const key = normaliseUnitText(name).replace(/ /g, "");
+        if (!map.has(key)) map.set(key, def);
+      }
+    }
+    SPELLINGS.set(quantity, map);
   }
-  return undefined;
+  return map;
+}
+
+function findUnit(quantity: Quantity, text: string): UnitDef | undefined {
+  return spellings(quantity).get(normaliseUnitText(text).replace(/ /g, ""));
 }
 
 /** The accepted unit symbols of a quantity, in table order (aliases not listed). */
