@@ -20,6 +20,10 @@ import { readRawTable } from "../src/io/rawTable";
 import { reduce } from "../src/core/reduce";
 import { compareModels } from "../src/core/fit";
 import { DEFAULT_PANE_SETTINGS, reduceOptionsOf } from "../src/taskpane/settings";
+import { planTest } from "../src/core/planner";
+import { compareLot } from "../src/core/lotComparison";
+import { readPlanOptions } from "../src/io/planOptions";
+import { readFlowCurveTable } from "../src/io/flowCurveTable";
 import { expectClose } from "./helpers/expectClose";
 
 const CHROMIUM = "/usr/bin/chromium";
@@ -28,6 +32,8 @@ const DIST = join(ROOT, "dist");
 const OUT = join(ROOT, "test-output");
 const OFFICE_DIST = join(ROOT, "node_modules/@microsoft/office-js/dist");
 const haveChromium = existsSync(CHROMIUM);
+// In CI (.ci/run installs chromium) a missing browser is a failure, never a silent skip.
+if (!haveChromium && process.env.CI) throw new Error(`${CHROMIUM} is missing in CI: .ci/run must install chromium`);
 if (!haveChromium) console.warn(`pane-preview tests skipped: ${CHROMIUM} is missing (apt-get install -y chromium; .ci/run installs it)`);
 const maybe = haveChromium ? describe : describe.skip;
 
@@ -197,17 +203,102 @@ maybe("task pane preview mode (chromium)", () => {
     }
     expect(stops.map((s) => s.id)).toContain("run");
     expect(stops.map((s) => s.id)).toContain("rabinowitschMethod");
+    expect(stops.map((s) => s.id)).toEqual(expect.arrayContaining(["check-heating", "temperatureShift", "chartAllModels"]));
+    await page.keyboard.press("Enter");
+    await page.waitForSelector('table[data-block="flow-1"]');
+    expect(await page.locator("#status").textContent()).toMatch(/Preview ready/);
+    // on past the results to the Planner and the Lot check, and run both from the keyboard
+    for (const target of ["planRun", "lotRun"]) {
+      for (let i = 0; i < 400; i++) {
+        await page.keyboard.press("Tab");
+        const info = await page.evaluate(() => {
+          const el = document.activeElement as HTMLElement | null;
+          if (!el || el === document.body) return null;
+          const labelled = (el as HTMLInputElement).labels?.length ? Array.from((el as HTMLInputElement).labels ?? [], (l) => l.textContent ?? "").join(" ") : (el.getAttribute("aria-label") ?? el.textContent ?? "");
+          const style = getComputedStyle(el);
+          return { id: el.id || el.tagName, name: labelled.trim(), outline: `${style.outlineStyle} ${style.outlineWidth}` };
+        });
+        if (!info) continue;
+        stops.push(info);
+        if (info.id === target) break;
+      }
+      expect(stops[stops.length - 1]?.id).toBe(target);
+      await page.keyboard.press("Enter");
+      await page.waitForSelector(target === "planRun" ? 'table[data-block="plan-steps"]' : 'table[data-block="lot-points"]');
+    }
+    expect(stops.map((s) => s.id)).toEqual(expect.arrayContaining(["planBarrel", "planDies", "planPrior", "lotSource", "refKind", "lotTolerance"]));
     for (const s of stops) {
       expect(s.name.length).toBeGreaterThan(0);
       expect(s.outline).not.toMatch(/^none/);
     }
-    await page.keyboard.press("Enter");
-    await page.waitForSelector('table[data-block="flow-1"]');
-    expect(await page.locator("#status").textContent()).toMatch(/Preview ready/);
     // the safety caution is reachable: the header link opens it
     await page.focus("#safety-link");
     await page.keyboard.press("Enter");
     expect(await page.locator("#safety").getAttribute("open")).not.toBeNull();
+    await page.close();
+  });
+
+  test("the Planner and Lot check panels render the core's plan and comparison of the demo inputs (500 and 320 px)", async () => {
+    const plan = JSON.parse(readFileSync(join(ROOT, "workbooks/demo-plan.json"), "utf8")) as unknown;
+    // at 320 px the plan uses one small transducer, so that steps are flagged over its full scale
+    const corePlan = (small: boolean) => {
+      const parsed = readPlanOptions(small ? { ...(plan as object), transducers: [{ name: "P50", fullScale: "50 bar", accuracy: "0.25 %" }] } : plan);
+      return planTest(parsed.input, parsed.options);
+    };
+    const curve = (f: string) => readFlowCurveTable(parseCsv(readFileSync(join(ROOT, "workbooks", f), "utf8")).lines.map((l) => l.cells), { argument: f, rowWord: "line" }).table;
+    const lot = compareLot({ kind: "table", ...curve("demo-lot-reference.csv") }, curve("demo-lot-new.csv"));
+    for (const width of [500, 320]) {
+      const { page, errors } = await openPane(width);
+      const core = corePlan(width === 320);
+      if (width === 320) await page.fill("#planTransducers", "P50, 50, 0.25");
+      await page.click("#planRun");
+      await page.waitForSelector('table[data-block="plan-steps"]');
+      const rows = await page.locator('table[data-block="plan-steps"] tbody tr').evaluateAll((trs) => trs.map((tr) => Array.from(tr.querySelectorAll("td"), (td) => ({ text: td.textContent ?? "", flag: td.className.includes("flag") }))));
+      const steps = core.dies.flatMap((d) => d.steps.map((st) => ({ die: d.die.name, st })));
+      expect(rows).toHaveLength(steps.length);
+      steps.forEach(({ die, st }, r) => {
+        const row = rows[r] ?? [];
+        expect(row[0]?.text).toBe(die);
+        expectClose(shown(row[8]?.text ?? ""), st.pressure / 1e5, { rel: 6e-4 }, `plan step ${r + 1} pressure bar`);
+        expectClose(shown(row[6]?.text ?? ""), st.pistonSpeed * 6e4, { rel: 6e-4 }, `plan step ${r + 1} piston speed mm/min`);
+        expect(row[11]?.flag).toBe(st.flag !== "ok"); // the range column is coloured exactly where the core flags
+      });
+      if (width === 320) expect(rows.some((r) => r[11]?.flag)).toBe(true);
+      await page.locator("#planner-section").screenshot({ path: join(OUT, `pane-planner-${width}.png`) });
+      await page.click("#lotRun");
+      await page.waitForSelector('table[data-block="lot-points"]');
+      const lotRows = await page.locator('table[data-block="lot-points"] tbody tr').evaluateAll((trs) => trs.map((tr) => Array.from(tr.querySelectorAll("td"), (td) => ({ text: td.textContent ?? "", cls: td.className }))));
+      expect(lotRows).toHaveLength(lot.points.length);
+      lot.points.forEach((p, r) => {
+        const row = lotRows[r] ?? [];
+        if (p.deviation !== null) expectClose(shown(row[5]?.text ?? ""), p.deviation * 100, { rel: 6e-4, abs: 1e-3 }, `lot deviation % at ${p.shearRate}`);
+        expect(row[6]?.cls).toContain(p.status === "pass" ? "flag-pass" : p.status === "fail" ? "flag-fail" : "flag-caution");
+      });
+      expect(await page.locator("#lot-status").textContent()).toMatch(lot.verdict === "pass" ? /^PASS/ : lot.verdict === "fail" ? /^FAIL/ : /^NOT JUDGED/);
+      expect(await page.locator('svg[data-chart="lot"] g.series').count()).toBe(4);
+      expect(await page.locator('svg[data-chart="lot"] g.series.markers circle').count()).toBe(7);
+      const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+      expect(overflow).toBeLessThanOrEqual(0);
+      await page.locator("#lot-section").screenshot({ path: join(OUT, `pane-lot-${width}.png`) });
+      expect(errors.filter((e) => !/CustomFunctions/.test(e))).toEqual([]);
+      await page.close();
+    }
+  });
+
+  test("optional checks and the temperature shift render in the preview (500 px)", async () => {
+    const { page } = await openPane(500);
+    await page.fill("#transducerRangeBar", "1000");
+    await page.check("#check-representativeRate");
+    await page.check("#check-extensional");
+    await page.selectOption("#temperatureShift", "arrhenius");
+    await page.click("#run");
+    await page.waitForSelector('table[data-block="shift-factors"]');
+    expect(await page.locator('table[data-block="flow-1"] thead th').allTextContents()).toEqual(expect.arrayContaining(["± wall shear stress [kPa]", "Schümmer viscosity [Pa.s]"]));
+    expect(await page.locator('table[data-block="extensional-1"]').count()).toBe(1);
+    expect(await page.locator('svg[data-chart="master"] g.series').count()).toBe(3);
+    expect(await page.locator('table[data-block="method-settings"]').textContent()).toContain("Arrhenius");
+    await page.locator('table[data-block="flow-1"]').screenshot({ path: join(OUT, "pane-checks-500-flow.png") });
+    await page.locator("figure.chart-figure", { hasText: "Master curve" }).screenshot({ path: join(OUT, "pane-master-500.png") });
     await page.close();
   });
 
