@@ -11,9 +11,17 @@ import { parseCsv } from "../src/io/csv";
 import { applyColumnChoices, detectColumns, mappingProblems } from "../src/taskpane/columns";
 import { buildWorkbookPlan } from "../src/taskpane/plan";
 import { formatCell, sheetPlanHtml } from "../src/taskpane/preview";
-import { PaneError, fieldOfError, runReduction, transducerWarnings } from "../src/taskpane/runReduction";
-import { DEFAULT_PANE_SETTINGS, parseNumberField, validateSettings } from "../src/taskpane/settings";
+import { PaneError, fieldOfError, runReduction } from "../src/taskpane/runReduction";
+import { DEFAULT_PANE_SETTINGS, parseNumberField, reduceOptionsOf, validateSettings } from "../src/taskpane/settings";
 import { a1, blockLayout, columnLetters, findBlock, seriesPoints } from "../src/taskpane/sheetPlan";
+import { compareLot } from "../src/core/lotComparison";
+import { planTest } from "../src/core/planner";
+import { readPlanOptions } from "../src/io/planOptions";
+import { planStepTable } from "../src/io/planTables";
+import { buildLotPlan, runLotCheck } from "../src/taskpane/lotPanel";
+import { plannerFormFromSettings } from "../src/taskpane/plannerForm";
+import { buildPlannerPlan, readTransducerLines, runPlanner } from "../src/taskpane/plannerPanel";
+import { matchingRule } from "../src/taskpane/sheetPlan";
 import { expectClose } from "./helpers/expectClose";
 
 const demo = parseCsv(readFileSync(join(__dirname, "../workbooks/demo-film-grade.csv"), "utf8")).lines.map((l) => l.cells);
@@ -90,11 +98,6 @@ describe("errors go next to their field", () => {
     await expect(runReduction({ cells: oneDie, columns: detectColumns(demo[0] ?? []), dies: [], sourceLabel: "x" }, { ...DEFAULT_PANE_SETTINGS, models: [] })).rejects.toMatchObject({ field: "endCorrection" });
     await expect(runReduction({ cells: oneDie, columns: detectColumns(demo[0] ?? []), dies: [], sourceLabel: "x" }, { ...DEFAULT_PANE_SETTINGS, models: [] })).rejects.toBeInstanceOf(PaneError);
   });
-  test("transducerWarnings flags readings above full scale and in the bottom 2 % (common practice, no source)", () => {
-    expect(transducerWarnings([1e5, 50e5, 120e5], 100).map((w) => w.code)).toEqual(["TRANSDUCER_OVER_RANGE", "TRANSDUCER_LOW_RANGE"]);
-    expect(transducerWarnings([10e5], 100)).toEqual([]);
-    expect(transducerWarnings([1e9], null)).toEqual([]);
-  });
 });
 
 describe("buildWorkbookPlan(run, meta)", () => {
@@ -161,11 +164,18 @@ describe("buildWorkbookPlan(run, meta)", () => {
     });
   });
 
-  test("the viscosity chart has each group's points and one curve per fitted model", () => {
+  test("the viscosity chart shows each group's points and its best model by default, every model on request", () => {
     const plan = buildWorkbookPlan(run, META).results;
     const chart = plan.charts.find((c) => c.id === "viscosity");
-    const fitted = run.fits.reduce((s, f) => s + f.curves.length, 0);
-    expect(chart?.series).toHaveLength(run.result.groups.length + fitted);
+    const groupsFitted = run.fits.filter((f) => f.curves.length > 0).length;
+    expect(chart?.series).toHaveLength(run.result.groups.length + groupsFitted);
+    run.fits.forEach((f, i) => {
+      const best = f.compare?.ranked[0]?.model;
+      expect(chart?.series.filter((x) => x.name.includes(`, ${best} (best)`) && x.colour === chart?.series[i]?.colour).length).toBeGreaterThanOrEqual(1);
+    });
+    const all = buildWorkbookPlan({ ...run, settings: { ...run.settings, chartAllModels: true } }, META).results.charts.find((c) => c.id === "viscosity");
+    const fitted = run.fits.reduce((n, f) => n + f.curves.length, 0);
+    expect(all?.series).toHaveLength(run.result.groups.length + fitted);
   });
 
   test("the method record names the equations of the steps used", () => {
@@ -187,4 +197,233 @@ describe("buildWorkbookPlan(run, meta)", () => {
 
 test("columnLetters(n) follows Excel's column names", () => {
   expect([0, 25, 26, 27, 701, 702].map(columnLetters)).toEqual(["A", "Z", "AA", "AB", "ZZ", "AAA"]);
+});
+
+describe("optional checks and the temperature shift", () => {
+  const ALL = {
+    ...DEFAULT_PANE_SETTINGS,
+    models: ["power-law" as const],
+    transducerRangeBar: 1000,
+    transducerAccuracyPercent: 0.25,
+    representativeRate: true,
+    extensional: true,
+    pressureDependence: true,
+    heating: true,
+    heatingDensity: 0.75,
+    heatingHeatCapacity: 2.1,
+    heatingConductivity: 0.18,
+    heatingTemperatureCoefficient: null,
+    temperatureShift: "arrhenius" as const,
+    referenceTemperatureC: null,
+  };
+  let run: Awaited<ReturnType<typeof runReduction>>;
+  beforeAll(async () => {
+    run = await runReduction({ cells: demo, columns: detectColumns(demo[0] ?? []), dies: [], sourceLabel: "Data!A1:F82" }, ALL);
+  });
+
+  test("validateSettings checks every new field and names it", () => {
+    expect(validateSettings(ALL)).toEqual([]);
+    const bad = validateSettings({ ...ALL, transducerAccuracyPercent: null, heatingDensity: 0, heatingHeatCapacity: null, heatingConductivity: NaN, heatingTemperatureCoefficient: -1, temperatureShift: "vft" as never, referenceTemperatureC: -300 });
+    expect(bad.map((e) => e.field)).toEqual(["transducerAccuracyPercent", "heatingDensity", "heatingHeatCapacity", "heatingConductivity", "heatingTemperatureCoefficient", "temperatureShift", "referenceTemperatureC"]);
+    // heating data are not asked for while heating is off
+    expect(validateSettings({ ...DEFAULT_PANE_SETTINGS, heatingDensity: null })).toEqual([]);
+  });
+
+  test("reduceOptionsOf converts the pane's units to SI for the core (NIST SP 811: 1 bar = 1e5 Pa, 1 g/cm3 = 1000 kg/m3)", () => {
+    const o = reduceOptionsOf(ALL);
+    expect(o.transducer).toEqual({ fullScale: 1000e5, accuracy: 0.0025 });
+    expectClose(o.heating?.density as number, 750, { rel: 1e-12 });
+    expectClose(o.heating?.heatCapacity as number, 2100, { rel: 1e-12 });
+    expect(o.heating?.temperatureCoefficient).toBeUndefined();
+    expect(reduceOptionsOf(DEFAULT_PANE_SETTINGS)).toEqual({ endCorrection: "bagley", rabinowitsch: expect.any(Object) });
+  });
+
+  test("the transducer check is the core's (one warning list, no copy of its own)", () => {
+    expect(run.warnings.map((w) => w.code)).toContain("TRANSDUCER_LOW_READING");
+    expect(run.warnings.filter((w) => w.code === "TRANSDUCER_LOW_READING")).toHaveLength(run.result.groups.length);
+    expect(run.warnings.map((w) => w.code)).not.toContain("TRANSDUCER_LOW_RANGE");
+  });
+
+  test("± stress without end correction is k·u_P·D/(4L), u_P = a·FS/√3 (JCGM 100:2008 §4.3.7, rectangular; k = 2)", async () => {
+    const none = await runReduction({ cells: demo, columns: detectColumns(demo[0] ?? []), dies: [], sourceLabel: "x" }, { ...DEFAULT_PANE_SETTINGS, models: [], endCorrection: "none", transducerRangeBar: 1000, transducerAccuracyPercent: 0.25 });
+    const plan = buildWorkbookPlan(none, META).results;
+    const flow = findBlock(plan, "flow-1");
+    const col = (flow.header ?? []).indexOf("± wall shear stress [kPa]");
+    expect(col).toBe(7);
+    const uP = (0.0025 * 1000e5) / Math.sqrt(3);
+    for (const row of flow.rows) expectClose(row[col] as number, (2 * uP * (1 / (4 * 30))) / 1e3, { rel: 1e-9 }); // D = 1 mm, longest L = 30 mm
+  });
+
+  test("the Schümmer column places τ_w/γ̇_a at (π/4)·γ̇_a (Schümmer & Worthoff 1978)", () => {
+    const plan = buildWorkbookPlan(run, META).results;
+    const flow = findBlock(plan, "flow-1");
+    const h = flow.header ?? [];
+    const rate = h.indexOf("Schümmer shear rate [1/s]");
+    const visc = h.indexOf("Schümmer viscosity [Pa.s]");
+    expect(rate).toBeGreaterThan(0);
+    flow.rows.forEach((r) => {
+      expectClose(r[rate] as number, (Math.PI / 4) * (r[0] as number), { rel: 1e-12 });
+      expectClose(r[visc] as number, ((r[1] as number) * 1e3) / (r[0] as number), { rel: 1e-12 });
+    });
+  });
+
+  test("the extensional, heating and pressure-dependence tables copy the core's rows", () => {
+    const plan = buildWorkbookPlan(run, META).results;
+    run.result.groups.forEach((g, i) => {
+      const ext = findBlock(plan, `extensional-${i + 1}`);
+      expect(ext.rows).toHaveLength(g.extensional?.length ?? -1);
+      g.extensional?.forEach((e, r) => expect(ext.rows[r]?.[4]).toBe(e.extensionalViscosity));
+      const heat = findBlock(plan, `heating-${i + 1}`);
+      // adiabatic rise ΔT = ΔP/(ρ·c_p) (Macosko 1994, §6.2.5), from the pressure the table shows
+      heat.rows.forEach((r) => expectClose(r[2] as number, ((r[1] as number) * 1e5) / (750 * 2100), { rel: 1e-9 }));
+      expect(findBlock(plan, `pressure-${i + 1}`).title).toMatch(/median β/);
+    });
+  });
+
+  test("the shift block gives the core's Ea and aT = exp[(Ea/R)(1/T − 1/Tref)] per temperature (Arrhenius; R = 8.314462618 J/(mol·K), CODATA 2018)", () => {
+    const plan = buildWorkbookPlan(run, META).results;
+    const shift = run.shift;
+    if (!shift || shift.fit.law !== "arrhenius") throw new Error("no Arrhenius shift");
+    const constants = findBlock(plan, "shift").rows;
+    expect(constants.find((r) => r[0] === "activation energy Ea [kJ/mol]")?.[1]).toBe(shift.fit.activationEnergy / 1e3);
+    expect(constants.find((r) => r[0] === "reference temperature [°C]")?.[1]).toBeCloseTo(210, 9); // middle of 190, 210, 230 °C
+    const factors = findBlock(plan, "shift-factors").rows;
+    expect(factors.map((r) => r[0])).toEqual([190, 210, 230].map((t) => expect.closeTo(t, 9)));
+    for (const r of factors) {
+      const T = (r[0] as number) + 273.15;
+      expectClose(r[1] as number, Math.exp((shift.fit.activationEnergy / 8.314462618) * (1 / T - 1 / 483.15)), { rel: 1e-9 });
+    }
+    const master = plan.charts.find((c) => c.id === "master");
+    expect(master?.series).toHaveLength(3);
+    expect(master?.series.reduce((n, x) => n + seriesPoints(plan, x).length, 0)).toBe(run.result.groups.reduce((n, g) => n + g.flowCurve.filter((f) => f.viscosity !== null).length, 0));
+  });
+
+  test("with wide tables the charts move right of them and the chart data right of the charts", () => {
+    const plan = buildWorkbookPlan(run, META).results;
+    const tableRight = Math.max(...plan.blocks.filter((b) => b.role !== "chartData" && b.col === 0).map((b) => blockLayout(b).width));
+    expect(tableRight).toBeGreaterThan(9);
+    for (const c of plan.charts) expect(c.anchor.col).toBeGreaterThanOrEqual(tableRight);
+    const dataLeft = Math.min(...plan.blocks.filter((b) => b.role === "chartData").map((b) => b.col));
+    for (const c of plan.charts) expect(c.anchor.col + c.anchor.cols).toBeLessThanOrEqual(dataLeft);
+  });
+
+  test("the method record lists every new setting and the equations of the checks used", () => {
+    const plan = buildWorkbookPlan(run, META).method;
+    const settings = findBlock(plan, "method-settings").rows.map((r) => r[0]);
+    expect(settings).toEqual(expect.arrayContaining(["Transducer accuracy", "Schümmer cross-check", "Wall slip (Mooney)", "Extensional viscosity (Cogswell)", "Pressure dependence (curved Bagley lines)", "Viscous heating", "Temperature shift", "Reference temperature", "Viscosity chart"]));
+    const steps = findBlock(plan, "method-equations").rows.map((r) => r[0]);
+    expect(steps).toEqual(expect.arrayContaining(["Uncertainty (± columns)", "Schümmer cross-check", "Extensional viscosity", "Viscous heating", "Pressure dependence", "Temperature shift", "Master curve"]));
+  });
+
+  test("errors of the new checks go next to their field", async () => {
+    const input = { cells: demo, columns: detectColumns(demo[0] ?? []), dies: [], sourceLabel: "x" };
+    await expect(runReduction(input, { ...DEFAULT_PANE_SETTINGS, models: [], slip: true })).rejects.toMatchObject({ field: "checks" });
+    const one = demo.filter((r, i) => i === 0 || r[0] === "190");
+    await expect(runReduction({ ...input, cells: one }, { ...DEFAULT_PANE_SETTINGS, models: [], temperatureShift: "wlf" })).rejects.toMatchObject({ field: "temperatureShift" });
+    await expect(runReduction({ ...input, cells: one }, { ...DEFAULT_PANE_SETTINGS, models: [], endCorrection: "orifice" })).rejects.toMatchObject({ field: "endCorrection" });
+  });
+});
+
+describe("planner panel", () => {
+  const demoPlanJson = JSON.parse(readFileSync(join(__dirname, "../workbooks/demo-plan.json"), "utf8")) as Record<string, unknown>;
+  const form = plannerFormFromSettings(demoPlanJson);
+
+  test("the demo form holds the demo file's values in the panel's units", () => {
+    expect(form.barrelDiameter).toBe("15");
+    expect(form.timePerLoad).toBe("8");
+    expect(form.dies.split("\n")).toEqual(["L20, capillary, 1, 20", "L10, capillary, 1, 10", "orifice, orifice, 1"]);
+    expect(form.transducers.split("\n")[0]).toBe("P50, 50, 0.25");
+    expect(form.prior).toBe("model");
+  });
+
+  test("runPlanner(form) plans exactly what the command line plans from the same file", () => {
+    const pane = runPlanner(form).plan;
+    const parsed = readPlanOptions(demoPlanJson);
+    const cli = planTest(parsed.input, parsed.options);
+    expect(pane.dies.map((d) => d.transducer.name)).toEqual(cli.dies.map((d) => d.transducer.name));
+    pane.dies.forEach((d, i) => d.steps.forEach((st, k) => expectClose(st.pressure, cli.dies[i]?.steps[k]?.pressure as number, { rel: 1e-12 })));
+    expectClose(pane.totalDuration, cli.totalDuration, { rel: 1e-12 });
+  });
+
+  test("the plan sheet holds the shared step table and flags out-of-range steps with conditional formats", () => {
+    const out = runPlanner(form);
+    const plan = buildPlannerPlan(out, { name: "Rheo plan", version: "0", date: META.date });
+    const steps = findBlock(plan, "plan-steps");
+    expect(steps.rows).toEqual(planStepTable(out.plan).rows);
+    const rangeCol = (steps.header ?? []).indexOf("range");
+    const cf = plan.conditionalFormats?.find((c) => c.column === rangeCol);
+    expect(cf?.rowCount).toBe(steps.rows.length);
+    // every step the core flags is coloured; "ok" steps are not
+    out.plan.dies.flatMap((d) => d.steps).forEach((st, r) => expect(matchingRule(cf as never, steps.rows[r]?.[rangeCol] ?? null) !== null).toBe(st.flag !== "ok"));
+  });
+
+  test("with one small transducer the high steps are flagged OVER FULL SCALE, and only those are coloured", () => {
+    const out = runPlanner({ ...form, transducers: "P50, 50, 0.25" });
+    const plan = buildPlannerPlan(out, { name: "Rheo plan", version: "0", date: META.date });
+    const steps = findBlock(plan, "plan-steps");
+    const rangeCol = (steps.header ?? []).indexOf("range");
+    const cf = plan.conditionalFormats?.find((c) => c.column === rangeCol);
+    const all = out.plan.dies.flatMap((d) => d.steps);
+    const over = all.filter((st) => st.flag === "over").length;
+    expect(over).toBeGreaterThan(0);
+    all.forEach((st, r) => expect(matchingRule(cf as never, steps.rows[r]?.[rangeCol] ?? null)?.tone ?? "none").toBe(st.flag === "over" ? "fail" : st.flag === "ok" ? "none" : "caution"));
+    const html = sheetPlanHtml(plan);
+    expect((html.match(/class="flag flag-fail"/g) ?? []).length).toBeGreaterThanOrEqual(over);
+  });
+
+  test("bad planner input names its field", () => {
+    expect(() => runPlanner({ ...form, dies: "L20, pipe, 1, 20" })).toThrow(expect.objectContaining({ field: "planDies" }));
+    expect(() => runPlanner({ ...form, barrelDiameter: "" })).toThrow(expect.objectContaining({ field: "planBarrel" }));
+    expect(() => runPlanner({ ...form, transducers: "P1, lots" })).toThrow(expect.objectContaining({ field: "planTransducers" }));
+    expect(() => runPlanner({ ...form, prior: "power-law", powerLawK: "1e4", powerLawN: "" })).toThrow(expect.objectContaining({ field: "planN" }));
+    expect(() => runPlanner({ ...form, priorParameters: "eta0=x" })).toThrow(expect.objectContaining({ field: "planParameters" }));
+    expect(() => runPlanner({ ...form, shearRateMax: "2 bar" })).toThrow(expect.objectContaining({ field: "planRateMax" }));
+  });
+
+  test("a bare transducer accuracy is read as a percentage", () => {
+    expect(readTransducerLines("P1, 200, 0.5")).toEqual([{ name: "P1", fullScale: "200", accuracy: "0.5 %" }]);
+  });
+});
+
+describe("lot check panel", () => {
+  const cells = (f: string) => parseCsv(readFileSync(join(__dirname, `../workbooks/${f}`), "utf8")).lines.map((l) => l.cells);
+  const lot = { kind: "cells" as const, cells: cells("demo-lot-new.csv"), label: "lot" };
+  const reference = { kind: "table" as const, cells: cells("demo-lot-reference.csv"), label: "ref" };
+
+  test("runLotCheck gives the core's comparison of the demo lot", () => {
+    const out = runLotCheck(lot, reference, "10");
+    const core = compareLot({ kind: "table", shearRate: [20, 50, 100, 200, 500, 1000, 2000], viscosity: [2467, 1404, 913.9, 594.7, 337, 219.3, 142.7] }, { shearRate: [25, 60, 120, 250, 600, 1200, 2500], viscosity: [2238, 1317, 840.7, 512.7, 288.9, 182.1, 111.8] }, { tolerance: 0.1 });
+    expect(out.comparison.points).toEqual(core.points);
+    expect(out.comparison.verdict).toBe(core.verdict);
+  });
+
+  test("the lot sheet: verdict, per-rate table, PASS/FAIL formats on the status column, lot over the band", () => {
+    const out = runLotCheck(lot, reference, "10");
+    const plan = buildLotPlan(out, { name: "Rheo lot check", version: "0", date: META.date });
+    const points = findBlock(plan, "lot-points");
+    const status = (points.header ?? []).indexOf("status");
+    const cf = plan.conditionalFormats?.find((c) => c.blockId === "lot-points");
+    expect(cf?.column).toBe(status);
+    expect(cf?.rules.map((r) => r.text)).toEqual(["FAIL", "PASS", "NOT COMPARED"]);
+    out.comparison.points.forEach((p, r) => expect(matchingRule(cf as never, points.rows[r]?.[status] ?? null)?.tone).toBe(p.status === "pass" ? "pass" : p.status === "fail" ? "fail" : "caution"));
+    expect(findBlock(plan, "lot-verdict").rows[0]).toEqual(["verdict", out.comparison.verdict === "pass" ? "PASS" : out.comparison.verdict === "fail" ? "FAIL" : "NOT COMPARED"]);
+    const chart = plan.charts[0];
+    expect(chart?.series.map((x) => x.name)).toEqual(["reference", "reference −10 %", "reference +10 %", "lot"]);
+    const [refS, lowS, upS, lotS] = (chart?.series ?? []).map((x) => seriesPoints(plan, x));
+    refS?.forEach((p, i) => {
+      expectClose(lowS?.[i]?.y as number, p.y * 0.9, { rel: 1e-12 });
+      expectClose(upS?.[i]?.y as number, p.y * 1.1, { rel: 1e-12 });
+    });
+    expect(lotS?.map((p) => p.x)).toEqual([25, 60, 120, 250, 600, 1200, 2500]);
+    expect(chart?.xLog && chart.yLog).toBe(true);
+  });
+
+  test("a tight tolerance fails points, and errors name their field", () => {
+    const out = runLotCheck(lot, reference, "1 %");
+    expect(out.comparison.failed).toBeGreaterThan(0);
+    expect(() => runLotCheck(lot, reference, "ten")).toThrow(expect.objectContaining({ field: "lotTolerance" }));
+    expect(() => runLotCheck({ ...lot, cells: [["rate", "eta"], [1, 2]] }, reference, "10")).toThrow(expect.objectContaining({ field: "lotRange" }));
+    expect(() => runLotCheck(lot, { kind: "model", model: "power-law", parameters: "K=abc", label: "m" }, "10")).toThrow(expect.objectContaining({ field: "refParameters" }));
+    expect(() => runLotCheck(lot, { kind: "model", model: "", parameters: "K=1", label: "m" }, "10")).toThrow(expect.objectContaining({ field: "refModel" }));
+  });
 });

@@ -8,7 +8,11 @@ import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { parseCsv } from "../src/io/csv";
 import { detectColumns } from "../src/taskpane/columns";
-import { pairedSheetNames, uniqueSheetName, writeWorkbookPlan } from "../src/taskpane/excelWriter";
+import { SHEET_BASE_NAMES, pairedSheetNames, uniqueSheetName, writeNewSheet, writeWorkbookPlan } from "../src/taskpane/excelWriter";
+import { buildLotPlan, runLotCheck } from "../src/taskpane/lotPanel";
+import { plannerFormFromSettings } from "../src/taskpane/plannerForm";
+import { buildPlannerPlan, runPlanner } from "../src/taskpane/plannerPanel";
+import { conditionalFormatAddress } from "../src/taskpane/sheetPlan";
 import { buildWorkbookPlan } from "../src/taskpane/plan";
 import { RunOutput, runReduction } from "../src/taskpane/runReduction";
 import { DEFAULT_PANE_SETTINGS, describeSettings } from "../src/taskpane/settings";
@@ -197,5 +201,71 @@ describe("copy as values", () => {
     fake.addSheet("Lab", { formulas, values, rowIndex: 0, columnIndex: 0 });
     await expect(copySheetAsValues(fake.batch, "Lab", () => true)).rejects.toThrow(/sync failed/);
     expect(fake.names()).toEqual(["Lab"]);
+  });
+});
+
+describe("writeNewSheet(batch, base, makePlan): the plan and lot-check sheets", () => {
+  const csv = (f: string) => parseCsv(readFileSync(join(__dirname, `../workbooks/${f}`), "utf8")).lines.map((l) => l.cells);
+  const lot = runLotCheck({ kind: "cells", cells: csv("demo-lot-new.csv"), label: "Lot!A1:B8" }, { kind: "table", cells: csv("demo-lot-reference.csv"), label: "Ref!A1:B8" }, "10");
+  const planned = runPlanner(plannerFormFromSettings(JSON.parse(readFileSync(join(__dirname, "../workbooks/demo-plan.json"), "utf8"))));
+  const lotPlan = (name: string) => buildLotPlan(lot, { ...META, name });
+  const planPlan = (name: string) => buildPlannerPlan(planned, { ...META, name });
+
+  test("the lot check goes to a new uniquely named sheet; PASS/FAIL formats sit on the status column", async () => {
+    const fake = withData();
+    fake.addSheet("Rheo lot check");
+    const name = await writeNewSheet(fake.batch, SHEET_BASE_NAMES.lot, lotPlan);
+    expect(name).toBe("Rheo lot check 2");
+    expect(fake.names()).toEqual(["Data", "Rheo results", "Rheo lot check", "Rheo lot check 2"]);
+    expect(fake.sheet("Rheo lot check").ranges).toEqual([]);
+    const plan = lotPlan(name);
+    const status = plan.conditionalFormats?.[0];
+    const formats = fake.sheet(name).conditionalFormats;
+    expect(formats.filter((f) => f.address === conditionalFormatAddress(plan, status as never)).map((f) => [f.type, f.format.textComparison.rule?.operator, f.format.textComparison.rule?.text])).toEqual([
+      ["ContainsText", "Contains", "FAIL"],
+      ["ContainsText", "Contains", "PASS"],
+      ["ContainsText", "Contains", "NOT COMPARED"],
+    ]);
+    // the formatted cells hold the status words
+    const cells = fake.written(name);
+    const [start] = conditionalFormatAddress(plan, status as never).split(":");
+    expect(["PASS", "FAIL", "NOT COMPARED"]).toContain(cells.get(start as string));
+    expect(formats.find((f) => f.format.textComparison.rule?.text === "FAIL")?.format.textComparison.format.fill.color).toBe("#F6D4D0");
+  });
+
+  test("the lot chart is an XY chart with the reference, both band edges and the lot, read from the sheet", async () => {
+    const fake = withData();
+    const name = await writeNewSheet(fake.batch, SHEET_BASE_NAMES.lot, lotPlan);
+    const plan = lotPlan(name);
+    const [chart] = fake.sheet(name).charts;
+    expect(chart?.type).toBe("XYScatter");
+    expect(chart?.series.map((x) => x.mock.name)).toEqual(["reference", "reference −10 %", "reference +10 %", "lot"]);
+    chart?.series.forEach((x, i) => {
+      const want = seriesAddresses(plan, plan.charts[0]?.series[i] as never);
+      expect([x.x, x.y]).toEqual([want.x, want.y]);
+    });
+    expect(chart?.series[1]?.mock.format.line.lineStyle).toBe("Dash");
+    expect(chart?.series[3]?.mock.markerStyle).toBe("Circle");
+    expect(chart?.mock.axes.valueAxis.logBase).toBe(10);
+  });
+
+  test("the plan goes to a new \"Rheo plan\" sheet with its out-of-range steps formatted", async () => {
+    const fake = withData();
+    const name = await writeNewSheet(fake.batch, SHEET_BASE_NAMES.plan, planPlan);
+    expect(name).toBe("Rheo plan");
+    const plan = planPlan(name);
+    const formats = fake.sheet(name).conditionalFormats;
+    expect(formats.map((f) => f.format.textComparison.rule?.text)).toEqual(["OVER FULL SCALE", "HIGH", "LOW", "NO"]);
+    expect(formats[0]?.address).toBe(conditionalFormatAddress(plan, plan.conditionalFormats?.[0] as never));
+    expect(fake.sheet(name).charts).toEqual([]);
+  });
+
+  test("a failing chart or sync leaves no new sheet behind", async () => {
+    const fake = withData({ failAtChart: 1 });
+    await expect(writeNewSheet(fake.batch, SHEET_BASE_NAMES.lot, lotPlan)).rejects.toThrow(/chart could not be created/);
+    expect(fake.names()).toEqual(["Data", "Rheo results"]);
+    const again = withData({ failAtSync: 2 });
+    await expect(writeNewSheet(again.batch, SHEET_BASE_NAMES.plan, planPlan)).rejects.toThrow(/sync failed/);
+    expect(again.names()).toEqual(["Data", "Rheo results"]);
   });
 });

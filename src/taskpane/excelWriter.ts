@@ -2,15 +2,15 @@
  * Applies a sheet plan to the workbook with Office.js: new, uniquely named sheets only (existing
  * sheets and cells are never written), cell blocks with their formats, native XY charts. On any
  * failure the sheets created by the run are deleted in a fresh batch, so no half-written sheet
- * stays behind. Needs ExcelApi 1.7 (chart series, log axes).
+ * stays behind. Needs ExcelApi 1.7 (chart series, log axes; conditional formats need 1.6).
  */
-import { CellBlock, ChartSpec, SheetPlan, WorkbookPlan, a1, blockGrid, blockLayout, columnLetters, seriesAddresses } from "./sheetPlan";
+import { CellBlock, ChartSpec, SheetPlan, WorkbookPlan, a1, blockGrid, blockLayout, columnLetters, conditionalFormatAddress, seriesAddresses } from "./sheetPlan";
 
 /** Runs one batch against the workbook: `Excel.run` in the pane, a fake in tests. */
 export type ExcelBatch = <T>(batch: (context: Excel.RequestContext) => Promise<T>) => Promise<T>;
 
 /** Base names of the sheets a run creates ("Rheo results", "Rheo results 2", ...). */
-export const SHEET_BASE_NAMES = Object.freeze({ results: "Rheo results", method: "Rheo method" });
+export const SHEET_BASE_NAMES = Object.freeze({ results: "Rheo results", method: "Rheo method", plan: "Rheo plan", lot: "Rheo lot check" });
 
 /** Excel's limit on sheet names. */
 const MAX_SHEET_NAME = 31;
@@ -79,6 +79,17 @@ export function writeSheetCells(sheet: Excel.Worksheet, plan: SheetPlan): void {
     sheet.getRange(`${L}:${L}`).format.columnWidth = chars * POINTS_PER_CHAR;
   });
   for (const block of plan.blocks) writeBlock(sheet, block);
+  for (const cf of plan.conditionalFormats ?? []) {
+    if (cf.rowCount === 0) continue;
+    const range = sheet.getRange(conditionalFormatAddress(plan, cf));
+    for (const rule of cf.rules) {
+      const format = range.conditionalFormats.add("ContainsText");
+      format.textComparison.format.fill.color = rule.fill;
+      format.textComparison.format.font.color = rule.font;
+      format.textComparison.format.font.bold = true;
+      format.textComparison.rule = { operator: "Contains", text: rule.text };
+    }
+  }
 }
 
 /** Adds one native XY chart of the plan to `sheet`. */
@@ -181,6 +192,46 @@ export async function writeWorkbookPlan(
       await deleteSheets(run, created);
     } catch (cleanup) {
       throw new Error(`${error instanceof Error ? error.message : String(error)} (and the new sheets ${created.join(", ")} could not be removed: ${cleanup instanceof Error ? cleanup.message : String(cleanup)}; delete them by hand)`);
+    }
+    throw error;
+  }
+}
+
+/**
+ * Creates one new sheet named `base` (or `base 2`, ... when taken), writes the plan built for that
+ * name with its conditional formats and charts, and activates it. On failure deletes the sheet it
+ * created, in a batch of its own, and rethrows: nothing is left half-written.
+ * @returns the name of the sheet written
+ */
+export async function writeNewSheet(run: ExcelBatch, base: string, makePlan: (name: string) => SheetPlan, onProgress: WriteProgress = () => undefined): Promise<string> {
+  const created: string[] = [];
+  try {
+    return await run(async (context) => {
+      const sheets = context.workbook.worksheets;
+      sheets.load("items/name");
+      await context.sync();
+      const name = uniqueSheetName(base, sheets.items.map((s) => s.name));
+      const plan = makePlan(name);
+      onProgress("Writing the tables", 0.92);
+      created.push(name);
+      const sheet = sheets.add(name);
+      writeSheetCells(sheet, plan);
+      await context.sync();
+      if (plan.charts.length > 0) {
+        onProgress("Adding the chart", 0.96);
+        for (const spec of plan.charts) addChart(sheet, plan, spec);
+        await context.sync();
+      }
+      sheet.activate();
+      sheet.getRange("A1").select();
+      await context.sync();
+      return name;
+    });
+  } catch (error) {
+    try {
+      await deleteSheets(run, created);
+    } catch (cleanup) {
+      throw new Error(`${error instanceof Error ? error.message : String(error)} (and the new sheet ${created.join(", ")} could not be removed: ${cleanup instanceof Error ? cleanup.message : String(cleanup)}; delete it by hand)`);
     }
     throw error;
   }

@@ -5,6 +5,8 @@
 import { getModel } from "../core/models";
 import { ColumnChoice, ColumnRole, DieEntry, roleOptions, unitOptions } from "./columns";
 import { FieldId, PANE_MODELS, SETTING_HELP } from "./settings";
+import { LOT_HELP, type LotFieldId } from "./lotPanel";
+import { PLANNER_HELP, type PlannerFieldId } from "./plannerPanel";
 
 /** The element with `id`, typed; throws when the page lacks it (a build error, not a user one). */
 export function byId<T extends HTMLElement = HTMLElement>(id: string): T {
@@ -20,7 +22,10 @@ function el<K extends keyof HTMLElementTagNameMap>(tag: K, attrs: Record<string,
   return e;
 }
 
-/** The control an error of `field` belongs to (for aria-invalid and focus). */
+/**
+ * The control an error of `field` belongs to (for aria-invalid and focus). Fields of the Planner
+ * and Lot check panels are named after their controls, so they need no entry here.
+ */
 const FIELD_CONTROL: Record<FieldId, string> = {
   source: "source",
   columns: "columns",
@@ -31,30 +36,35 @@ const FIELD_CONTROL: Record<FieldId, string> = {
   rabinowitschWindow: "rabinowitschWindow",
   models: "models",
   transducerRangeBar: "transducerRangeBar",
+  transducerAccuracyPercent: "transducerAccuracyPercent",
+  checks: "check-representativeRate",
+  heatingDensity: "heatingDensity",
+  heatingHeatCapacity: "heatingHeatCapacity",
+  heatingConductivity: "heatingConductivity",
+  heatingTemperatureCoefficient: "heatingTemperatureCoefficient",
+  temperatureShift: "temperatureShift",
+  referenceTemperatureC: "referenceTemperatureC",
   run: "run",
   share: "share-sheet",
 };
 
 /** Shows `message` next to its field, marks the control invalid, and returns the control. */
-export function showFieldError(field: FieldId, message: string): HTMLElement {
+export function showFieldError(field: FieldId | PlannerFieldId | LotFieldId, message: string): HTMLElement {
   const box = byId(`${field}-error`);
   box.textContent = message;
   box.hidden = false;
-  const control = byId(FIELD_CONTROL[field]);
+  const control = byId((FIELD_CONTROL as Record<string, string>)[field] ?? field);
   if (control instanceof HTMLInputElement || control instanceof HTMLSelectElement) control.setAttribute("aria-invalid", "true");
   return control;
 }
 
 /** Clears every inline error. */
-export function clearFieldErrors(): void {
-  for (const field of Object.keys(FIELD_CONTROL) as FieldId[]) {
-    const box = document.getElementById(`${field}-error`);
-    if (box) {
-      box.hidden = true;
-      box.textContent = "";
-    }
-  }
-  document.querySelectorAll("[aria-invalid]").forEach((e) => e.removeAttribute("aria-invalid"));
+export function clearFieldErrors(scope: ParentNode = document): void {
+  scope.querySelectorAll<HTMLElement>("p.error").forEach((box) => {
+    box.hidden = true;
+    box.textContent = "";
+  });
+  scope.querySelectorAll("[aria-invalid]").forEach((e) => e.removeAttribute("aria-invalid"));
 }
 
 /** Progress: a bar and a polite live status line. `fraction` null hides the bar. */
@@ -164,4 +174,20 @@ export function fillStaticHelp(): void {
   byId("rabinowitschWindow-help").textContent = SETTING_HELP.rabinowitschWindow;
   byId("models-help").textContent = SETTING_HELP.models;
   byId("transducerRangeBar-help").textContent = SETTING_HELP.transducerRangeBar;
+  byId("end-orifice-help").textContent = SETTING_HELP.endCorrection.orifice;
+  for (const k of ["transducerAccuracyPercent", "heatingDensity", "heatingHeatCapacity", "heatingConductivity", "heatingTemperatureCoefficient", "referenceTemperatureC", "chartAllModels"] as const) {
+    byId(`${k}-help`).textContent = SETTING_HELP[k];
+  }
+  for (const k of ["representativeRate", "slip", "extensional", "pressureDependence", "heating"] as const) byId(`check-${k}-help`).textContent = SETTING_HELP[k];
+  byId("planDies-help").textContent = PLANNER_HELP.dies;
+  byId("planTransducers-help").textContent = PLANNER_HELP.transducers;
+  byId("planRates-help").textContent = PLANNER_HELP.rates;
+  byId("planDwell-help").textContent = PLANNER_HELP.dwell;
+  byId("lotSource-help").textContent = LOT_HELP.lotSource;
+  byId("lotTolerance-help").textContent = LOT_HELP.tolerance;
+}
+
+/** Fills a model list (the pane's isothermal models), keeping `chosen` selected. */
+export function fillModelSelect(select: HTMLSelectElement, chosen: string): void {
+  select.replaceChildren(new Option("(choose)", ""), ...PANE_MODELS.map((id) => new Option(id, id, false, id === chosen)));
 }

@@ -3,7 +3,7 @@
  * (outside Office) and as a quick look after a run. Pure: returns markup with every text escaped.
  */
 import { chartSvg, escapeXml } from "./svgChart";
-import { CellBlock, CellValue, SheetPlan, blockLayout } from "./sheetPlan";
+import { CellBlock, CellValue, ConditionalFormatSpec, SheetPlan, blockLayout, matchingRule } from "./sheetPlan";
 
 /** A cell as shown in the preview: numbers to 4 significant digits, exponent outside 1e-3…1e6. */
 export function formatCell(v: CellValue): string {
@@ -17,25 +17,38 @@ export function formatCell(v: CellValue): string {
   return Number(v.toPrecision(4)).toString();
 }
 
-function tableHtml(block: CellBlock): string {
+/** The tone class of a cell under the plan's conditional formats (what Excel would colour). */
+function toneOf(formats: readonly ConditionalFormatSpec[], block: CellBlock, row: number, col: number, v: CellValue): string | null {
+  for (const cf of formats) {
+    if (cf.blockId !== block.id || cf.column !== col || row < cf.firstRow || row >= cf.firstRow + cf.rowCount) continue;
+    const rule = matchingRule(cf, v);
+    if (rule) return rule.tone;
+  }
+  return null;
+}
+
+function tableHtml(block: CellBlock, formats: readonly ConditionalFormatSpec[] = []): string {
   const lay = blockLayout(block);
   const head = block.header ? `<thead><tr>${block.header.map((h) => `<th scope="col">${escapeXml(h)}</th>`).join("")}</tr></thead>` : "";
   const body = block.rows
-    .map((r) => `<tr>${Array.from({ length: lay.width }, (_, c) => {
+    .map((r, i) => `<tr>${Array.from({ length: lay.width }, (_, c) => {
       const v = r[c] ?? null;
-      return `<td${typeof v === "number" ? ` class="num"` : ""}>${escapeXml(formatCell(v))}</td>`;
+      const classes = [typeof v === "number" ? "num" : "", ...[toneOf(formats, block, i, c, v)].filter((t) => t !== null).map((t) => `flag flag-${t}`)].filter((x) => x !== "");
+      return `<td${classes.length > 0 ? ` class="${classes.join(" ")}"` : ""}>${escapeXml(formatCell(v))}</td>`;
     }).join("")}</tr>`)
     .join("");
   const caption = block.title !== undefined ? `<caption>${escapeXml(block.title)}</caption>` : "";
   return `<div class="table-wrap" tabindex="0" role="region" aria-label="${escapeXml(block.title ?? block.id)}"><table data-block="${escapeXml(block.id)}">${caption}${head}<tbody>${body}</tbody></table></div>`;
 }
 
-function blockHtml(block: CellBlock): string {
+const SHEET_TITLES = ["title", "method-title", "plan-title", "lot-title"];
+
+function blockHtml(block: CellBlock, formats: readonly ConditionalFormatSpec[]): string {
   if (block.role === "heading") {
-    return block.id === "title" || block.id === "method-title" ? "" : `<h4 class="group-heading" data-block="${escapeXml(block.id)}">${escapeXml(block.title ?? "")}</h4>`;
+    return SHEET_TITLES.includes(block.id) ? "" : `<h4 class="group-heading" data-block="${escapeXml(block.id)}">${escapeXml(block.title ?? "")}</h4>`;
   }
   if (block.role === "text") return `<p class="stamp" data-block="${escapeXml(block.id)}">${escapeXml(String(block.rows[0]?.[0] ?? ""))}</p>`;
-  return tableHtml(block);
+  return tableHtml(block, formats);
 }
 
 /**
@@ -46,7 +59,7 @@ export function sheetPlanHtml(plan: SheetPlan): string {
   const main = plan.blocks.filter((b) => b.role !== "chartData" && b.id !== "chartdata-title");
   const data = plan.blocks.filter((b) => b.role === "chartData");
   const out: string[] = [`<h3 class="sheet-name">Sheet “${escapeXml(plan.name)}”</h3>`];
-  out.push(...main.map(blockHtml));
+  out.push(...main.map((b) => blockHtml(b, plan.conditionalFormats ?? [])));
   if (plan.charts.length > 0) {
     out.push(`<div class="charts">`);
     for (const c of plan.charts) {
@@ -57,6 +70,6 @@ export function sheetPlanHtml(plan: SheetPlan): string {
     }
     out.push(`</div>`);
   }
-  if (data.length > 0) out.push(`<details class="chart-data"><summary>Chart data</summary>${data.map(tableHtml).join("")}</details>`);
+  if (data.length > 0) out.push(`<details class="chart-data"><summary>Chart data</summary>${data.map((b) => tableHtml(b)).join("")}</details>`);
   return out.join("");
 }

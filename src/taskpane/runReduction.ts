@@ -10,7 +10,8 @@ import { evaluateModel, type ModelId } from "../core/models";
 import { readRawTable, RawTable } from "../io/rawTable";
 import { COLUMN_QUANTITIES } from "../io/headers";
 import { applyColumnChoices, ColumnChoice, DieEntry } from "./columns";
-import { FieldError, FieldId, PaneSettings, TRANSDUCER_LOW_FRACTION, reduceOptionsOf, validateSettings } from "./settings";
+import { FieldError, FieldId, PaneSettings, reduceOptionsOf, validateSettings } from "./settings";
+import { ShiftOutput, shiftRun } from "./temperatureShift";
 
 /** What the user picked in the Data step. */
 export interface RunInput {
@@ -43,7 +44,9 @@ export interface RunOutput {
   result: ReductionResult;
   /** aligned with result.groups */
   fits: GroupFits[];
-  /** every warning of the run: reading, reduction, transducer range, fits */
+  /** the temperature shift (null when not asked for) */
+  shift: ShiftOutput | null;
+  /** every warning of the run: reading, reduction (transducer range included), shift, fits */
   warnings: Warning[];
 }
 
@@ -76,6 +79,16 @@ export function fieldOfError(error: RheoError): FieldId {
   if (a === "degree") return "rabinowitschDegree";
   if (a === "window") return "rabinowitschWindow";
   if (a === "model" || a === "models") return "models";
+  if (a === "temperatureShift" || /^curves/.test(a)) return "temperatureShift";
+  if (a === "referenceTemperature") return "referenceTemperatureC";
+  if (/temperatureCoefficient$/.test(a)) return "heatingTemperatureCoefficient";
+  if (a === "density") return "heatingDensity";
+  if (a === "heatCapacity") return "heatingHeatCapacity";
+  if (a === "conductivity") return "heatingConductivity";
+  if (a === "fullScale") return "transducerRangeBar";
+  if (a === "accuracy") return "transducerAccuracyPercent";
+  if (a === "dieDiameter" && /slip/.test(error.message)) return "checks";
+  if (a === "dieLength" && /orifice/.test(error.message)) return "endCorrection";
   if (/\b(row|line) \d+/.test(error.message)) return "source";
   if (a === "data" || a === "measurements") return "source";
   if (a === "columns" || a === "header" || /^column \d+/.test(a) || a in COLUMN_QUANTITIES) return "columns";
@@ -92,20 +105,6 @@ export function toFieldError(error: unknown): FieldError {
 function sentence(text: string): string {
   const t = text.trim();
   return (t.charAt(0).toUpperCase() + t.slice(1)).replace(/([^.])$/, "$1.");
-}
-
-/** Readings above the transducer's full scale or in its bottom range. */
-export function transducerWarnings(pressuresPa: readonly number[], rangeBar: number | null): Warning[] {
-  if (rangeBar === null) return [];
-  const full = rangeBar * 1e5;
-  const over = pressuresPa.filter((p) => p > full).length;
-  const low = pressuresPa.filter((p) => p < TRANSDUCER_LOW_FRACTION * full).length;
-  const out: Warning[] = [];
-  if (over > 0) out.push(warning("TRANSDUCER_OVER_RANGE", `${over} pressure reading(s) exceed the transducer's full scale of ${rangeBar} bar: they cannot be trusted.`));
-  if (low > 0) {
-    out.push(warning("TRANSDUCER_LOW_RANGE", `${low} pressure reading(s) lie in the bottom ${TRANSDUCER_LOW_FRACTION * 100} % of the ${rangeBar} bar transducer, where its relative error is largest.`));
-  }
-  return out;
 }
 
 /** A short label of a group: "190 °C, D 1 mm". */
@@ -139,8 +138,8 @@ function fitGroup(group: ReductionGroup, models: readonly ModelId[]): { fits: Gr
 }
 
 /**
- * Runs a whole reduction: settings check, column mapping, reading, reduction, transducer check,
- * and model fits per group, reporting progress and pausing between groups.
+ * Runs a whole reduction: settings check, column mapping, reading, the core's reduction with the
+ * chosen checks (its transducer check included), the temperature shift, and model fits per group, reporting progress and pausing between groups.
  * @throws PaneError naming the field at fault (settings, mapping, data, die list).
  */
 export async function runReduction(
@@ -159,7 +158,14 @@ export async function runReduction(
     onProgress("Bagley and Rabinowitsch corrections", 0.2);
     await pause();
     const result = reduce(raw.measurements, reduceOptionsOf(settings));
-    const warnings: Warning[] = [...raw.warnings, ...result.warnings, ...transducerWarnings(raw.measurements.map((m) => m.pressure), settings.transducerRangeBar)];
+    const warnings: Warning[] = [...raw.warnings, ...result.warnings];
+    let shift: ShiftOutput | null = null;
+    if (settings.temperatureShift !== "none") {
+      onProgress("Temperature shift", 0.25);
+      await pause();
+      shift = shiftRun(result.groups, settings.temperatureShift, settings.referenceTemperatureC);
+      warnings.push(...shift.fit.warnings.map((w) => warning(w.code, `Temperature shift: ${w.message}`)));
+    }
     const fits: GroupFits[] = [];
     for (const [i, group] of result.groups.entries()) {
       onProgress(`Fitting models: group ${i + 1} of ${result.groups.length}`, 0.3 + (0.6 * i) / result.groups.length);
@@ -169,7 +175,7 @@ export async function runReduction(
       warnings.push(...f.warnings);
     }
     onProgress("Reduction done", 0.9);
-    return { input, settings, raw, result, fits, warnings };
+    return { input, settings, raw, result, fits, shift, warnings };
   } catch (error) {
     if (error instanceof RheoError) {
       const f = toFieldError(error);

@@ -6,10 +6,12 @@
 import { DEFAULT_RABINOWITSCH_OPTIONS, RabinowitschMethod } from "../core/rabinowitsch";
 import { DEFAULT_REDUCE_OPTIONS, ReduceOptions } from "../core/reduce";
 import { MODEL_REGISTRY, type ModelId } from "../core/models";
+import { DEFAULT_UNCERTAINTY_OPTIONS } from "../core/uncertainty";
+import { toSI } from "../core/units";
 
 /** Every setting of one run. Numbers in the units the pane shows (bar for the transducer). */
 export interface PaneSettings {
-  /** "bagley": end correction over die lengths; "none": the longest die as measured */
+  /** "bagley": end correction over die lengths; "orifice": minus an orifice die's pressure; "none": the longest die as measured */
   endCorrection: ReduceOptions["endCorrection"];
   rabinowitschMethod: RabinowitschMethod;
   /** polynomial degree for the local (1–2) and global (1–3) methods */
@@ -20,6 +22,32 @@ export interface PaneSettings {
   models: ModelId[];
   /** full-scale range of the pressure transducer in bar, or null when not given */
   transducerRangeBar: number | null;
+  /** transducer accuracy in % of full scale (used with the range: ± columns and range checks) */
+  transducerAccuracyPercent: number | null;
+  /** Schümmer representative-rate viscosity beside the Rabinowitsch result */
+  representativeRate: boolean;
+  /** Mooney wall-slip analysis (needs two or more die bores at one temperature) */
+  slip: boolean;
+  /** Cogswell extensional viscosity from the entrance pressure */
+  extensional: boolean;
+  /** curvature of the Bagley lines: pressure coefficient of viscosity (three or more dies) */
+  pressureDependence: boolean;
+  /** viscous-heating estimate; the material data below are used only when this is on */
+  heating: boolean;
+  /** melt density in g/cm³ */
+  heatingDensity: number | null;
+  /** specific heat in kJ/(kg·K) */
+  heatingHeatCapacity: number | null;
+  /** thermal conductivity in W/(m·K) */
+  heatingConductivity: number | null;
+  /** b = −d ln η/dT in 1/K, or null: fitted across the temperatures of the data */
+  heatingTemperatureCoefficient: number | null;
+  /** temperature shift of the flow curves measured at several temperatures */
+  temperatureShift: "none" | "arrhenius" | "wlf";
+  /** reference temperature in °C, or null: the middle temperature of the data */
+  referenceTemperatureC: number | null;
+  /** draw every fitted model on the viscosity chart (false: the best model of each group) */
+  chartAllModels: boolean;
 }
 
 /** Models the pane offers: every isothermal model of the registry (Cross-WLF needs T per point). */
@@ -35,6 +63,19 @@ export const DEFAULT_PANE_SETTINGS: Readonly<PaneSettings> = Object.freeze({
   rabinowitschWindow: DEFAULT_RABINOWITSCH_OPTIONS.window,
   models: ["power-law", "cross", "carreau", "carreau-yasuda"] as ModelId[],
   transducerRangeBar: null,
+  transducerAccuracyPercent: 0.25,
+  representativeRate: false,
+  slip: false,
+  extensional: false,
+  pressureDependence: false,
+  heating: false,
+  heatingDensity: null,
+  heatingHeatCapacity: null,
+  heatingConductivity: null,
+  heatingTemperatureCoefficient: null,
+  temperatureShift: "none",
+  referenceTemperatureC: null,
+  chartAllModels: false,
 });
 
 /** The fields of the pane a message can be shown next to. */
@@ -48,6 +89,14 @@ export type FieldId =
   | "rabinowitschWindow"
   | "models"
   | "transducerRangeBar"
+  | "transducerAccuracyPercent"
+  | "checks"
+  | "heatingDensity"
+  | "heatingHeatCapacity"
+  | "heatingConductivity"
+  | "heatingTemperatureCoefficient"
+  | "temperatureShift"
+  | "referenceTemperatureC"
   | "run"
   | "share";
 
@@ -55,6 +104,7 @@ export type FieldId =
 export const SETTING_HELP = {
   endCorrection: {
     bagley: "Fits pressure against L/R over dies of one bore at each rate and removes the entrance loss (needs two or more die lengths).",
+    orifice: "Subtracts the pressure of an orifice die (L/D below 1) at the same rate from the longest die: one long die is enough.",
     none: "Uses the longest die as measured: quick, but the wall stress still includes the entrance loss and reads high.",
   },
   rabinowitschMethod: {
@@ -66,11 +116,25 @@ export const SETTING_HELP = {
   rabinowitschDegree: "Polynomial degree of the local (1–2) or global (1–3) slope fit.",
   rabinowitschWindow: "How many neighbouring points each local fit uses (odd, at least 3).",
   models: "Viscosity models fitted to each corrected flow curve; they are ranked by AIC (lower is better).",
-  transducerRangeBar: "Full scale of the pressure transducer; readings above it, or in its bottom 2 %, are flagged.",
+  transducerRangeBar: `Full scale of the pressure transducer; readings above it, or below ${DEFAULT_UNCERTAINTY_OPTIONS.minFractionOfFullScale * 100} % of it, are flagged, and the flow curve gets ± columns.`,
+  transducerAccuracyPercent: "Accuracy in % of full scale from the transducer's certificate; gives the ± columns (k = 2, about 95 %).",
+  representativeRate: "Schümmer cross-check: the apparent viscosity placed at π/4 of the apparent rate, compared with the Rabinowitsch result.",
+  slip: "Mooney wall-slip analysis: compares flow curves of two or more die bores at one temperature.",
+  extensional: "Cogswell estimate of the extensional viscosity and Trouton ratio from the entrance pressure.",
+  pressureDependence: "Fits the bend of the Bagley lines (three or more dies) to get the pressure coefficient of viscosity.",
+  heating: "Adiabatic temperature rise and Nahme number in the die, from the melt's density, specific heat and conductivity.",
+  heatingDensity: "Melt density at test temperature, g/cm³.",
+  heatingHeatCapacity: "Specific heat of the melt, kJ/(kg·K).",
+  heatingConductivity: "Thermal conductivity of the melt, W/(m·K).",
+  heatingTemperatureCoefficient: "b = −d ln η/dT in 1/K; leave empty to fit it across the temperatures of the data.",
+  temperatureShift: {
+    none: "No shift: each temperature is reported on its own.",
+    arrhenius: "Arrhenius shift aT = exp[(Ea/R)(1/T − 1/Tref)]: fits the activation energy Ea; suits melts well above Tg.",
+    wlf: "WLF shift log aT = −C1(T − Tref)/(C2 + T − Tref): fits C1 and C2; suits melts within about 100 K of Tg.",
+  },
+  referenceTemperatureC: "Temperature the flow curves are shifted to, in °C; leave empty for the middle temperature of the data.",
+  chartAllModels: "Draw every fitted model on the viscosity chart; off draws the best model (lowest AIC) of each group.",
 } as const;
-
-/** Readings below this fraction of the transducer's full scale are flagged (common practice, no source). */
-export const TRANSDUCER_LOW_FRACTION = 0.02;
 
 /** A message meant for one field of the pane. */
 export interface FieldError {
@@ -86,8 +150,8 @@ const METHODS: readonly RabinowitschMethod[] = ["transition", "local", "global",
  */
 export function validateSettings(s: PaneSettings): FieldError[] {
   const errors: FieldError[] = [];
-  if (s.endCorrection !== "bagley" && s.endCorrection !== "none") {
-    errors.push({ field: "endCorrection", message: `Choose Bagley or no end correction (got "${String(s.endCorrection)}").` });
+  if (s.endCorrection !== "bagley" && s.endCorrection !== "none" && s.endCorrection !== "orifice") {
+    errors.push({ field: "endCorrection", message: `Choose Bagley, orifice die or no end correction (got "${String(s.endCorrection)}").` });
   }
   if (!METHODS.includes(s.rabinowitschMethod)) {
     errors.push({ field: "rabinowitschMethod", message: `Unknown slope method "${String(s.rabinowitschMethod)}".` });
@@ -104,6 +168,26 @@ export function validateSettings(s: PaneSettings): FieldError[] {
   if (s.transducerRangeBar !== null && !(Number.isFinite(s.transducerRangeBar) && s.transducerRangeBar > 0)) {
     errors.push({ field: "transducerRangeBar", message: "Give the full scale as a number of bar greater than zero, or leave it empty." });
   }
+  if (s.transducerRangeBar !== null && !(s.transducerAccuracyPercent !== null && Number.isFinite(s.transducerAccuracyPercent) && s.transducerAccuracyPercent > 0 && s.transducerAccuracyPercent < 100)) {
+    errors.push({ field: "transducerAccuracyPercent", message: "Give the accuracy in % of full scale, above 0 and below 100 (for example 0.25)." });
+  }
+  if (s.heating) {
+    const need = (field: "heatingDensity" | "heatingHeatCapacity" | "heatingConductivity", what: string) => {
+      const v = s[field];
+      if (!(v !== null && Number.isFinite(v) && v > 0)) errors.push({ field, message: `The heating check needs the ${what} as a number greater than zero.` });
+    };
+    need("heatingDensity", "melt density in g/cm³ (for example 0.75)");
+    need("heatingHeatCapacity", "specific heat in kJ/(kg·K) (for example 2.1)");
+    need("heatingConductivity", "thermal conductivity in W/(m·K) (for example 0.18)");
+    const b = s.heatingTemperatureCoefficient;
+    if (b !== null && !(Number.isFinite(b) && b > 0)) errors.push({ field: "heatingTemperatureCoefficient", message: "Give b in 1/K as a number greater than zero, or leave it empty to fit it." });
+  }
+  if (!["none", "arrhenius", "wlf"].includes(s.temperatureShift)) {
+    errors.push({ field: "temperatureShift", message: `Unknown temperature shift "${String(s.temperatureShift)}".` });
+  }
+  if (s.referenceTemperatureC !== null && !(Number.isFinite(s.referenceTemperatureC) && s.referenceTemperatureC > -273.15)) {
+    errors.push({ field: "referenceTemperatureC", message: "Give the reference temperature in °C (above −273.15), or leave it empty." });
+  }
   return errors;
 }
 
@@ -112,12 +196,31 @@ export function usesDegree(method: RabinowitschMethod): boolean {
   return method === "local" || method === "global";
 }
 
-/** The core's reduce options for these settings. */
+/**
+ * The core's reduce options for these settings (display units converted to SI here, once).
+ * Call after {@link validateSettings}: it assumes valid values.
+ */
 export function reduceOptionsOf(s: PaneSettings): Partial<ReduceOptions> {
-  return {
+  const o: Partial<ReduceOptions> = {
     endCorrection: s.endCorrection,
     rabinowitsch: { method: s.rabinowitschMethod, degree: s.rabinowitschDegree, window: s.rabinowitschWindow },
   };
+  if (s.transducerRangeBar !== null && s.transducerAccuracyPercent !== null) {
+    o.transducer = { fullScale: toSI(s.transducerRangeBar, "bar", "pressure"), accuracy: s.transducerAccuracyPercent / 100 };
+  }
+  if (s.representativeRate) o.representativeRate = true;
+  if (s.slip) o.slip = true;
+  if (s.extensional) o.extensional = true;
+  if (s.pressureDependence) o.pressureDependence = true;
+  if (s.heating) {
+    o.heating = {
+      density: toSI(s.heatingDensity as number, "g/cm3", "density"),
+      heatCapacity: toSI(s.heatingHeatCapacity as number, "kJ/(kg.K)", "heatCapacity"),
+      conductivity: toSI(s.heatingConductivity as number, "W/(m.K)", "thermalConductivity"),
+    };
+    if (s.heatingTemperatureCoefficient !== null) o.heating.temperatureCoefficient = s.heatingTemperatureCoefficient;
+  }
+  return o;
 }
 
 /**
@@ -134,11 +237,29 @@ export function parseNumberField(text: string): number | null {
 /** Every setting as (label, value) lines for the method record. */
 export function describeSettings(s: PaneSettings): [string, string][] {
   return [
-    ["End correction", s.endCorrection === "bagley" ? "Bagley (pressure vs L/R per rate)" : "none (longest die as measured)"],
+    ["End correction", s.endCorrection === "bagley" ? "Bagley (pressure vs L/R per rate)" : s.endCorrection === "orifice" ? "orifice die (longest die minus the orifice die's pressure)" : "none (longest die as measured)"],
     ["Rabinowitsch slope method", s.rabinowitschMethod],
     ["Rabinowitsch polynomial degree", usesDegree(s.rabinowitschMethod) ? String(s.rabinowitschDegree) : "not used by this method"],
     ["Rabinowitsch local window (points)", s.rabinowitschMethod === "local" ? String(s.rabinowitschWindow) : "not used by this method"],
     ["Models fitted", s.models.length > 0 ? s.models.join(", ") : "none"],
     ["Transducer full scale", s.transducerRangeBar === null ? "not given" : `${s.transducerRangeBar} bar`],
+    ["Transducer accuracy", s.transducerRangeBar === null ? "not used (no full scale given)" : `${s.transducerAccuracyPercent} % of full scale (± columns with k = ${DEFAULT_UNCERTAINTY_OPTIONS.coverageFactor})`],
+    ["Schümmer cross-check", onOff(s.representativeRate)],
+    ["Wall slip (Mooney)", onOff(s.slip)],
+    ["Extensional viscosity (Cogswell)", onOff(s.extensional)],
+    ["Pressure dependence (curved Bagley lines)", onOff(s.pressureDependence)],
+    [
+      "Viscous heating",
+      s.heating
+        ? `on: density ${s.heatingDensity} g/cm3, specific heat ${s.heatingHeatCapacity} kJ/(kg.K), conductivity ${s.heatingConductivity} W/(m.K), b ${s.heatingTemperatureCoefficient === null ? "fitted across temperatures" : `${s.heatingTemperatureCoefficient} 1/K`}`
+        : "off",
+    ],
+    ["Temperature shift", s.temperatureShift === "none" ? "none" : s.temperatureShift === "arrhenius" ? "Arrhenius" : "WLF"],
+    ["Reference temperature", s.temperatureShift === "none" ? "not used" : s.referenceTemperatureC === null ? "middle temperature of the data" : `${s.referenceTemperatureC} °C`],
+    ["Viscosity chart", s.chartAllModels ? "every fitted model" : "best model (lowest AIC) per group"],
   ];
+}
+
+function onOff(v: boolean): string {
+  return v ? "on" : "off";
 }

@@ -52,12 +52,28 @@ export interface ChartSpec {
   anchor: { row: number; col: number; rows: number; cols: number };
 }
 
+/**
+ * A text rule of conditional formatting over one column of a block's data rows: cells whose text
+ * contains `text` (case-insensitive, as Excel compares) get the fill and font colours. Excel
+ * keeps the rule live; the preview applies the same test to the same cells.
+ */
+export interface ConditionalFormatSpec {
+  blockId: string;
+  column: number;
+  /** data rows [firstRow, firstRow + rowCount) of the block */
+  firstRow: number;
+  rowCount: number;
+  rules: { text: string; fill: string; font: string; tone: "pass" | "fail" | "caution" }[];
+}
+
 /** Everything written to one new sheet. */
 export interface SheetPlan {
   /** the sheet's name (made unique by the writer before the plan is built) */
   name: string;
   blocks: CellBlock[];
   charts: ChartSpec[];
+  /** conditional formats (pass/fail, range flags); none when absent */
+  conditionalFormats?: ConditionalFormatSpec[];
   /** column widths in characters, from column A */
   columnWidths: number[];
 }
@@ -130,4 +146,17 @@ export function blockGrid(block: CellBlock): CellValue[][] {
   if (block.header !== undefined) grid.push(pad(block.header));
   for (const r of block.rows) grid.push(pad(r));
   return grid;
+}
+
+/** A1 address of a conditional format's cells. */
+export function conditionalFormatAddress(plan: SheetPlan, cf: ConditionalFormatSpec): string {
+  const b = findBlock(plan, cf.blockId);
+  return a1(blockLayout(b).firstDataRow + cf.firstRow, b.col + cf.column, cf.rowCount, 1);
+}
+
+/** The first rule whose text the cell contains (case-insensitive), or null: what Excel would show. */
+export function matchingRule(cf: ConditionalFormatSpec, value: CellValue): ConditionalFormatSpec["rules"][number] | null {
+  if (value === null) return null;
+  const text = String(value).toLowerCase();
+  return cf.rules.find((r) => text.includes(r.text.toLowerCase())) ?? null;
 }

@@ -36,6 +36,8 @@ export interface FakeSheet {
   ranges: FakeRange[];
   charts: FakeChart[];
   notes: { address: string; text: string }[];
+  /** conditional formats added to ranges of this sheet: the range address, the type, and the format as set */
+  conditionalFormats: { address: string; type: string; format: { textComparison: { format: { fill: { color: string }; font: { color: string; bold: boolean } }; rule: { operator: string; text: string } | null } } }[];
   deleted: boolean;
   /** cells preset by the test (existing data), address → value */
   preset: Map<string, unknown>;
@@ -83,13 +85,26 @@ export class FakeExcel {
   /** Adds a sheet as if the user had it already, with optional used-range content. */
   addSheet(name: string, used?: { formulas: unknown[][]; values: unknown[][]; rowIndex: number; columnIndex: number }): FakeSheet {
     if (this.names().some((n) => n.toLowerCase() === name.toLowerCase())) throw new Error(`fake: A sheet named "${name}" already exists`);
-    const fake: FakeSheet = { initialName: name, mock: null, ranges: [], charts: [], notes: [], deleted: false, preset: new Map() };
+    const fake: FakeSheet = { initialName: name, mock: null, ranges: [], charts: [], notes: [], conditionalFormats: [], deleted: false, preset: new Map() };
     const self = this;
     const mock: Mock = this.track(
       new OfficeMockObject({
         name,
         getRange(address: string) {
-          const r: Mock = self.track(new OfficeMockObject({ address, select: () => undefined, format: { font: { bold: false, color: "", size: 11 }, fill: { color: "" }, columnWidth: 0, wrapText: false } }));
+          const r: Mock = self.track(
+            new OfficeMockObject({
+              address,
+              select: () => undefined,
+              format: { font: { bold: false, color: "", size: 11 }, fill: { color: "" }, columnWidth: 0, wrapText: false },
+              conditionalFormats: {
+                add: (type: string) => {
+                  const format = { textComparison: { format: { fill: { color: "" }, font: { color: "", bold: false } }, rule: null } };
+                  fake.conditionalFormats.push({ address, type, format });
+                  return format;
+                },
+              },
+            }),
+          );
           r.fakeAddress = address; // for the fake's own records; the code under test must load `address`
           fake.ranges.push({ sheet: FakeExcel.nameOf(fake), address, mock: r });
           return r;
