@@ -11,7 +11,7 @@
  *
  * What is measured (all data invented, generated from known laws with a fixed seed):
  *   1. fitModel("carreau-yasuda") on 40 points (2 % log-normal noise): the complete call (guesses,
- *      solve, bound test, statistics). When /usr/bin/python3 has scipy, scripts/bench_scipy.py
+ *      solve, statistics). When /usr/bin/python3 has scipy, scripts/bench_scipy.py
  *      fits the same points with the same residuals (ln η), coordinates (ln p), start and
  *      tolerances, and the ratio scipy/ours is printed; otherwise that line says why it is skipped.
  *   2. reduce() of 4 dies × 10 piston speeds (Bagley, Rabinowitsch "transition") and a
@@ -310,8 +310,8 @@ function main(): void {
   }
   notes.push(
     `fitModel: ${ours.iterations} solver iterations, stop "${ours.stopReason}", n = ${(ours.parameters.n as number).toFixed(4)} (generated with ${FIT_TRUTH.n}), ` +
-      `η∞ = ${(ours.parameters.etaInf as number).toPrecision(3)} Pa·s. It first solves with η∞ held on its bound 0 and, when the cost falls as η∞ leaves it (here), ` +
-      "solves again with all five parameters free; scipy is given the five-parameter problem once.",
+      `η∞ = ${(ours.parameters.etaInf as number).toPrecision(3)} Pa·s. One solver run with all five parameters free, η∞ in linear coordinates ` +
+      "kept ≥ 0 by projection (so it could stop on its bound 0); scipy is given the same five-parameter problem.",
   );
 
   // 2. reduction

@@ -11,8 +11,9 @@ The problem is the one fitModel("carreau-yasuda") solves: five parameters, resid
 r_i = ln eta_model - ln eta_i, parameters moved as u = ln p (as src/core/fit/transforms.ts does
 for parameters bounded below by 0), the same starting values (the model's own data-based guess,
 passed in), and tolerances equal to DEFAULT_FIT_OPTIONS (ftol 1e-12, xtol 1e-10, gtol 1e-10).
-fitModel first tries eta_inf on its bound 0 and frees it only when the cost falls as it leaves
-(two solves when it does); scipy is given the free problem directly. The model formula is coded
+fitModel moves eta_inf in linear coordinates kept >= 0 by projection (its bound 0 is admissible)
+and solves the five-parameter problem in one run; scipy is given the free problem directly (the
+optimum here is inside the bounds, so the coordinates do not change it). The model formula is coded
 here independently (Yasuda, Armstrong & Cohen 1981):
     eta = eta_inf + (eta0 - eta_inf) * (1 + (lambda*rate)^a)^((n-1)/a)
 Two variants are timed: MINPACK "lm" with the analytic Jacobian (the same information the

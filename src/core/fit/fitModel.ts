@@ -7,7 +7,7 @@ import { levenbergMarquardt, type StopReason } from "./levenbergMarquardt";
 import type { FitOptions, ResidualSpace } from "./options";
 import { originalJacobian, residualProblem } from "./residuals";
 import { resolveFitOptions, setupFit, type FitSetup } from "./setup";
-import { transformFor, type Transform } from "./transforms";
+import { boundedLinearTransform, transformFor, type Transform } from "./transforms";
 import { fitStatistics } from "./statistics";
 import { validateFitData, type FitData } from "./validate";
 
@@ -65,7 +65,7 @@ export function fitModel(model: string, data: FitData, options: Partial<FitOptio
   }
   const { freeIndex } = setup;
   const p = solved.p;
-  const jac = originalJacobian(def, setup, opts.residualSpace, p, freeIndex);
+  const jac = solved.atOptimum ?? originalJacobian(def, setup, opts.residualSpace, p, freeIndex);
   const observed = opts.residualSpace === "log" ? setup.logViscosity : setup.viscosity;
   const stats = fitStatistics(jac.jacobian, jac.residuals, observed, setup.weight, freeIndex.length, opts.confidenceLevel);
 
@@ -121,11 +121,19 @@ interface Solved {
   cost: number;
   /** Parameter indices left exactly on a physical bound (η∞ = 0, τy = 0). */
   atBound: number[];
+  /** originalJacobian at p over every free parameter, when the solver's last evaluation gives it. */
+  atOptimum?: ReturnType<typeof originalJacobian>;
 }
 
-/** Runs the solver over the free parameters in `freeIndex`, the others held at `base`. */
-function solve(def: ModelDefinition, setup: FitSetup, opts: FitOptions, freeIndex: readonly number[], base: Float64Array): Solved {
-  const transforms = freeIndex.map((j) => transformFor(def.parameters[j] as ParameterSpec));
+/**
+ * Runs the solver over the free parameters in `freeIndex`, the others held at `base`. Those in
+ * `linear` move in bounded linear coordinates (they can stop on their admissible bound).
+ */
+function solve(def: ModelDefinition, setup: FitSetup, opts: FitOptions, freeIndex: readonly number[], base: Float64Array, linear: readonly number[] = []): Solved {
+  const transforms = freeIndex.map((j) => {
+    const spec = def.parameters[j] as ParameterSpec;
+    return linear.includes(j) ? boundedLinearTransform(spec, (base[j] as number) - spec.min) : transformFor(spec);
+  });
   const problem = residualProblem(def, setup, opts.residualSpace, freeIndex, transforms, base);
   const u0 = freeIndex.map((j, f) => (transforms[f] as Transform).toFree(base[j] as number));
   const r = levenbergMarquardt(problem, u0, opts);
@@ -134,15 +142,58 @@ function solve(def: ModelDefinition, setup: FitSetup, opts: FitOptions, freeInde
   }
   const p = Float64Array.from(base);
   freeIndex.forEach((j, f) => (p[j] = (transforms[f] as Transform).fromFree(r.u[f] as number)));
-  return { p, iterations: r.iterations, converged: r.converged, stopReason: r.stopReason, cost: r.cost, atBound: [] };
+  const atBound = linear.filter((j) => p[j] === (def.parameters[j] as ParameterSpec).min);
+  const everyFree = freeIndex.length === setup.freeIndex.length && opts.residualSpace === "log";
+  const atOptimum = everyFree ? fromSolverJacobian(r.residuals, r.jacobian, freeIndex, transforms, r.u, p, setup.sqrtWeight) : undefined;
+  return { p, iterations: r.iterations, converged: r.converged, stopReason: r.stopReason, cost: r.cost, atBound, atOptimum };
 }
 
 /**
- * Parameters whose physical bound is itself admissible (η∞ = 0, τy = 0) are tried on the bound
- * first: the fit with them held there is the constrained optimum when the cost does not fall as
- * they leave it (∂SSR/∂p_j ≥ 0, the Karush–Kuhn–Tucker condition); only otherwise are they
- * freed. A log-coordinate solver would otherwise crawl towards 0 for ~100 iterations on melt
- * data that show no second plateau.
+ * The log-space originalJacobian at the solver's optimum, from its last Jacobian in u:
+ * ∂r_i/∂p_j = (∂r_i/∂u_j)/(dp_j/du_j), influence max_i |∂ln η_i/∂p_j·p_j| with ∂ln η_i/∂p_j = (∂r_i/∂p_j)/√w_i.
+ * Undefined when some dp/du is 0 or not finite (then it is recomputed from the model).
+ */
+function fromSolverJacobian(
+  residuals: Float64Array,
+  jacobianU: Float64Array,
+  freeIndex: readonly number[],
+  transforms: readonly Transform[],
+  u: Float64Array,
+  p: Float64Array,
+  sqrtWeight: Float64Array,
+): ReturnType<typeof originalJacobian> | undefined {
+  const k = freeIndex.length;
+  const n = residuals.length;
+  const dpdu = transforms.map((t, f) => t.derivative(u[f] as number));
+  if (!dpdu.every((d) => d > 0 && Number.isFinite(d))) return undefined;
+  const buffer = new Float64Array(n * k + k);
+  const jacobian = buffer.subarray(0, n * k);
+  const influence = buffer.subarray(n * k);
+  for (let i = 0; i < n; i++) {
+    const sw = sqrtWeight[i] as number;
+    for (let f = 0; f < k; f++) {
+      const v = (jacobianU[i * k + f] as number) / (dpdu[f] as number);
+      jacobian[i * k + f] = v;
+      influence[f] = Math.max(influence[f] as number, Math.abs((v / sw) * (p[freeIndex[f] as number] as number)));
+    }
+  }
+  return { residuals, jacobian, influence };
+}
+
+/**
+ * Parameters whose physical bound is itself admissible (η∞ = 0, τy = 0) may end on it: the
+ * constrained optimum there satisfies ∂SSR/∂p_j ≥ 0 (the Karush–Kuhn–Tucker condition).
+ *
+ * 1. When the model's gradient is finite on the bound (η∞ of Cross, Carreau, Carreau–Yasuda,
+ *    Sisko; τy of Bingham, Herschel–Bulkley), one run usually does it: those parameters move in
+ *    linear coordinates with the solver's projected active-set steps, so they can reach the bound
+ *    and leave it again. (In log coordinates the solver would crawl towards 0 for ~100 iterations
+ *    on melt data that show no second plateau.)
+ * 2. Otherwise (Casson: ∂ln η/∂τy is infinite at τy = 0), or when that run does not converge (few
+ *    points whose free optimum is a degenerate limit, η0 → ∞), they are held on the bound, and
+ *    freed (log coordinates, from the data-based guesses) only when the cost falls as they leave
+ *    it and the freed fit converges to a lower cost.
+ * The iterations of every run are added up.
  */
 function solveWithBounds(def: ModelDefinition, setup: FitSetup, opts: FitOptions): Solved {
   const { freeIndex, start } = setup;
@@ -151,11 +202,14 @@ function solveWithBounds(def: ModelDefinition, setup: FitSetup, opts: FitOptions
     return spec.minInclusive && opts.initial[spec.name] === undefined;
   });
   if (candidates.length === 0 || candidates.length === freeIndex.length) return solve(def, setup, opts, freeIndex, start);
+  const oneRun = finiteOnBound(def, setup, candidates) ? solve(def, setup, opts, freeIndex, start, candidates) : undefined;
+  if (oneRun?.converged) return oneRun;
 
   const onBound = Float64Array.from(start);
   for (const j of candidates) onBound[j] = (def.parameters[j] as ParameterSpec).min;
   const inner = solve(def, setup, opts, freeIndex.filter((j) => !candidates.includes(j)), onBound);
-  if (!inner.converged) return solve(def, setup, opts, freeIndex, start);
+  const spent = (oneRun?.iterations ?? 0) + inner.iterations;
+  if (!inner.converged) return oneRun ? { ...oneRun, iterations: spent } : solve(def, setup, opts, freeIndex, start);
 
   // Slope of the cost just inside the bound (a tiny step in from it avoids Casson's infinite slope at τy = 0).
   const probe = Float64Array.from(inner.p);
@@ -166,10 +220,19 @@ function solveWithBounds(def: ModelDefinition, setup: FitSetup, opts: FitOptions
     for (let i = 0; i < residuals.length; i++) slope += (residuals[i] as number) * (jacobian[i * candidates.length + c] as number);
     return slope < 0;
   });
-  if (leaving.length === 0) return { ...inner, atBound: candidates };
+  if (leaving.length === 0) return { ...inner, iterations: spent, atBound: candidates };
 
   // Restart from the data-based guesses: the bound-held optimum may be a degenerate limit.
   const full = solve(def, setup, opts, freeIndex, start);
-  const iterations = inner.iterations + full.iterations;
+  const iterations = spent + full.iterations;
   return full.converged && full.cost <= inner.cost ? { ...full, iterations } : { ...inner, iterations, atBound: candidates };
+}
+
+/** True when ln η and its gradient are finite at the first point with the `candidates` on their bounds. */
+function finiteOnBound(def: ModelDefinition, setup: FitSetup, candidates: readonly number[]): boolean {
+  const p = Float64Array.from(setup.start);
+  for (const j of candidates) p[j] = (def.parameters[j] as ParameterSpec).min;
+  const gradient = new Float64Array(p.length);
+  const lnEta = def.logGradient(p, setup.rates[0] as number, setup.temperature[0] as number, gradient);
+  return Number.isFinite(lnEta) && gradient.every(Number.isFinite);
 }

@@ -44,17 +44,18 @@ export function choleskySolveInPlace(l: Float64Array, k: number, b: Float64Array
  * (η0 ~ 1e4 Pa·s next to n ~ 0.3) do not make a well-posed problem look singular.
  */
 export function inverseSpd(a: Float64Array, k: number): Float64Array | undefined {
-  const scale = new Float64Array(k);
+  const buffer = new Float64Array(2 * k * k + 2 * k); // one store for the work arrays and the result
+  const scale = buffer.subarray(0, k);
+  const column = buffer.subarray(k, 2 * k);
+  const l = buffer.subarray(2 * k, 2 * k + k * k);
+  const inv = buffer.subarray(2 * k + k * k);
   for (let i = 0; i < k; i++) {
     const d = a[i * k + i] as number;
     if (!(d > 0)) return undefined;
     scale[i] = 1 / Math.sqrt(d);
   }
-  const l = new Float64Array(k * k);
   for (let i = 0; i < k; i++) for (let j = 0; j < k; j++) l[i * k + j] = (a[i * k + j] as number) * (scale[i] as number) * (scale[j] as number);
   if (!choleskyInPlace(l, k)) return undefined;
-  const inv = new Float64Array(k * k);
-  const column = new Float64Array(k);
   for (let j = 0; j < k; j++) {
     column.fill(0);
     column[j] = 1;
@@ -64,18 +65,20 @@ export function inverseSpd(a: Float64Array, k: number): Float64Array | undefined
   return inv;
 }
 
-/** Aᵀ·A (k×k) and Aᵀ·r (k) of a row-major m×k matrix A. */
+/**
+ * Aᵀ·A (k×k) and Aᵀ·r (k) of a row-major m×k matrix A. Each entry is one dot product summed in
+ * row order, kept in a local accumulator rather than read and written back per row.
+ */
 export function normalEquations(jac: Float64Array, r: Float64Array, m: number, k: number, ata: Float64Array, atr: Float64Array): void {
-  ata.fill(0);
-  atr.fill(0);
-  for (let i = 0; i < m; i++) {
-    const row = i * k;
-    const ri = r[i] as number;
-    for (let a = 0; a < k; a++) {
-      const ja = jac[row + a] as number;
-      atr[a] = (atr[a] as number) + ja * ri;
-      for (let b = 0; b <= a; b++) ata[a * k + b] = (ata[a * k + b] as number) + ja * (jac[row + b] as number);
+  for (let a = 0; a < k; a++) {
+    let sr = 0;
+    for (let i = 0; i < m; i++) sr += (jac[i * k + a] as number) * (r[i] as number);
+    atr[a] = sr;
+    for (let b = 0; b <= a; b++) {
+      let s = 0;
+      for (let i = 0; i < m; i++) s += (jac[i * k + a] as number) * (jac[i * k + b] as number);
+      ata[a * k + b] = s;
+      ata[b * k + a] = s;
     }
   }
-  for (let a = 0; a < k; a++) for (let b = 0; b < a; b++) ata[b * k + a] = ata[a * k + b] as number;
 }

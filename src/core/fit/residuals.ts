@@ -21,40 +21,54 @@ export function residualProblem(
   base: Float64Array,
 ): LeastSquaresProblem {
   const { rates, temperature, sqrtWeight, logViscosity, viscosity } = setup;
+  const n = rates.length;
   const k = freeIndex.length;
+  const columns = Int32Array.from(freeIndex);
   const p = Float64Array.from(base);
   const gradient = new Float64Array(def.parameters.length);
   const dpdu = new Float64Array(k);
+  const bounded = transforms.some((t) => t.lower > -Infinity);
+  const logSpace = space === "log";
   return {
-    residualCount: rates.length,
+    residualCount: n,
     parameterCount: k,
+    lowerBounds: bounded ? Float64Array.from(transforms, (t) => t.lower) : undefined,
     evaluate(u, residuals, jacobian) {
       for (let f = 0; f < k; f++) {
         const t = transforms[f] as Transform;
-        p[freeIndex[f] as number] = t.fromFree(u[f] as number);
+        p[columns[f] as number] = t.fromFree(u[f] as number);
         dpdu[f] = t.derivative(u[f] as number);
       }
-      for (let i = 0; i < rates.length; i++) {
+      if (!jacobian) {
+        for (let i = 0; i < n; i++) {
+          const lnEta = def.logViscosity(p, rates[i] as number, temperature[i] as number);
+          const v = logSpace ? lnEta - (logViscosity[i] as number) : Math.exp(lnEta) - (viscosity[i] as number);
+          const r = (sqrtWeight[i] as number) * v;
+          if (!Number.isFinite(r)) return false;
+          residuals[i] = r;
+        }
+        return true;
+      }
+      for (let i = 0; i < n; i++) {
         const sw = sqrtWeight[i] as number;
-        const lnEta = jacobian
-          ? def.logGradient(p, rates[i] as number, temperature[i] as number, gradient)
-          : def.logViscosity(p, rates[i] as number, temperature[i] as number);
+        const lnEta = def.logGradient(p, rates[i] as number, temperature[i] as number, gradient);
+        let r: number;
         let scale: number;
-        if (space === "log") {
-          residuals[i] = sw * (lnEta - (logViscosity[i] as number));
+        if (logSpace) {
+          r = sw * (lnEta - (logViscosity[i] as number));
           scale = sw;
         } else {
           const eta = Math.exp(lnEta);
-          residuals[i] = sw * (eta - (viscosity[i] as number));
+          r = sw * (eta - (viscosity[i] as number));
           scale = sw * eta;
         }
-        if (!Number.isFinite(residuals[i] as number)) return false;
-        if (jacobian) {
-          for (let f = 0; f < k; f++) {
-            const v = scale * (gradient[freeIndex[f] as number] as number) * (dpdu[f] as number);
-            if (!Number.isFinite(v)) return false;
-            jacobian[i * k + f] = v;
-          }
+        if (!Number.isFinite(r)) return false;
+        residuals[i] = r;
+        const row = i * k;
+        for (let f = 0; f < k; f++) {
+          const v = scale * (gradient[columns[f] as number] as number) * (dpdu[f] as number);
+          if (!Number.isFinite(v)) return false;
+          jacobian[row + f] = v;
         }
       }
       return true;
@@ -75,21 +89,31 @@ export function originalJacobian(
 ): { residuals: Float64Array; jacobian: Float64Array; influence: Float64Array } {
   const n = setup.rates.length;
   const k = columns.length;
-  const residuals = new Float64Array(n);
-  const jacobian = new Float64Array(n * k);
-  const influence = new Float64Array(k);
+  const buffer = new Float64Array(n + n * k + k); // one store for the three results
+  const residuals = buffer.subarray(0, n);
+  const jacobian = buffer.subarray(n, n + n * k);
+  const influence = buffer.subarray(n + n * k);
   const gradient = new Float64Array(def.parameters.length);
+  const { rates, temperature, sqrtWeight, logViscosity, viscosity } = setup;
+  const logSpace = space === "log";
   for (let i = 0; i < n; i++) {
-    const sw = setup.sqrtWeight[i] as number;
-    const lnEta = def.logGradient(p, setup.rates[i] as number, setup.temperature[i] as number, gradient);
-    const eta = Math.exp(lnEta);
-    residuals[i] = space === "log" ? sw * (lnEta - (setup.logViscosity[i] as number)) : sw * (eta - (setup.viscosity[i] as number));
-    const scale = space === "log" ? sw : sw * eta;
-    columns.forEach((j, c) => {
+    const sw = sqrtWeight[i] as number;
+    const lnEta = def.logGradient(p, rates[i] as number, temperature[i] as number, gradient);
+    let scale = sw;
+    if (logSpace) {
+      residuals[i] = sw * (lnEta - (logViscosity[i] as number));
+    } else {
+      const eta = Math.exp(lnEta);
+      residuals[i] = sw * (eta - (viscosity[i] as number));
+      scale = sw * eta;
+    }
+    const row = i * k;
+    for (let c = 0; c < k; c++) {
+      const j = columns[c] as number;
       const g = gradient[j] as number;
-      jacobian[i * k + c] = scale * g;
+      jacobian[row + c] = scale * g;
       influence[c] = Math.max(influence[c] as number, Math.abs(g * (p[j] as number)));
-    });
+    }
   }
   return { residuals, jacobian, influence };
 }

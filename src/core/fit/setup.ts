@@ -57,19 +57,30 @@ function stripUndefined<T extends object>(o: T): Partial<T> {
 /** Builds the free-parameter layout, start values and the weighted points. */
 export function setupFit(model: ModelDefinition, data: FitData, options: FitOptions): FitSetup {
   const warnings: Warning[] = [];
-  const keep = data.shearRate.map((_, i) => (data.weights ? (data.weights[i] as number) > 0 : true));
-  const pick = (a: readonly number[]) => Float64Array.from(a.filter((_, i) => keep[i]));
-  const rates = pick(data.shearRate);
-  const viscosity = pick(data.viscosity);
-  const weight = data.weights ? pick(data.weights) : new Float64Array(rates.length).fill(1);
+  const { weights } = data;
+  const pick = (a: readonly number[]): number[] => (weights ? a.filter((_, i) => (weights[i] as number) > 0) : a.slice());
+  const rateList = pick(data.shearRate);
+  const viscosityList = pick(data.viscosity);
+  const n = rateList.length;
+  // One store for the six per-point arrays (each above V8's 64-byte limit for on-heap typed arrays).
+  const buffer = new Float64Array(6 * n);
+  const column = (c: number) => buffer.subarray(c * n, (c + 1) * n);
+  const [rates, viscosity, logViscosity, weight, sqrtWeight, temperature] = [0, 1, 2, 3, 4, 5].map(column) as [Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array];
+  rates.set(rateList);
+  viscosity.set(viscosityList);
+  if (weights) weight.set(pick(weights));
+  else weight.fill(1);
 
-  let temperature: Float64Array;
   if (model.needsTemperature) {
     if (!data.temperature) throw new RheoError("missing", "temperature", `${model.id} needs one temperature (K) per point`);
-    temperature = pick(data.temperature);
+    temperature.set(pick(data.temperature));
   } else {
     if (data.temperature) warnings.push(warning("TEMPERATURE_IGNORED", `${model.id} does not depend on temperature; the temperature column was not used`));
-    temperature = new Float64Array(rates.length).fill(NaN);
+    temperature.fill(NaN);
+  }
+  for (let i = 0; i < n; i++) {
+    logViscosity[i] = Math.log(viscosity[i] as number);
+    sqrtWeight[i] = Math.sqrt(weight[i] as number);
   }
 
   const fixedValues: Record<string, number> = { ...model.defaultFixed };
@@ -88,15 +99,14 @@ export function setupFit(model: ModelDefinition, data: FitData, options: FitOpti
   }
   if (model.needsTemperature) checkTemperatureLevels(model, temperature, freeIndex);
 
-  const guessData = { shearRate: [...rates], viscosity: [...viscosity], temperature: [...temperature] };
+  const guessData = { shearRate: rateList, viscosity: viscosityList, temperature: model.needsTemperature ? Array.from(temperature) : undefined };
   const guess = model.initialGuess(guessData);
   const start = Float64Array.from(model.parameters, (spec, j) => {
     if (spec.name in fixedValues) return fixedValues[spec.name] as number;
     const given = options.initial[spec.name];
     return given !== undefined ? given : inside(guess[j] as number, spec.min, spec.max);
   });
-  const logViscosity = viscosity.map(Math.log);
-  return { start, freeIndex, fixedNames, rates, viscosity, logViscosity, temperature, weight, sqrtWeight: weight.map(Math.sqrt), warnings };
+  return { start, freeIndex, fixedNames, rates, viscosity, logViscosity, temperature, weight, sqrtWeight, warnings };
 }
 
 /** ln η0(T) of Cross-WLF takes one value per temperature: need as many levels as free T-parameters. */

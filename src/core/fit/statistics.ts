@@ -51,13 +51,14 @@ export function fitStatistics(
 
   const dof = n - p;
   const s2 = ssr / dof;
-  const jtj = new Float64Array(p * p);
-  const unused = new Float64Array(p);
+  const buffer = new Float64Array(p * p + 3 * p); // one store: JᵀJ, Jᵀr (unused), SE, half-widths
+  const jtj = buffer.subarray(0, p * p);
+  const unused = buffer.subarray(p * p, p * p + p);
+  const standardErrors = buffer.subarray(p * p + p, p * p + 2 * p).fill(NaN);
+  const halfWidths = buffer.subarray(p * p + 2 * p).fill(NaN);
   normalEquations(jacobian, residuals, n, p, jtj, unused);
   const inv = inverseSpd(jtj, p);
   const t = tQuantile((1 + confidenceLevel) / 2, dof);
-  const standardErrors = new Float64Array(p).fill(NaN);
-  const halfWidths = new Float64Array(p).fill(NaN);
   if (inv) {
     for (let j = 0; j < p; j++) {
       standardErrors[j] = Math.sqrt(s2 * (inv[j * p + j] as number));

@@ -1,10 +1,11 @@
 /**
- * Maps between a model parameter p and the unconstrained variable u the solver moves, so that
- * every trial point is physical without clipping:
+ * Maps between a model parameter p and the variable u the solver moves, so that every trial
+ * point is physical without clipping:
  *   - lower bound only:  p = min + e^u          (log; the usual case min = 0)
  *   - both bounds:       p = min + (max − min)/(1 + e^−u)   (logistic)
- * A bound that is physical itself (η∞ = 0, τy = 0) is approached but never reached; a fit that
- * runs onto it is reported with a warning.
+ * A bound that is physical itself (η∞ = 0, τy = 0) is unreachable in these coordinates; for such
+ * a parameter {@link boundedLinearTransform} moves p = min + s·u with the solver bound u ≥ 0, so
+ * the fit can stop on the bound (and leave it) in one run.
  */
 import type { ParameterSpec } from "../models";
 
@@ -13,6 +14,8 @@ export interface Transform {
   fromFree(u: number): number;
   /** dp/du at u. */
   derivative(u: number): number;
+  /** Lower bound on u the solver must respect (−Infinity when the map keeps p inside by itself). */
+  readonly lower: number;
 }
 
 /** The transform for a parameter's bounds. */
@@ -27,11 +30,27 @@ export function transformFor(spec: ParameterSpec): Transform {
         const s = 1 / (1 + Math.exp(-u));
         return width * s * (1 - s);
       },
+      lower: -Infinity,
     };
   }
   return {
     toFree: (p) => Math.log(p - min),
     fromFree: (u) => min + Math.exp(u),
     derivative: (u) => Math.exp(u),
+    lower: -Infinity,
+  };
+}
+
+/**
+ * p = min + scale·u with u ≥ 0, for a parameter whose lower bound is admissible (η∞ = 0, τy = 0).
+ * `scale` (> 0, the parameter's SI unit) keeps u of order one: the starting value is a good choice.
+ */
+export function boundedLinearTransform(spec: ParameterSpec, scale: number): Transform {
+  const { min } = spec;
+  return {
+    toFree: (p) => (p - min) / scale,
+    fromFree: (u) => min + scale * u,
+    derivative: () => scale,
+    lower: 0,
   };
 }

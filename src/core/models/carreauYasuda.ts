@@ -3,7 +3,6 @@
  * (Yasuda, Armstrong & Cohen, Rheol. Acta 20 (1981) 163). With a = 2 it is the Carreau model.
  */
 import { highRateIndex, inside, plateauViscosity, rateAtViscosity } from "./guess";
-import { sigmoid, softplus } from "./numerics";
 import { ETA0, ETA_INF, LAMBDA, N_INDEX, parameter } from "./parameterSpec";
 import type { GuessData, ModelDefinition } from "./types";
 
@@ -22,11 +21,14 @@ export function carreauYasudaLog(
   withA = true,
 ): number {
   const lnX = Math.log(lambda * rate);
-  const lnB = softplus(a * lnX); // ln(1 + (λγ̇)^a)
+  const x = a * lnX;
+  // ln(1 + (λγ̇)^a) and (λγ̇)^a/(1 + (λγ̇)^a) share e^−|x|: the same values as softplus(x) and sigmoid(x).
+  const e = Math.exp(-Math.abs(x));
+  const lnB = (x > 0 ? x : 0) + Math.log1p(e);
   const f = Math.exp(((n - 1) / a) * lnB); // [1 + (λγ̇)^a]^((n−1)/a)
   const eta = etaInf + (eta0 - etaInf) * f;
   if (out) {
-    const q = sigmoid(a * lnX); // z/(1 + z)
+    const q = x >= 0 ? 1 / (1 + e) : e / (1 + e);
     const scale = ((eta0 - etaInf) * f) / eta;
     out[0] = f / eta;
     out[1] = (1 - f) / eta;

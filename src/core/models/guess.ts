@@ -27,8 +27,19 @@ export function lineFit(x: readonly number[], y: readonly number[], from = 0, to
   return { slope, intercept: my - slope * mx };
 }
 
-/** The points as (ln γ̇, ln η) sorted by rate. */
+/** logPoints of the data objects seen (the guesses of one model ask for them several times). */
+const LOG_POINTS = new WeakMap<GuessData, { x: number[]; y: number[] }>();
+
+/** The points as (ln γ̇, ln η) sorted by rate (the arrays are shared: do not modify them). */
 export function logPoints(data: GuessData): { x: number[]; y: number[] } {
+  const seen = LOG_POINTS.get(data);
+  if (seen && seen.x.length === data.shearRate.length) return seen;
+  const points = sortedLogPoints(data);
+  LOG_POINTS.set(data, points);
+  return points;
+}
+
+function sortedLogPoints(data: GuessData): { x: number[]; y: number[] } {
   const order = data.shearRate.map((_, i) => i).sort((a, b) => (data.shearRate[a] as number) - (data.shearRate[b] as number));
   return {
     x: order.map((i) => Math.log(data.shearRate[i] as number)),
