@@ -14,7 +14,7 @@
  * {@link DEFAULT_PLANNER_OPTIONS}.endCorrection.
  */
 import { RheoError, requireNonNegative, requirePositive } from "./errors";
-import { apparentRateFromWallRate } from "./forwardFlow";
+import { apparentRateFromWallRate, DEFAULT_INVERSION_BRACKET, invertApparentRate } from "./forwardFlow";
 import { flowRateForApparentShearRate } from "./capillary";
 import { apparentSlitRateFromWallRate, flowRateForApparentSlitShearRate } from "./slitFlow";
 import type { ViscosityFunction } from "./priorViscosity";
@@ -78,7 +78,7 @@ export function validatePlanDie(die: PlanDie, argument = "dies"): PlanDie {
   return die;
 }
 
-/** Relative accuracy of the wall-rate inversion (on γ̇_a). */
+/** Relative accuracy of the wall-rate inversion (on γ̇_a): enough for planning. */
 const INVERSION_TOLERANCE = 1e-9;
 
 /**
@@ -87,45 +87,6 @@ const INVERSION_TOLERANCE = 1e-9;
  * law; the finite-difference slope, not the panels, limits the accuracy), four times faster.
  */
 const PANELS = 16;
-
-/**
- * True wall rate giving the apparent rate `target` through the flow integral `forward`: root of
- * ln forward(e^x) − ln target on x ∈ [ln 0.5·target, ln 10·target] by the Illinois variant of
- * regula falsi (Dowell & Jarratt 1971), about ten integrals where bisection needs sixty. A root
- * outside the bracket is an error, never clipped to the bracket's edge.
- */
-function invertApparentRate(forward: (eta: ViscosityFunction, wall: number, panels: number) => number, viscosity: ViscosityFunction, target: number, die: PlanDie): number {
-  const f = (x: number) => Math.log(forward(viscosity, Math.exp(x), PANELS) / target);
-  let a = Math.log(0.5 * target);
-  let b = Math.log(10 * target);
-  let fa = f(a);
-  let fb = f(b);
-  if (!(fa <= 0 && fb >= 0)) {
-    throw new RheoError(
-      "convergence",
-      "viscosity",
-      `at ${target.toPrecision(4)} 1/s in die "${die.name}" the true wall rate lies outside 0.5–10 × the apparent rate (a very strong yield stress or thickening?); this prior cannot be planned with`,
-    );
-  }
-  let side = 0;
-  for (let i = 0; i < 100; i++) {
-    const c = (a * fb - b * fa) / (fb - fa);
-    const fc = f(c);
-    if (Math.abs(fc) <= INVERSION_TOLERANCE || b - a <= 1e-14) return Math.exp(c);
-    if (fc < 0) {
-      a = c;
-      fa = fc;
-      if (side === -1) fb /= 2;
-      side = -1;
-    } else {
-      b = c;
-      fb = fc;
-      if (side === 1) fa /= 2;
-      side = 1;
-    }
-  }
-  throw new RheoError("convergence", "viscosity", `the wall rate at ${target.toPrecision(4)} 1/s in die "${die.name}" did not converge`);
-}
 
 /**
  * What a liquid of viscosity η(γ̇) does in `die` at a rate: on the apparent-rate basis (the
@@ -152,7 +113,11 @@ export function dieFlowPoint(
   let wall: number;
   if (basis === "apparent") {
     apparent = rate;
-    wall = invertApparentRate(forward, viscosity, rate, die);
+    wall = invertApparentRate((w) => forward(viscosity, w, PANELS), rate, DEFAULT_INVERSION_BRACKET, {
+      tolerance: INVERSION_TOLERANCE,
+      where: ` in die "${die.name}"`,
+      consequence: "; this prior cannot be planned with",
+    });
   } else {
     wall = rate;
     apparent = forward(viscosity, wall, PANELS);

@@ -134,11 +134,11 @@ export function applyGroupMethods(
 }
 
 /**
- * b = −d ln η/dT at each temperature of the reduction, from an Arrhenius fit of the groups'
- * viscosity curves (core/temperature/fitShift.ts). Needs two or more temperatures.
- * @returns a map from group temperature (K) to b (1/K), or null when it cannot be fitted
+ * The corrected viscosity points (γ̇_w in 1/s, η in Pa·s; positive ones only) of every group with
+ * a temperature, gathered into one curve per temperature (K), in the order the temperatures first
+ * appear; curves without a usable point are left out. The input of the temperature-shift fits.
  */
-export function fittedTemperatureCoefficients(groups: ReductionGroup[]): Map<number, number> | null {
+export function groupCurvesByTemperature(groups: readonly ReductionGroup[]): TemperatureCurve[] {
   const byT = new Map<number, { shearRate: number[]; viscosity: number[] }>();
   for (const g of groups) {
     if (g.temperature === null) continue;
@@ -151,7 +151,16 @@ export function fittedTemperatureCoefficients(groups: ReductionGroup[]): Map<num
     }
     byT.set(g.temperature, c);
   }
-  const curves: TemperatureCurve[] = [...byT.entries()].filter(([, c]) => c.shearRate.length >= 2).map(([temperature, c]) => ({ temperature, ...c }));
+  return [...byT.entries()].filter(([, c]) => c.shearRate.length > 0).map(([temperature, c]) => ({ temperature, ...c }));
+}
+
+/**
+ * b = −d ln η/dT at each temperature of the reduction, from an Arrhenius fit of the groups'
+ * viscosity curves (core/temperature/fitShift.ts). Needs two or more temperatures.
+ * @returns a map from group temperature (K) to b (1/K), or null when it cannot be fitted
+ */
+export function fittedTemperatureCoefficients(groups: ReductionGroup[]): Map<number, number> | null {
+  const curves = groupCurvesByTemperature(groups).filter((c) => c.shearRate.length >= 2);
   if (curves.length < 2) return null;
   const temps = curves.map((c) => c.temperature).sort((a, b) => a - b);
   const reference = temps[temps.length >> 1] as number;

@@ -8,8 +8,8 @@
  *
  * Newtonian: γ̇_a = γ̇_w; power law: γ̇_w = γ̇_a(2n+1)/(3n). Round-die twin: forwardFlow.ts.
  */
-import { RheoError, requireNonNegative, requirePositive } from "./errors";
-import { integrateLogPanels } from "./forwardFlow";
+import { requireNonNegative, requirePositive } from "./errors";
+import { invertApparentRate, wallStressMoment } from "./forwardFlow";
 
 /**
  * Apparent slit shear rate: γ̇_a = 6Q/(WH²).
@@ -41,34 +41,16 @@ export function flowRateForApparentSlitShearRate(shearRateApparent: number, slit
  * @example apparentSlitRateFromWallRate(() => 10, 100) // 100 (Newtonian)
  */
 export function apparentSlitRateFromWallRate(viscosity: (rate: number) => number, wallRate: number, panels = 60): number {
-  if (!(wallRate > 0) || !Number.isFinite(wallRate)) {
-    throw new RheoError("domain", "wallRate", `must be greater than zero, got ${wallRate}`);
-  }
-  const stress = (g: number) => viscosity(g) * g;
-  const slope = (g: number) => {
-    const h = g * 1e-6;
-    return (stress(g + h) - stress(g - h)) / (2 * h);
-  };
-  const tauW = stress(wallRate);
-  const integral = integrateLogPanels((g) => stress(g) * g * slope(g), wallRate, panels);
-  return (3 / tauW ** 2) * integral;
+  const { integral, wallStress } = wallStressMoment(viscosity, wallRate, 1, panels);
+  return (3 / wallStress ** 2) * integral;
 }
 
 /**
  * True wall rate at which the liquid gives the apparent slit rate `apparentRate` (inverse of
- * {@link apparentSlitRateFromWallRate}, bisection in ln γ̇ over γ̇_w/γ̇_a in (0.5, 10)).
+ * {@link apparentSlitRateFromWallRate} by {@link invertApparentRate} over γ̇_w/γ̇_a in (0.5, 10)).
  * @returns γ̇_w in 1/s
+ * @throws RheoError("convergence") when γ̇_w/γ̇_a lies outside (0.5, 10)
  */
 export function wallRateFromApparentSlitRate(viscosity: (rate: number) => number, apparentRate: number): number {
-  if (!(apparentRate > 0) || !Number.isFinite(apparentRate)) {
-    throw new RheoError("domain", "apparentRate", `must be greater than zero, got ${apparentRate}`);
-  }
-  let lo = Math.log(apparentRate * 0.5);
-  let hi = Math.log(apparentRate * 10);
-  for (let i = 0; i < 60; i++) {
-    const mid = (lo + hi) / 2;
-    if (apparentSlitRateFromWallRate(viscosity, Math.exp(mid)) < apparentRate) lo = mid;
-    else hi = mid;
-  }
-  return Math.exp((lo + hi) / 2);
+  return invertApparentRate((wall) => apparentSlitRateFromWallRate(viscosity, wall), apparentRate);
 }

@@ -188,13 +188,21 @@ export async function writeWorkbookPlan(
       return names;
     });
   } catch (error) {
-    try {
-      await deleteSheets(run, created);
-    } catch (cleanup) {
-      throw new Error(`${error instanceof Error ? error.message : String(error)} (and the new sheets ${created.join(", ")} could not be removed: ${cleanup instanceof Error ? cleanup.message : String(cleanup)}; delete them by hand)`);
-    }
-    throw error;
+    return removeCreatedAndRethrow(run, created, error, "sheets", "them");
   }
+}
+
+/**
+ * After a failed write: deletes the sheets it `created` (in a batch of their own) and rethrows
+ * `error`; when the deletion fails too, throws one error naming both and the sheets left behind.
+ */
+async function removeCreatedAndRethrow(run: ExcelBatch, created: readonly string[], error: unknown, noun: "sheet" | "sheets", pronoun: "it" | "them"): Promise<never> {
+  try {
+    await deleteSheets(run, created);
+  } catch (cleanup) {
+    throw new Error(`${error instanceof Error ? error.message : String(error)} (and the new ${noun} ${created.join(", ")} could not be removed: ${cleanup instanceof Error ? cleanup.message : String(cleanup)}; delete ${pronoun} by hand)`);
+  }
+  throw error;
 }
 
 /**
@@ -228,11 +236,6 @@ export async function writeNewSheet(run: ExcelBatch, base: string, makePlan: (na
       return name;
     });
   } catch (error) {
-    try {
-      await deleteSheets(run, created);
-    } catch (cleanup) {
-      throw new Error(`${error instanceof Error ? error.message : String(error)} (and the new sheet ${created.join(", ")} could not be removed: ${cleanup instanceof Error ? cleanup.message : String(cleanup)}; delete it by hand)`);
-    }
-    throw error;
+    return removeCreatedAndRethrow(run, created, error, "sheet", "it");
   }
 }

@@ -6,6 +6,7 @@
 import { RheoError } from "../core/errors";
 import type { ReductionGroup } from "../core/reduce";
 import { fitArrheniusShift, fitWlfShift, masterCurve, type ArrheniusShiftFit, type MasterCurve, type ShiftLaw, type TemperatureCurve, type WlfShiftFit } from "../core/temperature";
+import { groupCurvesByTemperature } from "../core/reduceMethods";
 import { toSI } from "../core/units";
 
 /** The shift of one run: the fit, the law with its constants, and the master curve. */
@@ -19,19 +20,7 @@ export interface ShiftOutput {
 
 /** The corrected viscosity points of every group, one curve per temperature (K), sorted by T. */
 export function curvesByTemperature(groups: readonly ReductionGroup[]): TemperatureCurve[] {
-  const byT = new Map<number, { shearRate: number[]; viscosity: number[] }>();
-  for (const g of groups) {
-    if (g.temperature === null) continue;
-    const c = byT.get(g.temperature) ?? { shearRate: [], viscosity: [] };
-    for (const f of g.flowCurve) {
-      if (f.shearRateWall !== null && f.viscosity !== null && f.shearRateWall > 0 && f.viscosity > 0) {
-        c.shearRate.push(f.shearRateWall);
-        c.viscosity.push(f.viscosity);
-      }
-    }
-    byT.set(g.temperature, c);
-  }
-  return [...byT.entries()].filter(([, c]) => c.shearRate.length > 0).sort((a, b) => a[0] - b[0]).map(([temperature, c]) => ({ temperature, ...c }));
+  return groupCurvesByTemperature(groups).sort((a, b) => a.temperature - b.temperature);
 }
 
 /**
