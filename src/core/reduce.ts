@@ -16,151 +16,32 @@
  */
 import { RheoError, Warning, warning } from "./errors";
 import { apparentShearRate, apparentWallShearStress } from "./capillary";
-import { BagleyOptions, BagleyRow, bagleyCorrection } from "./bagley";
-import { RabinowitschOptions, rabinowitschCorrection } from "./rabinowitsch";
+import { BagleyRow, bagleyCorrection } from "./bagley";
+import { rabinowitschCorrection } from "./rabinowitsch";
 import { slitWallShearStress, slitWarnings } from "./slit";
 import { apparentSlitShearRate } from "./slitFlow";
 import { DEFAULT_ORIFICE_OPTIONS, OrificeOptions, compareEntrancePressures, orificeCorrection } from "./orifice";
 import { interpolateLogLog } from "./interpolate";
 import { bagleyStressUncertainty } from "./uncertainty";
-import { MeltFlowResult, meltFlowPoint } from "./meltFlowRate";
+import { meltFlowPoint } from "./meltFlowRate";
 import {
   CurveSource,
-  DEFAULT_METHOD_OPTIONS,
-  GroupMethodResults,
-  MethodOptions,
-  SlipResultRow,
   applyGroupMethods,
   fittedTemperatureCoefficients,
   slipAcrossGroups,
 } from "./reduceMethods";
+import {
+  DEFAULT_REDUCE_OPTIONS,
+  EntrancePressureRow,
+  FlowCurveRow,
+  Measurement,
+  PointRow,
+  ReduceOptions,
+  ReductionGroup,
+  ReductionResult,
+} from "./reduceTypes";
 
-/** One raw measurement, SI. */
-export interface Measurement {
-  /** die bore D, m (round dies; omitted for a slit) */
-  dieDiameter?: number;
-  /** slit width W, m (slit dies, with slitHeight; then no dieDiameter) */
-  slitWidth?: number;
-  /** slit height (gap) H, m */
-  slitHeight?: number;
-  /** die land length L, m */
-  dieLength: number;
-  /** volumetric flow rate Q, m³/s */
-  flowRate: number;
-  /** measured pressure drop ΔP (includes entrance and exit losses), Pa */
-  pressure: number;
-  /** melt temperature, K (optional; points without one form their own group) */
-  temperature?: number;
-  /** the source row (1-based), carried into error messages */
-  row?: number;
-}
-
-/** Options of {@link reduce}. */
-export interface ReduceOptions extends MethodOptions {
-  /**
-   * "bagley": end correction across die lengths (needs ≥ 2 lengths); "none": apparent stress of the
-   * longest die; "orifice": the longest die minus an orifice die's pressure at the same rate
-   */
-  endCorrection: "bagley" | "none" | "orifice";
-  /** which dies count as orifice dies, and when the two entrance pressures disagree */
-  orifice: Partial<OrificeOptions>;
-  /** a melt-flow-rate result to place as an apparent point: MVR (m³/s) or MFR (kg/s) with density, load (kg) */
-  meltFlowRate: { volumeRate?: number; massRate?: number; density?: number; load: number } | null;
-  bagley: Partial<BagleyOptions>;
-  rabinowitsch: Partial<RabinowitschOptions>;
-  /** temperatures closer than this (K) form one group */
-  temperatureTolerance: number;
-  /** diameters closer than this relative difference count as one diameter */
-  diameterTolerance: number;
-}
-
-/** Defaults of {@link ReduceOptions}. */
-export const DEFAULT_REDUCE_OPTIONS: Readonly<ReduceOptions> = Object.freeze({
-  endCorrection: "bagley",
-  bagley: {},
-  rabinowitsch: {},
-  temperatureTolerance: 0.5,
-  diameterTolerance: 0.005,
-  orifice: {},
-  meltFlowRate: null,
-  ...DEFAULT_METHOD_OPTIONS,
-});
-
-/** A raw point with its apparent quantities. */
-export interface PointRow {
-  row: number;
-  /** D, m (NaN for a slit) */
-  dieDiameter: number;
-  /** slit W and H, m (slits only) */
-  slitWidth?: number;
-  slitHeight?: number;
-  dieLength: number;
-  flowRate: number;
-  pressure: number;
-  /** γ̇_a, 1/s */
-  shearRateApparent: number;
-  /** τ_w,app = ΔP·D/(4L) (ΔP·H/(2L) for a slit), Pa */
-  wallShearStressApparent: number;
-}
-
-/** One point of the corrected flow curve. */
-export interface FlowCurveRow {
-  /** γ̇_a, 1/s */
-  shearRateApparent: number;
-  /** end-corrected τ_w, Pa */
-  wallShearStress: number;
-  /** d ln τ_w / d ln γ̇_a */
-  nPrime: number;
-  /** true wall shear rate γ̇_w, 1/s (null where n' ≤ 0) */
-  shearRateWall: number | null;
-  /** η = τ_w/γ̇_w, Pa·s (null where γ̇_w is) */
-  viscosity: number | null;
-  /** η_a = τ_w/γ̇_a, Pa·s */
-  viscosityApparent: number;
-}
-
-/** The reduction of one temperature and die diameter. */
-export interface ReductionGroup extends GroupMethodResults {
-  /** K, or null when the data carry no temperature */
-  temperature: number | null;
-  /** m (NaN for a slit group: see slitWidth and slitHeight) */
-  dieDiameter: number;
-  /** "round" or "slit" */
-  geometry: "round" | "slit";
-  /** slit W and H, m (slit groups only) */
-  slitWidth?: number;
-  slitHeight?: number;
-  /** lengthOverRadius is L/R for round dies and L/H for slits; orifice marks an orifice die */
-  dies: { dieLength: number; lengthOverRadius: number; label: string; points: number; orifice?: boolean }[];
-  /** both entrance-pressure estimates side by side, when the group has an orifice die */
-  entrancePressures?: EntrancePressureRow[];
-  points: PointRow[];
-  bagley: BagleyRow[];
-  flowCurve: FlowCurveRow[];
-  warnings: Warning[];
-}
-
-/** The Bagley and orifice estimates of the entrance pressure at one apparent rate, Pa. */
-export interface EntrancePressureRow {
-  shearRateApparent: number;
-  /** Bagley intercept, or null where no Bagley line exists at this rate */
-  entrancePressure: number | null;
-  /** orifice die's pressure at this rate (interpolated log–log), or null outside its range */
-  entrancePressureOrifice: number | null;
-  /** (Bagley − orifice)/orifice, or null */
-  difference: number | null;
-}
-
-/** Result of {@link reduce}. */
-export interface ReductionResult {
-  groups: ReductionGroup[];
-  /** Mooney slip rows (option `slip`), one set per temperature with two or more diameters */
-  slip?: SlipResultRow[];
-  /** the melt-flow-rate point (option `meltFlowRate`) */
-  meltFlowRate?: MeltFlowResult;
-  /** every group's warnings, each prefixed with its group */
-  warnings: Warning[];
-}
+export * from "./reduceTypes";
 
 function checkMeasurement(m: Measurement, index: number): number {
   const row = m.row ?? index + 1;
