@@ -9,7 +9,7 @@
  */
 import { RheoError, Warning, warning } from "./errors";
 import { fitLine } from "./regression";
-import { interpolateLogLog } from "./interpolate";
+import { geometricMean, interpolateLogLog } from "./interpolate";
 
 /** One measured point of one die, SI. */
 export interface BagleyPoint {
@@ -88,7 +88,7 @@ function commonRates(allRates: number[], tolerance: number): number[] {
     if (current && r <= (current[0] as number) * (1 + tolerance)) current.push(r);
     else clusters.push([r]);
   }
-  return clusters.map((c) => Math.exp(c.reduce((s, v) => s + Math.log(v), 0) / c.length));
+  return clusters.map(geometricMean);
 }
 
 function groupByDie(points: BagleyPoint[]): DieSeries[] {

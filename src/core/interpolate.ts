@@ -34,3 +34,14 @@ export function interpolateLogLog(xs: number[], ys: number[], x: number): number
   }
   return undefined;
 }
+
+/**
+ * Geometric mean of positive values; exactly the common value when all are equal (so repeated
+ * identical readings keep their printed digits).
+ * @example geometricMean([10, 1000]) // 100
+ */
+export function geometricMean(values: readonly number[]): number {
+  const first = values[0] as number;
+  if (values.every((v) => v === first)) return first;
+  return Math.exp(values.reduce((s, v) => s + Math.log(v), 0) / values.length);
+}

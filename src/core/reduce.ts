@@ -21,7 +21,7 @@ import { rabinowitschCorrection } from "./rabinowitsch";
 import { slitWallShearStress, slitWarnings } from "./slit";
 import { apparentSlitShearRate } from "./slitFlow";
 import { DEFAULT_ORIFICE_OPTIONS, OrificeOptions, compareEntrancePressures, orificeCorrection } from "./orifice";
-import { interpolateLogLog } from "./interpolate";
+import { geometricMean, interpolateLogLog } from "./interpolate";
 import { bagleyStressUncertainty } from "./uncertainty";
 import { meltFlowPoint } from "./meltFlowRate";
 import {
@@ -100,7 +100,7 @@ function reduceGroup(
   slit?: { width: number; height: number },
 ): { group: ReductionGroup; sources: CurveSource[] } {
   const geometry = slit ? "slit" : "round";
-  const dieDiameter = slit ? NaN : Math.exp(points.reduce((s, p) => s + Math.log(p.dieDiameter), 0) / points.length);
+  const dieDiameter = slit ? NaN : geometricMean(points.map((p) => p.dieDiameter));
   const label = groupLabel(temperature, dieDiameter, slit);
   // x of the Bagley plot: L/R for round dies, L/H for slits (ΔP = ΔP_ent + 2τ_w·x in both).
   const xOf = (length: number) => (slit ? length / slit.height : (2 * length) / dieDiameter);
@@ -294,14 +294,14 @@ export function reduce(measurements: Measurement[], options: Partial<ReduceOptio
   const close = (a: number, b: number) => Math.abs(a - b) <= opt.diameterTolerance * a;
   for (const tg of tGroups) {
     const temps = tg.map((p) => p.temperature).filter((t): t is number => t !== null);
-    const temperature = temps.length ? temps.reduce((s, t) => s + t, 0) / temps.length : null;
+    const temperature = temps.length === 0 ? null : temps.every((t) => t === temps[0]) ? (temps[0] as number) : temps.reduce((s, t) => s + t, 0) / temps.length;
     const round = tg.filter((p) => p.slitWidth === undefined);
     for (const dg of cluster(round, (p) => p.dieDiameter, close)) {
       reduced.push(reduceGroup(dg, temperature, opt));
     }
     for (const wg of cluster(tg.filter((p) => p.slitWidth !== undefined), (p) => p.slitWidth as number, close)) {
       for (const hg of cluster(wg, (p) => p.slitHeight as number, close)) {
-        const mean = (f: (p: PointRow) => number) => Math.exp(hg.reduce((s, p) => s + Math.log(f(p)), 0) / hg.length);
+        const mean = (f: (p: PointRow) => number) => geometricMean(hg.map(f));
         reduced.push(reduceGroup(hg, temperature, opt, { width: mean((p) => p.slitWidth as number), height: mean((p) => p.slitHeight as number) }));
       }
     }
