@@ -115,10 +115,10 @@ export function readRawTable(cells: unknown[][], options: Partial<RawTableOption
     throw new RheoError("missing", "flow_rate", `no flow column: give flow_rate, or piston_speed with barrel_diameter, or mass_rate with density`);
   }
   if (flowSource === "piston_speed" && !byName.has("barrel_diameter") && opt.barrelDiameter === undefined) {
-    throw new RheoError("missing", "barrel_diameter", `piston_speed needs the barrel bore: add a "barrel_diameter [mm]" column`);
+    throw new RheoError("missing", "barrel_diameter", `piston_speed needs the barrel bore: add a "barrel_diameter [mm]" column, or give the bore on its own (--barrel-diameter on the command line, the barrelDiameter argument of RHEO.REDUCE)`);
   }
   if (flowSource === "mass_rate" && !byName.has("density") && opt.density === undefined) {
-    throw new RheoError("missing", "density", `mass_rate needs the melt density: add a "density [g/cm3]" column`);
+    throw new RheoError("missing", "density", `mass_rate needs the melt density: add a "density [g/cm3]" column, or give it on its own (--density on the command line, the density argument of RHEO.REDUCE)`);
   }
   const used: ColumnName[] = [...required, flowSource];
   if (flowSource === "piston_speed" && byName.has("barrel_diameter")) used.push("barrel_diameter");
