@@ -89,7 +89,7 @@ describe("bad files exit non-zero with the line and column, and print nothing el
   test("missing file", async () => {
     const { code, stderr } = await run(["reduce", "no-such-file.csv"]);
     expect(code).toBe(1);
-    expect(stderr).toMatch(/cannot read no-such-file.csv/);
+    expect(stderr).toMatch(/^rheoledger: no-such-file.csv: cannot be read: /);
   });
   test("unknown command and no arguments", async () => {
     expect((await run(["squash"])).code).toBe(2);

@@ -17,7 +17,7 @@ import { readParameters } from "../io/planOptions";
 import { lotComparisonTable, lotVerdictTable } from "../io/planTables";
 import { parseArgs, splitQuantity, type FlagSpec } from "./args";
 import { num, table } from "./format";
-import type { CliIO } from "./main";
+import { CliIO, readInputFile } from "./io";
 import { warningsText } from "./planCommand";
 
 export const COMPARE_FLAGS: Record<string, FlagSpec> = {
@@ -48,13 +48,7 @@ ${Object.entries(COMPARE_FLAGS)
 `;
 
 function readCurve(io: CliIO, file: string, argument: string) {
-  let text: string;
-  try {
-    text = io.readFile(file);
-  } catch (e) {
-    throw new RheoError("value", file, `cannot be read: ${(e as Error).message}`);
-  }
-  const csv = parseCsv(text);
+  const csv = parseCsv(readInputFile(io, file));
   return readFlowCurveTable(
     csv.lines.map((l) => l.cells),
     { argument, rowWord: "line", rowNumbers: csv.lines.map((l) => l.line), decimalComma: csv.decimalComma },

@@ -5,18 +5,13 @@
  */
 import { RheoError } from "../core/errors";
 import { parseArgs } from "./args";
+import { CliIO, readInputFile } from "./io";
 import { REDUCE_FLAGS, runReduce } from "./reduceCommand";
 import { writeResultsFile } from "./resultsFile";
 import { runPlanCommand } from "./planCommand";
 import { runCompareCommand } from "./compareCommand";
 
-export interface CliIO {
-  readFile(path: string): string;
-  stdout(text: string): void;
-  stderr(text: string): void;
-  /** writes a binary file (creating its folder); needed by `reduce --out` */
-  writeFile?(path: string, data: Uint8Array): void;
-}
+export type { CliIO } from "./io";
 
 const USAGE = `rheoledger — capillary-rheometer data reduction
 
@@ -55,14 +50,7 @@ export function main(argv: string[], io: CliIO): number | Promise<number> {
       io.stderr(`rheoledger reduce: give exactly one CSV file\n\n${USAGE}`);
       return 2;
     }
-    let text: string;
-    try {
-      text = io.readFile(file);
-    } catch (e) {
-      io.stderr(`rheoledger: cannot read ${file}: ${(e as Error).message}\n`);
-      return 1;
-    }
-    const out = runReduce(text, args);
+    const out = runReduce(readInputFile(io, file), args);
     const outPath = args.flags.get("out");
     if (typeof outPath === "string") return writeResultsFile(out, file, outPath, io, args.flags.has("json"));
     io.stdout(out.stdout);

@@ -9,7 +9,7 @@ import { readPlanOptions } from "../io/planOptions";
 import { planStepTable, planSummaryTable, type SheetTable } from "../io/planTables";
 import { parseArgs, type FlagSpec } from "./args";
 import { num, table } from "./format";
-import type { CliIO } from "./main";
+import { CliIO, readInputFile } from "./io";
 
 export const PLAN_FLAGS: Record<string, FlagSpec> = {
   json: { value: false, description: "print one JSON document in SI units instead of tables" },
@@ -109,13 +109,7 @@ export function runPlanCommand(argv: string[], io: CliIO): number {
     io.stderr(`rheoledger plan: give exactly one options file\n\n${PLAN_USAGE}`);
     return 2;
   }
-  let text: string;
-  try {
-    text = io.readFile(file);
-  } catch (e) {
-    io.stderr(`rheoledger: cannot read ${file}: ${(e as Error).message}\n`);
-    return 1;
-  }
+  const text = readInputFile(io, file);
   let raw: unknown;
   try {
     raw = JSON.parse(text);

@@ -4,7 +4,7 @@
  * so this path of main() returns a Promise of the exit code.
  */
 import { resultsWorkbookBytes } from "../io/resultsWorkbook";
-import type { CliIO } from "./main";
+import type { CliIO } from "./io";
 import type { CommandOutput } from "./reduceCommand";
 
 /** Writes the workbook, then the command's standard output and a note of where the file went. */
