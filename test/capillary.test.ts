@@ -76,5 +76,9 @@ describe("end-corrected wall stress (Bagley 1957)", () => {
     expect(() => apparentShearRate(1e-8, 0)).toThrow(RheoError);
     expect(() => viscosityFromStressAndRate(1, 0)).toThrow("shearRate: must be greater than zero, got 0");
     expect(() => wallShearStressFromEndCorrection(1e6, -50, 1e-3, 10e-3)).toThrow(/endCorrection: must be greater than zero/);
+    expect(() => correctedWallShearStress(1e6, 2e6, 1e-3, 10e-3)).toThrow(
+      "entrancePressure: (2000000 Pa) is not below the measured pressure (1000000 Pa): no pressure is left for the die land",
+    );
+    expect(() => correctedWallShearStress(1e6, NaN, 1e-3, 10e-3)).toThrow("entrancePressure: must be a finite number, got NaN");
   });
 });

@@ -4,7 +4,7 @@
  * Reference: Macosko, Rheology: Principles, Measurements and Applications (1994), ch. 6;
  * ISO 11443 (capillary and slit-die rheometry of plastics).
  */
-import { requireNonNegative, requirePositive } from "./errors";
+import { RheoError, requireFinite, requireNonNegative, requirePositive } from "./errors";
 
 /**
  * Apparent (Newtonian) wall shear rate: γ̇_a = 4Q/(πR³) = 32Q/(πD³).
@@ -40,10 +40,15 @@ export function flowRateForApparentShearRate(shearRateApparent: number, dieDiame
  * @example apparentWallShearStress(1e7, 1e-3, 20e-3) // 1.25e5 Pa
  */
 export function apparentWallShearStress(pressure: number, dieDiameter: number, dieLength: number): number {
+  requireDie(pressure, dieDiameter, dieLength);
+  return (pressure * dieDiameter) / (4 * dieLength);
+}
+
+/** Checks a pressure (≥ 0) and a die's diameter and length (> 0). */
+function requireDie(pressure: number, dieDiameter: number, dieLength: number): void {
   requireNonNegative(pressure, "pressure");
   requirePositive(dieDiameter, "dieDiameter");
   requirePositive(dieLength, "dieLength");
-  return (pressure * dieDiameter) / (4 * dieLength);
 }
 
 /**
@@ -60,11 +65,10 @@ export function correctedWallShearStress(
   dieDiameter: number,
   dieLength: number,
 ): number {
-  requireNonNegative(pressure, "pressure");
-  requirePositive(dieDiameter, "dieDiameter");
-  requirePositive(dieLength, "dieLength");
-  if (!Number.isFinite(entrancePressure)) {
-    requireNonNegative(entrancePressure, "entrancePressure");
+  requireDie(pressure, dieDiameter, dieLength);
+  requireFinite(entrancePressure, "entrancePressure");
+  if (pressure - entrancePressure <= 0) {
+    throw new RheoError("domain", "entrancePressure", `(${entrancePressure} Pa) is not below the measured pressure (${pressure} Pa): no pressure is left for the die land`);
   }
   return ((pressure - entrancePressure) * dieDiameter) / (4 * dieLength);
 }
@@ -81,9 +85,7 @@ export function wallShearStressFromEndCorrection(
   dieDiameter: number,
   dieLength: number,
 ): number {
-  requireNonNegative(pressure, "pressure");
-  requirePositive(dieDiameter, "dieDiameter");
-  requirePositive(dieLength, "dieLength");
+  requireDie(pressure, dieDiameter, dieLength);
   const lOverR = (2 * dieLength) / dieDiameter;
   if (!Number.isFinite(endCorrection) || lOverR + endCorrection <= 0) {
     requirePositive(lOverR + endCorrection, "endCorrection");
