@@ -15,7 +15,11 @@ import ExcelJS from "exceljs";
 import { CREAM_YIELD, creamYieldRows } from "./demo/creamYield";
 import { FILM_GRADE, filmGradeRows } from "./demo/filmGrade";
 import { PASTE_SLIP, pasteSlipRows } from "./demo/pasteSlip";
-import { Arg, Grid, RangeArg, SheetCall, rheo } from "./workbooks/sheetCall";
+import { Arg, RangeArg, rheo } from "./workbooks/sheetCall";
+import { columnArg, header, label, placeArray, rangeRef, referenceCell } from "./workbooks/sheetLayout";
+import { AnalysisBlocks, FILM_FIT_FIXED, FILM_FIT_MODEL, YIELD_MODELS, shiftBlocks, slipBlocks, yieldBlocks } from "./workbooks/analysisBlocks";
+
+export { columnLetter, rangeRef } from "./workbooks/sheetLayout";
 
 export const RAW_SHEET = "Raw data";
 export const FORMULA_SHEET = "Formulas";
@@ -40,6 +44,8 @@ export interface WorkbookSpec {
   stressUnit: string;
   /** orifice block: data rows of one long die and of the orifice die at the same speeds */
   orifice?: { longFirst: number; orificeFirst: number; count: number; longLabel: string };
+  /** the blocks after RHEO.REDUCE that show what the scenario is for (scripts/workbooks/analysisBlocks.ts) */
+  analysis: AnalysisBlocks;
   notes: string[];
 }
 
@@ -57,7 +63,9 @@ const COMMON_NOTES = [
   "3. Corrected flow curve: RHEO.NPRIME, RHEO.SHEARRATEWALL and RHEO.VISCOSITY apply the Rabinowitsch correction to the Bagley-corrected stress.",
 ];
 
-const REDUCE_NOTE = "Last block. One-call reduction: RHEO.REDUCE reads the raw table with its header and returns the flow curve of every temperature and die diameter, with the warnings listed below it.";
+function reduceNote(block: number): string {
+  return `${block}. One-call reduction: RHEO.REDUCE reads the raw table with its header and returns the flow curve of every temperature and die diameter, with the warnings listed below it. The blocks after it read its columns.`;
+}
 
 function filmSpec(): WorkbookSpec {
   const p = FILM_GRADE;
@@ -74,6 +82,7 @@ function filmSpec(): WorkbookSpec {
     pressureUnit: "bar",
     stressUnit: "kPa",
     orifice: { longFirst: perTemperature + n, orificeFirst: perTemperature * p.temperaturesC.length + n, count: n, longLabel: "L = 20 mm" },
+    analysis: shiftBlocks({ referenceTemperatureC: p.referenceTemperature - 273.15, activationEnergy: p.activationEnergy }),
     notes: [
       "Scenario: the made-up Quillfen Films QC lab checks the made-up low-density film grade QF-207 at 190, 210 and 230 °C in a capillary rheometer with a 15 mm barrel, three long dies of 1 mm bore (L = 10, 20, 30 mm) and an orifice die (L = 0.25 mm), at nine piston speeds from 0.6 to 120 mm/min.",
       `Model used to generate the data: Carreau-Yasuda viscosity with eta0 = ${p.eta0} Pa.s at 210 °C, lambda = ${p.lambda} s, a = ${p.a}, n = ${p.n}; Arrhenius temperature shift with E = ${p.activationEnergy / 1e3} kJ/mol; wall stress from the exact capillary flow integral; entrance loss 2 tau_w e with e = 2 + 1.5 log10(apparent rate); ${p.pressureNoise * 100} % Gaussian noise on every pressure (seed ${p.seed}).`,
@@ -81,8 +90,15 @@ function filmSpec(): WorkbookSpec {
       "",
       ...COMMON_NOTES,
       "4. Orifice die: the orifice die (L/D = 0.25) measures the entrance pressure almost directly. RHEO.WALLSTRESS subtracts it from the 20 mm die's pressure; the result agrees with the Bagley stress to within a few percent (the orifice's own short land adds a little pressure drop, and both carry the noise).",
-      REDUCE_NOTE,
+      reduceNote(5),
+      `6. Temperature shift: RHEO.SHIFTFIT reads the REDUCE columns temperature, shear_rate_wall and viscosity of all three temperatures and fits one Arrhenius activation energy that lays the 190 and 230 °C curves onto the ${p.referenceTemperature - 273.15} °C curve (eta(rate, T) = aT eta_ref(aT rate)); it spills Ea in J/mol with its standard error, then aT per temperature. The cells beside it show Ea in kJ/mol and the ${p.activationEnergy / 1e3} kJ/mol the data were generated with.`,
+      `7. Model fit: RHEO.FIT fits the ${FILM_FIT_MODEL} model (${FILM_FIT_FIXED}: held at zero, the data reach no upper plateau) to the ${p.referenceTemperature - 273.15} °C corrected flow curve of block 3 and spills each parameter with its standard error and 95 % interval, then R², RMSE (in ln eta), AIC, points and whether it converged.`,
+      "8. Extensional flow: RHEO.COGSWELL turns the Bagley entrance pressure of block 2 (with the wall rate, viscosity and n' of block 3) into Cogswell's tensile stress, extension rate, extensional viscosity and Trouton ratio. The entrance loss in this invented data set comes from a made-up law (e above), so these numbers show how the function is used, not a property of a real melt.",
+      "",
       "What to look for: e rises with rate (the entrance loss grows faster than the wall stress); n' is about 0.43 at the lowest rate and falls towards 0.36 as the melt shear-thins; the true wall rate is about 1.3 to 1.4 times the apparent one, so the true viscosity is below the apparent viscosity; the three temperatures give parallel curves (the Arrhenius shift).",
+      `Block 6: Ea comes out within 1 % of the generating ${p.activationEnergy / 1e3} kJ/mol, inside one standard error (about 0.8 kJ/mol); aT is about 1.80 at 190 °C and 0.58 at 230 °C (the generating law gives exp[(E/R)(1/T - 1/Tref)] = 1.81 and 0.58).`,
+      `Block 7: the fitted curve follows the data to about 0.6 % (RMSE in ln eta), yet eta0 and lambda carry standard errors of 13 % and 25 %: the lowest wall rate (about 24 1/s) already lies deep in the shear-thinning region (lambda rate is about 14 with the generating lambda = ${p.lambda} s), so the data pin the slope m (near 1 - n = ${(1 - p.n).toFixed(2)}) well and the zero-shear plateau poorly. The Cross eta0 is not the generating Carreau-Yasuda eta0 (${p.eta0} Pa.s): the two models bend differently, so compare curves, not parameters; widen the rate range downwards (slower speeds or a wider die) to pin eta0.`,
+      "Block 8: the extension rate is about a tenth of the wall shear rate, the extensional viscosity falls with rate more slowly than the shear viscosity, and the Trouton ratio (30 to 110) lies far above 3, the value of a Newtonian liquid.",
     ],
   };
 }
@@ -100,14 +116,19 @@ function pasteSpec(): WorkbookSpec {
     group: { temperatureC: p.temperatureC, diameterMm: 1 },
     pressureUnit: "bar",
     stressUnit: "kPa",
+    analysis: slipBlocks({ velocityMmS: p.slipReferenceVelocity * 1e3, stress: p.slipReferenceStress / 1e3, exponent: p.slipExponent, K: p.K, n: p.n }),
     notes: [
       `Scenario: the made-up Ostrelwick Ceramics development lab extrudes the made-up highly filled paste CP-12 at ${p.temperatureC} °C through dies of 0.5, 1 and 2 mm bore, each at L/D = 8 and 16, from a 15 mm barrel at seven piston speeds from 1 to 64 mm/min.`,
       `Model used to generate the data: power-law bulk viscosity eta = K rate^(n-1) with K = ${p.K} Pa.s^n, n = ${p.n}; wall slip velocity v_s = beta tau_w^m with m = ${p.slipExponent} and beta set so that v_s = ${p.slipReferenceVelocity * 1e3} mm/s at tau_w = ${p.slipReferenceStress / 1e3} kPa; Mooney relation apparent rate = apparent rate without slip (exact flow integral) + 8 v_s / D; entrance correction e = 4 + log10(apparent rate); ${p.pressureNoise * 100} % Gaussian noise on every pressure (seed ${p.seed}).`,
       "",
       ...COMMON_NOTES,
-      REDUCE_NOTE,
+      reduceNote(4),
       "With two die lengths per bore the Bagley line has no check of straightness, so RHEO.REDUCE lists a BAGLEY_FEW_DIES warning for each bore.",
-      "What to look for: RHEO.REDUCE returns one flow curve per die diameter. Without slip they would fall on one curve; here, at the same wall stress, the smaller die shows the higher apparent rate (slip adds 8 v_s / D, which grows as D shrinks). The Mooney analysis (apparent rate against 1/R at fixed stress) separates slip from bulk flow; it is not yet a RHEO function.",
+      "5. Mooney wall-slip analysis: RHEO.SLIPVELOCITY reads the REDUCE columns die_diameter, shear_rate_apparent and wall_shear_stress (the Bagley-corrected stress of each bore). At eight wall stresses spread over the range every bore covers, it reads each bore's apparent rate (log-log interpolation) and fits the Mooney line apparent rate = corrected rate + 4 v_s / R: the slope gives the slip velocity v_s, the intercept the slip-free apparent rate, which then goes through the Rabinowitsch correction to the true wall rate and viscosity (the slip-corrected flow curve).",
+      `The two columns beside it are plain Excel formulas restating the laws the data were generated with, for comparison: v_s = beta tau_w^m written as ${p.slipReferenceVelocity * 1e3} mm/s x (tau_w / ${p.slipReferenceStress / 1e3} kPa)^${p.slipExponent}, and the bulk viscosity K rate^(n-1) = ${p.K} x rate^(${p.n} - 1) at the corrected wall rate.`,
+      "",
+      "What to look for: RHEO.REDUCE returns one flow curve per die diameter. Without slip they would fall on one curve; here, at the same wall stress, the smaller die shows the higher apparent rate (slip adds 8 v_s / D, which grows as D shrinks). The Mooney analysis (apparent rate against 1/R at fixed stress) separates slip from bulk flow.",
+      "Block 5: the slip velocity rises steeply with stress, and the slip-corrected viscosity lies 3 to 5 % below the generating bulk law, whereas the three bores' own flow curves (block 4) disagree: at the same wall stress the 0.5 mm bore shows a higher apparent rate than the 2 mm bore. The slip velocity itself comes out 10 to 45 % above the generating law: with two die lengths per bore and 1 % noise on each pressure, each Bagley stress scatters by about 3 %; at a fixed stress an apparent rate varies as about the third power of the stress, so each bore's rate scatters by about 8 %, and the slope of a Mooney line through three bores carries about 30 %. The bores overlap only between about 45 and 51 kPa (the same piston speeds give apparent rates 8 times apart from bore to bore), so the analysis sees only that stress range. To measure slip better: run each bore at speeds that give the same apparent rates, use three die lengths, or add a fourth bore.",
     ],
   };
 }
@@ -125,86 +146,27 @@ function creamSpec(): WorkbookSpec {
     group: { temperatureC: p.temperatureC, diameterMm: 2 },
     pressureUnit: "kPa",
     stressUnit: "Pa",
+    analysis: yieldBlocks({ tauY: p.tauY, K: p.K, n: p.n }),
     notes: [
       `Scenario: the made-up Brindlecote Foods pilot lab pushes the made-up savoury spread Velmora at ${p.temperatureC} °C through three dies of 2 mm bore (L = 20, 40, 60 mm) from a 20 mm barrel at nine piston speeds from 0.5 to 200 mm/min. Pressures are small, so they are recorded in kPa.`,
       `Model used to generate the data: Herschel-Bulkley liquid tau = tau_y + K rate^n with tau_y = ${p.tauY} Pa, K = ${p.K} Pa.s^n, n = ${p.n}; apparent rate from the exact capillary flow integral (the unsheared plug in the die centre included); entrance correction e = 1.5 + 0.5 log10(apparent rate); ${p.pressureNoise * 100} % Gaussian noise on every pressure (seed ${p.seed}).`,
       "",
       ...COMMON_NOTES,
-      REDUCE_NOTE,
-      "What to look for: the wall stress levels off towards the yield stress (60 Pa) at low rates, so n' is small there and the Rabinowitsch factor (3n'+1)/(4n') is large: the true wall rate is up to about twice the apparent one. A Herschel-Bulkley fit to the corrected curve should return parameters near the ones above.",
+      reduceNote(4),
+      "5. Herschel-Bulkley fit: RHEO.FIT fits tau = tau_y + K rate^n (as viscosity tau/rate) to the REDUCE columns shear_rate_wall and viscosity, and spills tauY, K and n in SI units with standard errors and 95 % intervals, then R², RMSE (in ln eta), AIC, points and convergence. The column beside it gives the values the data were generated with.",
+      `6. Model comparison: RHEO.COMPAREFITS fits ${YIELD_MODELS} to the same curve and ranks them by AIC (lower is better), with the Akaike weight (the relative support for each model within this set).`,
+      "7. The fitted model at the data rates: RHEO.MODEL evaluates the Herschel-Bulkley model with the parameters of block 5 (it reads the fit's spill directly) at each wall rate; the deviation column is fitted / measured - 1 in percent, and the last column is the generating law tau_y/rate + K rate^(n-1) as a plain Excel formula.",
+      "",
+      `What to look for: the wall stress levels off towards the yield stress (${p.tauY} Pa) at low rates, so n' is small there and the Rabinowitsch factor (3n'+1)/(4n') is large: the true wall rate is up to about twice the apparent one.`,
+      `Block 5: the fit returns tau_y, K and n within about one standard error of the generating ${p.tauY} Pa, ${p.K} Pa.s^n and ${p.n}; K and tau_y are correlated (a slightly higher yield stress goes with a slightly lower K). Block 6: Herschel-Bulkley wins by a wide AIC margin (Akaike weight near 1); the power law misses the yield stress, Bingham the curvature (n = 1), Casson fixes n at 1/2 in the square-root law. Block 7: the fitted viscosity stays within about 1.5 % of the data and about 1 % of the generating law over the whole rate range.`,
     ],
   };
 }
 
 export const WORKBOOK_SPECS: WorkbookSpec[] = [filmSpec(), pasteSpec(), creamSpec()];
 
-// ---------- cell addresses ----------
-
-export function columnLetter(col: number): string {
-  let s = "";
-  for (let c = col; c > 0; c = Math.floor((c - 1) / 26)) s = String.fromCharCode(65 + ((c - 1) % 26)) + s;
-  return s;
-}
-
-function sheetPrefix(sheet: string): string {
-  return /^[A-Za-z_][A-Za-z0-9_]*$/.test(sheet) ? `${sheet}!` : `'${sheet.replace(/'/g, "''")}'!`;
-}
-
-/** "A1" or "'Raw data'!A1:A9" (rows and columns 1-based). */
-export function rangeRef(sheet: string | null, row: number, col: number, rowEnd = row, colEnd = col): string {
-  const a = `${columnLetter(col)}${row}`;
-  const b = `${columnLetter(colEnd)}${rowEnd}`;
-  return (sheet ? sheetPrefix(sheet) : "") + (a === b ? a : `${a}:${b}`);
-}
-
-// ---------- writing ----------
-
-function cached(value: unknown): number | string {
-  if (typeof value === "number" || typeof value === "string") return value;
-  if (typeof value === "boolean") return value ? 1 : 0;
-  throw new Error(`cannot cache ${String(value)}`);
-}
-
-/** Writes `call` as an array formula with its top-left cell at (row, col); returns its size. */
-function placeArray(ws: ExcelJS.Worksheet, row: number, col: number, call: SheetCall): { rows: number; cols: number } {
-  const rows = call.result.length;
-  const cols = Math.max(...call.result.map((r) => r.length));
-  const ref = rangeRef(null, row, col, row + rows - 1, col + cols - 1);
-  // exceljs supports the shareType argument ("array") but its typings omit it
-  const fill = ws.fillFormula as unknown as (range: string, formula: string, results: (r: number, c: number) => number | string, shareType: "array") => void;
-  fill.call(ws, ref, call.formula, (r, c) => cached(call.result[r - row]?.[c - col] ?? ""), "array");
-  return { rows, cols };
-}
-
-/** The values of a one-column slice of a grid, as a range argument at the given sheet cells. */
-function columnArg(sheet: string | null, grid: Grid, col: number, firstRow: number, gridCol: number, fromGridRow: number, count: number): RangeArg {
-  return {
-    ref: rangeRef(sheet, firstRow, col, firstRow + count - 1, col),
-    values: grid.slice(fromGridRow, fromGridRow + count).map((r) => [r[gridCol]]),
-  };
-}
-
 function numericRows(rows: string[][]): (number | string)[][] {
   return rows.map((r, i) => (i === 0 ? r : r.map((c) => Number(c))));
-}
-
-function header(ws: ExcelJS.Worksheet, row: number, col: number, names: string[]): void {
-  names.forEach((n, i) => {
-    const cell = ws.getCell(row, col + i);
-    cell.value = n;
-    cell.font = { bold: true };
-  });
-}
-
-function label(ws: ExcelJS.Worksheet, row: number, text: string): void {
-  const cell = ws.getCell(row, 1);
-  cell.value = text;
-  cell.font = { bold: true, size: 12 };
-}
-
-/** A plain reference formula (="'Raw data'!C29") with its cached value. */
-function referenceCell(ws: ExcelJS.Worksheet, row: number, col: number, ref: string, value: unknown): void {
-  ws.getCell(row, col).value = { formula: ref, result: cached(value) } as ExcelJS.CellFormulaValue;
 }
 
 /** Builds the workbook of one scenario from its raw rows (header first). */
@@ -283,9 +245,12 @@ export function buildDemoWorkbook(spec: WorkbookSpec, rows: string[][]): ExcelJS
   }
   const curveRate = columnArg(null, bagleyRate.values, 1, curveTop, 0, 0, lines);
   const curveStress = columnArg(null, bagleyStress.values, 2, curveTop, 0, 0, lines);
-  placeArray(ws, curveTop, 3, rheo("nPrime", [curveRate, curveStress, "transition", 2]));
-  placeArray(ws, curveTop, 4, rheo("shearRateWall", [curveRate, curveStress, "transition", 2]));
-  placeArray(ws, curveTop, 5, rheo("viscosity", [curveRate, curveStress, "transition", 2, S, "Pa.s"]));
+  const nPrime = rheo("nPrime", [curveRate, curveStress, "transition", 2]);
+  placeArray(ws, curveTop, 3, nPrime);
+  const wallRate = rheo("shearRateWall", [curveRate, curveStress, "transition", 2]);
+  placeArray(ws, curveTop, 4, wallRate);
+  const viscosity = rheo("viscosity", [curveRate, curveStress, "transition", 2, S, "Pa.s"]);
+  placeArray(ws, curveTop, 5, viscosity);
   row = curveTop + lines + 1;
 
   // 4. orifice die
@@ -309,13 +274,27 @@ export function buildDemoWorkbook(spec: WorkbookSpec, rows: string[][]): ExcelJS
   }
 
   // last: one-call reduction
-  label(ws, row, `${spec.orifice ? 5 : 4}. One-call reduction of the raw table (RHEO.REDUCE)`);
+  const reduceBlock = spec.orifice ? 5 : 4;
+  label(ws, row, `${reduceBlock}. One-call reduction of the raw table (RHEO.REDUCE)`);
   const whole: RangeArg = {
     ref: rangeRef(RAW_SHEET, 1, 1, spec.reduceRowCount + 1, cols.length),
     values: data.slice(0, spec.reduceRowCount + 1),
   };
   const reduceArgs: Arg[] = [whole, "bagley", "transition", 2, S, "Pa.s", null, null, true];
-  placeArray(ws, row + 1, 1, rheo("reduceData", reduceArgs));
+  const reduced = rheo("reduceData", reduceArgs);
+  const reducedSize = placeArray(ws, row + 1, 1, reduced);
+
+  // then what the scenario is for
+  spec.analysis({
+    ws,
+    row: row + 1 + reducedSize.rows + 1,
+    block: reduceBlock + 1,
+    stressUnit: S,
+    pressureUnit: P,
+    reduce: { top: row + 1, result: reduced.result },
+    bagley: { top: bagleyTop, result: bagley.result },
+    curve: { top: curveTop, lines, nPrime: nPrime.result, shearRateWall: wallRate.result, viscosity: viscosity.result },
+  });
 
   const notes = wb.addWorksheet(NOTES_SHEET);
   notes.getColumn(1).width = 140;

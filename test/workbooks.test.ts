@@ -13,10 +13,18 @@ import path from "node:path";
 import ExcelJS from "exceljs";
 import { HyperFormula } from "hyperformula";
 import { apparentWallShearStress, correctedWallShearStress } from "../src/core/capillary";
+import { fitModel } from "../src/core/fit";
+import { evaluateModel } from "../src/core/models";
+import { mooneySlip } from "../src/core/slip";
+import { GAS_CONSTANT, arrheniusShiftFactor, fitArrheniusShift } from "../src/core/temperature";
 import { reduce, ReductionGroup } from "../src/core/reduce";
-import { fromSI } from "../src/core/units";
+import { fromSI, toSI } from "../src/core/units";
 import { readRawTable } from "../src/io/rawTable";
 import { FORMULA_SHEET, NOTES_SHEET, RAW_SHEET, WORKBOOK_SPECS, WorkbookSpec, buildDemoWorkbook, csvText } from "../scripts/make-workbooks";
+import { FILM_FIT_MODEL, YIELD_MODELS } from "../scripts/workbooks/analysisBlocks";
+import { CREAM_YIELD, creamViscosity } from "../scripts/demo/creamYield";
+import { FILM_GRADE, filmGradeViscosity } from "../scripts/demo/filmGrade";
+import { PASTE_SLIP, pasteSlipVelocity, pasteViscosity } from "../scripts/demo/pasteSlip";
 import { expectClose } from "./helpers/expectClose";
 import { BOOLEAN_LITERALS, RHEO_FUNCTIONS, clearArraySizes, declareArraySize, implementationOf, registerRheoFunctions } from "./helpers/hyperformulaRheo";
 
@@ -147,6 +155,17 @@ function hfNumber(book: LoadedBook, f: FormulaCell, i: number, j: number): numbe
   return v;
 }
 
+/** The row (0-based, within the spill) whose first cell is `name`. */
+function spillRow(book: LoadedBook, f: FormulaCell, name: string): number {
+  for (let i = 0; i < f.height; i++) if (hfValue(book, f, i, 0) === name) return i;
+  throw new Error(`${f.formula.slice(0, 40)} has no row "${name}"`);
+}
+
+/** Parameter name → [value, std error] of a RHEO.FIT spill with a header row. */
+function fitParameters<N extends string>(book: LoadedBook, f: FormulaCell, names: readonly N[]): Record<N, [number, number | string]> {
+  return Object.fromEntries(names.map((n) => [n, [hfNumber(book, f, spillRow(book, f, n), 1), hfValue(book, f, spillRow(book, f, n), 2) as number | string]])) as Record<N, [number, number | string]>;
+}
+
 describe("readFunctionTable(source) over src/functions", () => {
   it("registers every @customfunction of the bundle's files with its exported implementation", () => {
     const files = ["functions.ts", "fitting.ts", "methods.ts", "planning.ts"];
@@ -263,6 +282,146 @@ describe.each(WORKBOOK_SPECS)("workbooks/demo-$name.xlsx", (spec) => {
         expectClose(hfNumber(book, f, i, 0), fromSI(expected, spec.stressUnit, "pressure"), SAME, `orifice-corrected stress, row ${i + 1}`);
         expect(expected).toBeLessThan(apparentWallShearStress(cell(o.longFirst + i, 5) * 1e5, D, L));
       }
+    });
+  }
+
+  if (spec.name === "paste-slip") {
+    it("RHEO.SLIPVELOCITY over the REDUCE columns equals mooneySlip() of the core's flow curves", () => {
+      const f = first(book, "RHEO.SLIPVELOCITY");
+      const curves = core.groups.map((g) => ({ dieDiameter: g.dieDiameter, shearRateApparent: g.flowCurve.map((p) => p.shearRateApparent), wallShearStress: g.flowCurve.map((p) => p.wallShearStress) }));
+      expect(curves).toHaveLength(PASTE_SLIP.dieDiameters.length);
+      const slip = mooneySlip(curves);
+      expect(f.height).toBe(slip.rows.length + 1);
+      slip.rows.forEach((r, i) => {
+        // the sheet passes mm and kPa through the REDUCE spill: the inputs differ in the last bits, then the Rabinowitsch fit
+        expectClose(hfNumber(book, f, i + 1, 0), fromSI(r.wallShearStress, spec.stressUnit, "pressure"), RABINOWITSCH, `stress, row ${i + 1}`);
+        expectClose(hfNumber(book, f, i + 1, 1), r.slipVelocity * 1e3, RABINOWITSCH, `slip velocity, row ${i + 1}`);
+        expectClose(hfNumber(book, f, i + 1, 2), r.shearRateApparentCorrected, RABINOWITSCH, `corrected rate, row ${i + 1}`);
+        expectClose(hfNumber(book, f, i + 1, 3), r.shearRateWall as number, RABINOWITSCH, `wall rate, row ${i + 1}`);
+        expectClose(hfNumber(book, f, i + 1, 4), r.viscosity as number, RABINOWITSCH, `viscosity, row ${i + 1}`);
+      });
+    });
+
+    it("the Mooney slip velocity and slip-corrected viscosity agree with the generating laws within the noise", () => {
+      const f = first(book, "RHEO.SLIPVELOCITY");
+      // Tolerances from the noise of scripts/demo/pasteSlip.ts (1 % Gaussian on each pressure):
+      // the two-die Bagley stress is (P2 − P1)/(2·16) with P = 2τ(L/R + e), L/R = 16 and 32, e ≈ 6.4,
+      // so it scatters by 1 % · √(22.4² + 38.4²)/16 ≈ 2.8 %; at a fixed stress the apparent rate goes
+      // as about τ^3 (slip exponent 2.5, bulk 1/n = 3.3), so each bore's rate scatters by ≈ 8 % of
+      // ≈ 200 1/s = 16 1/s. The Mooney slope over 1/R = 1000, 2000, 4000 1/m then has a standard
+      // error of 16/√Σ(x − x̄)² = 16/2160 1/s·m, i.e. v_s ± 1.9 mm/s ≈ ±30 % (1σ); we allow 2σ = 60 %.
+      // The intercept (the slip-free rate, ≈ 130 1/s) has ±16·√(1/3 + x̄²/Σ(x − x̄)²) ≈ ±20 1/s ≈ 15 % (1σ),
+      // and the viscosity τ/γ̇_w inherits that relative error: 2σ = 30 %.
+      const SLIP = { rel: 0.6 };
+      const BULK = { rel: 0.3 };
+      for (let i = 1; i < f.height; i++) {
+        const tau = toSI(hfNumber(book, f, i, 0), spec.stressUnit, "pressure");
+        // generating law v_s = β·τ^m and bulk power law η = K·γ̇^(n−1): scripts/demo/pasteSlip.ts
+        expectClose(hfNumber(book, f, i, 1) * 1e-3, pasteSlipVelocity(tau), SLIP, `slip velocity at ${tau} Pa`);
+        expectClose(hfNumber(book, f, i, 4), pasteViscosity(hfNumber(book, f, i, 3)), BULK, `slip-corrected viscosity at ${tau} Pa`);
+        // the sheet's plain-formula columns restate the same laws
+        expectClose(book.hf.getCellValue({ sheet: f.sheet, row: f.row + i, col: f.col + 5 }) as number, pasteSlipVelocity(tau) * 1e3, SAME, "law column v_s");
+        expectClose(book.hf.getCellValue({ sheet: f.sheet, row: f.row + i, col: f.col + 6 }) as number, pasteViscosity(hfNumber(book, f, i, 3)), SAME, "law column eta");
+      }
+    });
+  }
+
+  if (spec.name === "cream-yield") {
+    it("RHEO.FIT herschel-bulkley equals fitModel() of the core's flow curve and recovers the generating parameters", () => {
+      const f = first(book, "RHEO.FIT");
+      const g = groupOf(core, spec);
+      const fit = fitModel("herschel-bulkley", { shearRate: g.flowCurve.map((p) => p.shearRateWall as number), viscosity: g.flowCurve.map((p) => p.viscosity as number) });
+      const got = fitParameters(book, f, ["tauY", "K", "n"] as const);
+      expect(hfValue(book, f, spillRow(book, f, "converged"), 1)).toBe(true);
+      for (const [name, [value, se]] of Object.entries(got)) {
+        expectClose(value, fit.parameters[name] as number, RABINOWITSCH, name);
+        expectClose(se as number, fit.standardErrors[name] as number, { rel: 1e-5 }, `${name} standard error`);
+        // generating values: scripts/demo/creamYield.ts (τy = 60 Pa, K = 15 Pa·s^n, n = 0.5); the fit's
+        // own standard error (s²(JᵀJ)⁻¹ from the 0.8 % pressure noise) sets the tolerance: 3 standard errors
+        const generating = { tauY: CREAM_YIELD.tauY, K: CREAM_YIELD.K, n: CREAM_YIELD.n }[name] as number;
+        expectClose(value, generating, { abs: 3 * (se as number) }, `${name} against the generating value`);
+      }
+    });
+
+    it("RHEO.COMPAREFITS ranks herschel-bulkley first with the AIC of its RHEO.FIT; RHEO.MODEL evaluates that fit", () => {
+      const cmp = first(book, "RHEO.COMPAREFITS");
+      const fit = first(book, "RHEO.FIT");
+      expect(cmp.height).toBe(YIELD_MODELS.split(",").length + 1);
+      expect(hfValue(book, cmp, 1, 1)).toBe("herschel-bulkley");
+      expectClose(hfNumber(book, cmp, 1, 2), hfNumber(book, fit, spillRow(book, fit, "AIC"), 1), SAME, "AIC of the winner");
+      const model = first(book, "RHEO.MODEL");
+      const p = fitParameters(book, fit, ["tauY", "K", "n"] as const);
+      const params = { tauY: p.tauY[0], K: p.K[0], n: p.n[0] };
+      const rmse = hfNumber(book, fit, spillRow(book, fit, "RMSE"), 1);
+      for (let i = 0; i < model.height; i++) {
+        const rate = book.hf.getCellValue({ sheet: model.sheet, row: model.row + i, col: 0 }) as number;
+        expectClose(hfNumber(book, model, i, 0), evaluateModel("herschel-bulkley", params, [rate])[0] as number, SAME, `model at ${rate} 1/s`);
+        // against the generating law (scripts/demo/creamYield.ts): the fitted curve averages the noise,
+        // so it stays within three times the fit's RMSE in ln η of the law
+        expectClose(hfNumber(book, model, i, 0), creamViscosity(rate), { rel: 3 * rmse }, `fit against the generating law at ${rate} 1/s`);
+      }
+    });
+  }
+
+  if (spec.name === "film-grade") {
+    it("RHEO.SHIFTFIT equals fitArrheniusShift() of the core's curves and recovers Ea = 55 kJ/mol", () => {
+      const f = first(book, "RHEO.SHIFTFIT");
+      const curves = core.groups.map((g) => ({ temperature: g.temperature as number, shearRate: g.flowCurve.map((p) => p.shearRateWall as number), viscosity: g.flowCurve.map((p) => p.viscosity as number) }));
+      const Tref = FILM_GRADE.referenceTemperature;
+      const shift = fitArrheniusShift(curves, Tref);
+      const ea = hfNumber(book, f, spillRow(book, f, "Ea"), 1);
+      const se = hfNumber(book, f, spillRow(book, f, "Ea"), 2);
+      expectClose(ea, shift.activationEnergy, RABINOWITSCH, "Ea");
+      // generating value: scripts/demo/filmGrade.ts activationEnergy = 55 kJ/mol; allowed: 3 standard errors of the fit
+      // (≈ 0.8 kJ/mol from 0.5 % pressure noise), which is also within 5 % of the value
+      expectClose(ea, FILM_GRADE.activationEnergy, { abs: 3 * se }, "Ea against the generating 55 kJ/mol");
+      expectClose(ea, FILM_GRADE.activationEnergy, { rel: 0.05 }, "Ea within 5 %");
+      const header = spillRow(book, f, `temperature [C]`);
+      for (let i = header + 1; i < f.height; i++) {
+        const T = hfNumber(book, f, i, 0) + 273.15;
+        // a_T of the generating law exp[(E/R)(1/T − 1/Tref)]; the fitted Ea's 3 standard errors move it by |1/T − 1/Tref|·3·se/R
+        const tol = Math.abs(1 / T - 1 / Tref) * 3 * se / GAS_CONSTANT;
+        expectClose(hfNumber(book, f, i, 1), arrheniusShiftFactor(T, Tref, FILM_GRADE.activationEnergy), { rel: tol + 1e-9 }, `aT at ${T} K`);
+      }
+    });
+
+    it("RHEO.FIT cross at 210 °C equals fitModel() and follows the generating Carreau-Yasuda curve", () => {
+      const f = first(book, "RHEO.FIT");
+      const g = groupOf(core, spec);
+      const data = { shearRate: g.flowCurve.map((p) => p.shearRateWall as number), viscosity: g.flowCurve.map((p) => p.viscosity as number) };
+      const fit = fitModel(FILM_FIT_MODEL, data, { fixed: { etaInf: 0 } });
+      const got = fitParameters(book, f, ["eta0", "lambda", "m"] as const);
+      for (const [name, [value, se]] of Object.entries(got)) {
+        expectClose(value, fit.parameters[name] as number, RABINOWITSCH, name);
+        expectClose(se as number, fit.standardErrors[name] as number, { rel: 1e-5 }, `${name} standard error`);
+      }
+      expect(hfValue(book, f, spillRow(book, f, "etaInf"), 2)).toBe("fixed");
+      const params = { eta0: got.eta0[0], etaInf: 0, lambda: got.lambda[0], m: got.m[0] };
+      const rmse = hfNumber(book, f, spillRow(book, f, "RMSE"), 1);
+      // generating viscosity: scripts/demo/filmGrade.ts (Carreau–Yasuda, 210 °C); the Cross curve fits the
+      // data to RMSE ≈ 0.6 % in ln η, so it stays within three times that of the generating curve
+      for (const rate of data.shearRate) {
+        expectClose(evaluateModel(FILM_FIT_MODEL, params, [rate])[0] as number, filmGradeViscosity(FILM_GRADE.referenceTemperature)(rate), { rel: 3 * rmse }, `Cross fit at ${rate} 1/s`);
+      }
+    });
+
+    it("RHEO.COGSWELL follows Cogswell's closed form from the sheet's own entrance pressure, rate, viscosity and n'", () => {
+      const f = first(book, "RHEO.COGSWELL");
+      const g = groupOf(core, spec);
+      expect(f.height).toBe(g.flowCurve.length);
+      g.flowCurve.forEach((p, i) => {
+        const dp = (g.bagley[i] as { entrancePressure: number }).entrancePressure;
+        const n = p.nPrime as number;
+        const rate = p.shearRateWall as number;
+        const eta = p.viscosity as number;
+        // Cogswell, Polym. Eng. Sci. 12 (1972) 64: σ = 3(n+1)ΔP/8, ε̇ = 4ηγ̇²/(3(n+1)ΔP), η_E = σ/ε̇
+        const sigma = (3 * (n + 1) * dp) / 8;
+        const rateE = (4 * eta * rate * rate) / (3 * (n + 1) * dp);
+        expectClose(hfNumber(book, f, i, 0), sigma, RABINOWITSCH, `tensile stress, row ${i + 1}`);
+        expectClose(hfNumber(book, f, i, 1), rateE, RABINOWITSCH, `extension rate, row ${i + 1}`);
+        expectClose(hfNumber(book, f, i, 2), sigma / rateE, RABINOWITSCH, `extensional viscosity, row ${i + 1}`);
+        expectClose(hfNumber(book, f, i, 3), sigma / rateE / eta, RABINOWITSCH, `Trouton ratio, row ${i + 1}`);
+      });
     });
   }
 

@@ -1,13 +1,28 @@
 /**
  * Building RHEO formulas for the demo workbooks together with the values they compute: each call
  * gives the formula text Excel stores and the result grid of the same implementation the add-in
- * registers (src/functions/functions.ts), which becomes the cell's cached value.
+ * registers (the files src/functions/entry.ts bundles: functions.ts, fitting.ts, methods.ts,
+ * planning.ts), which becomes the cell's cached value.
  */
 import { readFileSync } from "node:fs";
 import path from "node:path";
-import * as sheetFunctions from "../../src/functions/functions";
+import * as coreFunctions from "../../src/functions/functions";
+import * as fittingFunctions from "../../src/functions/fitting";
+import * as methodFunctions from "../../src/functions/methods";
+import * as planningFunctions from "../../src/functions/planning";
 import { isCellError } from "../../src/functions/adapter";
 import { SheetFunctionEntry, readFunctionTable } from "./functionTable";
+
+/** The files declaring worksheet functions, with their exports. */
+const FUNCTION_MODULES: [string, Record<string, unknown>][] = [
+  ["functions.ts", coreFunctions],
+  ["fitting.ts", fittingFunctions],
+  ["methods.ts", methodFunctions],
+  ["planning.ts", planningFunctions],
+];
+
+/** The exported JavaScript name of any declared worksheet function. */
+export type SheetFunctionName = keyof typeof coreFunctions | keyof typeof fittingFunctions | keyof typeof methodFunctions | keyof typeof planningFunctions;
 
 export type Grid = unknown[][];
 
@@ -27,11 +42,13 @@ export interface SheetCall {
 
 type Implementation = (...args: unknown[]) => Grid;
 
-let table: SheetFunctionEntry[] | undefined;
+let table: (SheetFunctionEntry & { implementation: Implementation })[] | undefined;
 
-/** The declared RHEO functions (read once from src/functions/functions.ts under the working directory). */
-export function functionTable(): SheetFunctionEntry[] {
-  table ??= readFunctionTable(readFileSync(path.resolve("src/functions/functions.ts"), "utf8"));
+/** The declared RHEO functions with their implementations (read once from src/functions/ under the working directory). */
+export function functionTable(): (SheetFunctionEntry & { implementation: Implementation })[] {
+  table ??= FUNCTION_MODULES.flatMap(([file, module]) =>
+    readFunctionTable(readFileSync(path.resolve("src/functions", file), "utf8")).map((e) => ({ ...e, implementation: module[e.jsName] as Implementation })),
+  );
   return table;
 }
 
@@ -51,9 +68,9 @@ function literal(a: Arg): string {
  * The formula calling worksheet function `jsName` (its exported name in functions.ts) with `args`,
  * and what it returns for them. Trailing null arguments are left out; inner ones stay empty.
  */
-export function rheo(jsName: keyof typeof sheetFunctions, args: Arg[]): SheetCall {
+export function rheo(jsName: SheetFunctionName, args: Arg[]): SheetCall {
   const entry = functionTable().find((e) => e.jsName === jsName);
-  if (!entry) throw new Error(`${jsName} is not a @customfunction of src/functions/functions.ts`);
+  if (!entry) throw new Error(`${jsName} is not a @customfunction of src/functions/`);
   if (args.length > entry.parameters.length) throw new Error(`${entry.excelName} takes ${entry.parameters.length} arguments, got ${args.length}`);
   let last = args.length;
   while (last > 0 && args[last - 1] === null) last--;
@@ -64,8 +81,7 @@ export function rheo(jsName: keyof typeof sheetFunctions, args: Arg[]): SheetCal
     if (isRangeArg(a)) return a.values;
     return p.range ? [[a]] : a;
   });
-  const fn = sheetFunctions[jsName] as unknown as Implementation;
-  const result = fn(...values);
+  const result = entry.implementation(...values);
   for (const row of result) {
     for (const cell of row) {
       if (isCellError(cell)) throw new Error(`${entry.excelName} returned ${cell.code} ${cell.message} in a demo workbook`);
