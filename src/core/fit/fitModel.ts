@@ -149,7 +149,8 @@ function solve(def: ModelDefinition, setup: FitSetup, opts: FitOptions, freeInde
 }
 
 /**
- * The log-space originalJacobian at the solver's optimum, from its last Jacobian in u:
+ * The log-space originalJacobian at the solver's optimum, from its last Jacobian in u (converted
+ * in place: the solver's result is not used afterwards):
  * ∂r_i/∂p_j = (∂r_i/∂u_j)/(dp_j/du_j), influence max_i |∂ln η_i/∂p_j·p_j| with ∂ln η_i/∂p_j = (∂r_i/∂p_j)/√w_i.
  * Undefined when some dp/du is 0 or not finite (then it is recomputed from the model).
  */
@@ -166,9 +167,8 @@ function fromSolverJacobian(
   const n = residuals.length;
   const dpdu = transforms.map((t, f) => t.derivative(u[f] as number));
   if (!dpdu.every((d) => d > 0 && Number.isFinite(d))) return undefined;
-  const buffer = new Float64Array(n * k + k);
-  const jacobian = buffer.subarray(0, n * k);
-  const influence = buffer.subarray(n * k);
+  const jacobian = jacobianU;
+  const influence = new Float64Array(k);
   for (let i = 0; i < n; i++) {
     const sw = sqrtWeight[i] as number;
     for (let f = 0; f < k; f++) {

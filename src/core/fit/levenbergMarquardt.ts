@@ -11,10 +11,15 @@
  *     bounds (a clipped step leaves the optimiser stuck on the bound) and patches a wrong-length
  *     weights array with the first weight.
  * On the five-parameter Carreau–Yasuda fit of `npm run bench` (40 points, 2 % noise, η∞ free):
- * scipy.optimize.least_squares 1.10.1 "lm" (MINPACK) takes ~0.31–0.35 ms with the analytic
- * Jacobian (7 evaluations) and ~0.5 ms with finite differences. This solver: 7 iterations, one
- * run, ~0.08–0.10 ms per complete fitModel call (guesses, solve, statistics) on a shared 2-core
- * machine, the same optimum as scipy to ~1e-8 relative. Figures from `npm run bench`, not a test.
+ * scipy.optimize.least_squares 1.10.1 "lm" (MINPACK) takes ~0.32–0.36 ms with the analytic
+ * Jacobian (7 evaluations) and ~0.5–0.6 ms with finite differences. This solver: 7 iterations,
+ * one run, the same optimum as scipy to ~1e-9 relative; a complete fitModel call (guesses, solve,
+ * statistics) takes ~0.08–0.09 ms in `npm run bench` on a shared 2-core machine (4.1–4.2× scipy
+ * when the machine is quiet), ~0.05 ms once V8 has optimised every function (after ~3000 calls;
+ * the bench's 200-call warm-up ends before that). Most of that time is the model (ln η and its
+ * gradient over the curve, the models' logCurve fast path: four transcendental calls a point),
+ * then the normal equations and the residual/Jacobian assembly. Figures from `npm run bench`
+ * and a loop under `node --cpu-prof`, not a test.
  *
  * Method: Moré (1978) "The Levenberg–Marquardt algorithm: implementation and theory" for the
  * scaling (damping on the running maximum of diag(JᵀJ)) and the convergence tests (relative

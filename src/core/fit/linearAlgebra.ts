@@ -67,18 +67,34 @@ export function inverseSpd(a: Float64Array, k: number): Float64Array | undefined
 
 /**
  * Aᵀ·A (k×k) and Aᵀ·r (k) of a row-major m×k matrix A. Each entry is one dot product summed in
- * row order, kept in a local accumulator rather than read and written back per row.
+ * row order, kept in a local accumulator rather than read and written back per row; the products
+ * of column a with columns b and b + 1 share one pass (each load of A_ia serves two sums).
  */
 export function normalEquations(jac: Float64Array, r: Float64Array, m: number, k: number, ata: Float64Array, atr: Float64Array): void {
+  const size = m * k;
   for (let a = 0; a < k; a++) {
     let sr = 0;
-    for (let i = 0; i < m; i++) sr += (jac[i * k + a] as number) * (r[i] as number);
+    for (let ia = a, i = 0; ia < size; ia += k, i++) sr += (jac[ia] as number) * (r[i] as number);
     atr[a] = sr;
-    for (let b = 0; b <= a; b++) {
+    let b = 0;
+    for (; b < a; b += 2) {
+      // columns b and b + 1 (b + 1 ≤ a)
+      let s0 = 0;
+      let s1 = 0;
+      for (let ia = a, ib = b; ia < size; ia += k, ib += k) {
+        const value = jac[ia] as number;
+        s0 += value * (jac[ib] as number);
+        s1 += value * (jac[ib + 1] as number);
+      }
+      ata[a * k + b] = s0;
+      ata[b * k + a] = s0;
+      ata[a * k + b + 1] = s1;
+      ata[(b + 1) * k + a] = s1;
+    }
+    if (b === a) {
       let s = 0;
-      for (let i = 0; i < m; i++) s += (jac[i * k + a] as number) * (jac[i * k + b] as number);
-      ata[a * k + b] = s;
-      ata[b * k + a] = s;
+      for (let ia = a; ia < size; ia += k) s += (jac[ia] as number) * (jac[ia] as number);
+      ata[a * k + a] = s;
     }
   }
 }

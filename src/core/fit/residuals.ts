@@ -3,7 +3,8 @@
  *   log space:    r_i = √w_i·(ln η_model,i − ln η_i)
  *   linear space: r_i = √w_i·(η_model,i − η_i)
  * in the solver's transformed coordinates u (for the iterations) and in the original parameters
- * (for the covariance and the bound test).
+ * (for the covariance and the bound test). The iterations use the model's whole-curve fast path
+ * (ModelDefinition.logCurve) when it has one, and its per-point functions otherwise.
  */
 import type { ModelDefinition } from "../models";
 import type { LeastSquaresProblem } from "./levenbergMarquardt";
@@ -20,15 +21,54 @@ export function residualProblem(
   transforms: readonly Transform[],
   base: Float64Array,
 ): LeastSquaresProblem {
-  const { rates, temperature, sqrtWeight, logViscosity, viscosity } = setup;
+  const { rates, logRate, temperature, sqrtWeight, logViscosity, viscosity } = setup;
   const n = rates.length;
   const k = freeIndex.length;
+  const parameterCount = def.parameters.length;
+  const curve = def.logCurve;
+  // The fast path writes ln η into `residuals` and its gradient (n × parameters) straight into
+  // `jacobian` when every parameter is free, in model order; otherwise into a scratch store made
+  // on first use. Each is then turned into r and ∂r/∂u in place.
+  const direct = k === parameterCount && freeIndex.every((j, f) => j === f);
+  let scratch: Float64Array | undefined;
   const columns = Int32Array.from(freeIndex);
   const p = Float64Array.from(base);
   const gradient = new Float64Array(def.parameters.length);
   const dpdu = new Float64Array(k);
   const bounded = transforms.some((t) => t.lower > -Infinity);
   const logSpace = space === "log";
+
+  /**
+   * Turns the fast path's ln η (in `residuals`) and ∂ln η/∂p (in `modelGradient`, n × parameters)
+   * into r and ∂r/∂u in place; false when some value is not finite.
+   */
+  const fromLogCurve = (residuals: Float64Array, jacobian: Float64Array | null, modelGradient: Float64Array | null): boolean => {
+    for (let i = 0; i < n; i++) {
+      const sw = sqrtWeight[i] as number;
+      const lnEta = residuals[i] as number;
+      let r: number;
+      let scale = sw;
+      if (logSpace) {
+        r = sw * (lnEta - (logViscosity[i] as number));
+      } else {
+        const eta = Math.exp(lnEta);
+        r = sw * (eta - (viscosity[i] as number));
+        scale = sw * eta;
+      }
+      if (!Number.isFinite(r)) return false;
+      residuals[i] = r;
+      if (!jacobian || !modelGradient) continue;
+      const row = i * k;
+      const from = i * parameterCount;
+      for (let f = 0; f < k; f++) {
+        const v = scale * (modelGradient[from + (columns[f] as number)] as number) * (dpdu[f] as number);
+        if (!Number.isFinite(v)) return false;
+        jacobian[row + f] = v;
+      }
+    }
+    return true;
+  };
+
   return {
     residualCount: n,
     parameterCount: k,
@@ -38,6 +78,11 @@ export function residualProblem(
         const t = transforms[f] as Transform;
         p[columns[f] as number] = t.fromFree(u[f] as number);
         dpdu[f] = t.derivative(u[f] as number);
+      }
+      if (curve) {
+        const modelGradient = !jacobian ? null : direct ? jacobian : (scratch ??= new Float64Array(n * parameterCount));
+        curve(p, logRate, temperature, residuals, modelGradient);
+        return fromLogCurve(residuals, jacobian, modelGradient);
       }
       if (!jacobian) {
         for (let i = 0; i < n; i++) {

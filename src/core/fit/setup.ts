@@ -14,6 +14,8 @@ export interface FitSetup {
   freeIndex: number[];
   fixedNames: string[];
   rates: Float64Array;
+  /** ln γ̇ of each point (for models with a whole-curve fast path). */
+  logRate: Float64Array;
   logViscosity: Float64Array;
   viscosity: Float64Array;
   temperature: Float64Array;
@@ -62,10 +64,12 @@ export function setupFit(model: ModelDefinition, data: FitData, options: FitOpti
   const rateList = pick(data.shearRate);
   const viscosityList = pick(data.viscosity);
   const n = rateList.length;
-  // One store for the six per-point arrays (each above V8's 64-byte limit for on-heap typed arrays).
-  const buffer = new Float64Array(6 * n);
+  // One store for the seven per-point arrays (each above V8's 64-byte limit for on-heap typed arrays).
+  const buffer = new Float64Array(7 * n);
   const column = (c: number) => buffer.subarray(c * n, (c + 1) * n);
-  const [rates, viscosity, logViscosity, weight, sqrtWeight, temperature] = [0, 1, 2, 3, 4, 5].map(column) as [Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array];
+  const [rates, viscosity, logViscosity, weight, sqrtWeight, temperature, logRate] = [0, 1, 2, 3, 4, 5, 6].map(column) as [
+    Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array,
+  ];
   rates.set(rateList);
   viscosity.set(viscosityList);
   if (weights) weight.set(pick(weights));
@@ -80,6 +84,7 @@ export function setupFit(model: ModelDefinition, data: FitData, options: FitOpti
   }
   for (let i = 0; i < n; i++) {
     logViscosity[i] = Math.log(viscosity[i] as number);
+    logRate[i] = Math.log(rates[i] as number);
     sqrtWeight[i] = Math.sqrt(weight[i] as number);
   }
 
@@ -106,7 +111,7 @@ export function setupFit(model: ModelDefinition, data: FitData, options: FitOpti
     const given = options.initial[spec.name];
     return given !== undefined ? given : inside(guess[j] as number, spec.min, spec.max);
   });
-  return { start, freeIndex, fixedNames, rates, viscosity, logViscosity, temperature, weight, sqrtWeight, warnings };
+  return { start, freeIndex, fixedNames, rates, logRate, viscosity, logViscosity, temperature, weight, sqrtWeight, warnings };
 }
 
 /** ln η0(T) of Cross-WLF takes one value per temperature: need as many levels as free T-parameters. */

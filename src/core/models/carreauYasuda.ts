@@ -39,6 +39,52 @@ export function carreauYasudaLog(
   return Math.log(eta);
 }
 
+/**
+ * {@link carreauYasudaLog} over a whole curve, given ln γ̇ (γ̇ in 1/s): ln η_i into `logEta` and,
+ * when `gradient` is given, ∂ln η_i/∂(eta0, etaInf, lambda, n, a) at gradient[i·stride + 0..4]
+ * (the a-column only when `withA`). ln λ, (n − 1)/a and the reciprocals are taken once per call;
+ * ln(λγ̇) = ln λ + ln γ̇. Same formulas and values (to rounding) as the per-point function.
+ */
+export function carreauYasudaCurve(
+  eta0: number,
+  etaInf: number,
+  lambda: number,
+  n: number,
+  a: number,
+  logRate: Float64Array,
+  logEta: Float64Array,
+  gradient: Float64Array | null,
+  stride: number,
+  withA: boolean,
+): void {
+  const lnLambda = Math.log(lambda);
+  const exponent = (n - 1) / a;
+  const span = eta0 - etaInf;
+  const nMinus1 = n - 1;
+  const invLambda = 1 / lambda;
+  const invA = 1 / a;
+  for (let i = 0; i < logRate.length; i++) {
+    const lnX = lnLambda + (logRate[i] as number);
+    const x = a * lnX;
+    const e = Math.exp(-Math.abs(x));
+    const lnB = (x > 0 ? x : 0) + Math.log1p(e);
+    const f = Math.exp(exponent * lnB);
+    const eta = etaInf + span * f;
+    logEta[i] = Math.log(eta);
+    if (gradient) {
+      const invEta = 1 / eta;
+      const q = x >= 0 ? 1 / (1 + e) : e / (1 + e);
+      const scale = span * f * invEta;
+      const row = i * stride;
+      gradient[row] = f * invEta;
+      gradient[row + 1] = (1 - f) * invEta;
+      gradient[row + 2] = scale * nMinus1 * q * invLambda;
+      gradient[row + 3] = scale * lnB * invA;
+      if (withA) gradient[row + 4] = scale * nMinus1 * invA * (q * lnX - lnB * invA);
+    }
+  }
+}
+
 /** λ at which a Carreau–Yasuda curve with exponent a and index n halves η0 at rate `half`. */
 export function lambdaFromHalfRate(half: number, n: number, a: number): number {
   return Math.pow(Math.pow(2, a / (1 - n)) - 1, 1 / a) / half;
@@ -66,5 +112,7 @@ export const carreauYasuda: ModelDefinition = {
     carreauYasudaLog(p[0] as number, p[1] as number, p[2] as number, p[3] as number, p[4] as number, rate),
   logGradient: (p, rate, _t, out) =>
     carreauYasudaLog(p[0] as number, p[1] as number, p[2] as number, p[3] as number, p[4] as number, rate, out),
+  logCurve: (p, logRate, _t, logEta, gradient) =>
+    carreauYasudaCurve(p[0] as number, p[1] as number, p[2] as number, p[3] as number, p[4] as number, logRate, logEta, gradient, 5, true),
   initialGuess: (data) => carreauYasudaGuess(data, 1),
 };

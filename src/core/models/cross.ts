@@ -33,6 +33,27 @@ export const cross: ModelDefinition = {
     out[3] = (dq * lnX) / eta;
     return Math.log(eta);
   },
+  logCurve(p, logRate, _t, logEta, gradient) {
+    const [eta0, etaInf, lambda, m] = [p[0] as number, p[1] as number, p[2] as number, p[3] as number];
+    const lnLambda = Math.log(lambda);
+    const span = eta0 - etaInf;
+    const mOverLambda = m / lambda;
+    for (let i = 0; i < logRate.length; i++) {
+      const lnX = lnLambda + (logRate[i] as number);
+      const q = sigmoid(-m * lnX);
+      const eta = etaInf + span * q;
+      logEta[i] = Math.log(eta);
+      if (gradient) {
+        const invEta = 1 / eta;
+        const dq = -span * q * (1 - q);
+        const row = 4 * i;
+        gradient[row] = q * invEta;
+        gradient[row + 1] = (1 - q) * invEta;
+        gradient[row + 2] = dq * mOverLambda * invEta;
+        gradient[row + 3] = dq * lnX * invEta;
+      }
+    }
+  },
   initialGuess(data: GuessData) {
     const eta0 = plateauViscosity(data);
     const m = 1 - highRateIndex(data);

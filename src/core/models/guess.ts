@@ -39,7 +39,16 @@ export function logPoints(data: GuessData): { x: number[]; y: number[] } {
   return points;
 }
 
+/** True when a[i − 1] ≤ a[i] throughout (the stable sort by rate would then keep data order). */
+function isAscending(a: readonly number[]): boolean {
+  for (let i = 1; i < a.length; i++) if (!((a[i - 1] as number) <= (a[i] as number))) return false;
+  return true;
+}
+
 function sortedLogPoints(data: GuessData): { x: number[]; y: number[] } {
+  if (isAscending(data.shearRate)) {
+    return { x: data.shearRate.map((rate) => Math.log(rate)), y: data.viscosity.map((eta) => Math.log(eta)) };
+  }
   const order = data.shearRate.map((_, i) => i).sort((a, b) => (data.shearRate[a] as number) - (data.shearRate[b] as number));
   return {
     x: order.map((i) => Math.log(data.shearRate[i] as number)),

@@ -23,6 +23,19 @@ export const powerLaw: ModelDefinition = {
     out[1] = lnRate;
     return Math.log(p[0] as number) + ((p[1] as number) - 1) * lnRate;
   },
+  logCurve(p, logRate, _t, logEta, gradient) {
+    const lnK = Math.log(p[0] as number);
+    const slope = (p[1] as number) - 1;
+    const invK = 1 / (p[0] as number);
+    for (let i = 0; i < logRate.length; i++) {
+      const lnRate = logRate[i] as number;
+      logEta[i] = lnK + slope * lnRate;
+      if (gradient) {
+        gradient[2 * i] = invK;
+        gradient[2 * i + 1] = lnRate;
+      }
+    }
+  },
   initialGuess(data: GuessData) {
     const { x, y } = logPoints(data);
     const fit = lineFit(x, y);

@@ -62,6 +62,27 @@ export interface ModelDefinition {
   logViscosity(p: ArrayLike<number>, shearRate: number, temperature: number): number;
   /** Writes ∂ln η/∂p_j into `out` (length = parameters) and returns ln η. */
   logGradient(p: ArrayLike<number>, shearRate: number, temperature: number, out: Float64Array): number;
+  /**
+   * Optional whole-curve fast path for the fitter, the same values as `logViscosity` and
+   * `logGradient` to rounding: the parameter-only work (ln λ, (n − 1)/a, …) is done once per call
+   * instead of once per point, and ln γ̇ comes precomputed (once per fit). Models without it are
+   * evaluated point by point.
+   */
+  readonly logCurve?: LogCurve;
   /** Starting values from the data (every parameter, in order, strictly inside the bounds). */
   initialGuess(data: GuessData): number[];
 }
+
+/**
+ * ln η over a whole curve: writes ln η_i into `logEta` and, when `gradient` is given,
+ * ∂ln η_i/∂p_j row-major (points × parameters). `logRate` holds ln γ̇_i (γ̇ in 1/s),
+ * `temperature` T_i (K; NaN for isothermal fits). Non-finite values are written as they come
+ * (the caller rejects them).
+ */
+export type LogCurve = (
+  p: ArrayLike<number>,
+  logRate: Float64Array,
+  temperature: Float64Array,
+  logEta: Float64Array,
+  gradient: Float64Array | null,
+) => void;
