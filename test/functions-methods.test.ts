@@ -42,6 +42,46 @@ describe("RHEO.SLIPVELOCITY", () => {
     expectClose((g[1] as number[])[2] as number, 100, { rel: 1e-9 });
     expect(errorOf(slipVelocity(col(1, 1), col(180, 360), col(1e4, 2e4))).code).toBe("#N/A");
   });
+
+  // the same two-diameter case: mooneySlip's SLIP_FEW_DIAMETERS (src/core/slip.ts) listed below the table as RHEO.REDUCE lists its warnings
+  test("showWarnings TRUE lists the core's warnings below the table: a blank row, then code | message padded to the width", () => {
+    const g = slipVelocity(col(1, 1, 2, 2), col(180, 360, 140, 280), col(1e4, 2e4, 1e4, 2e4), undefined, undefined, true, true);
+    const plain = slipVelocity(col(1, 1, 2, 2), col(180, 360, 140, 280), col(1e4, 2e4, 1e4, 2e4), undefined, undefined, true);
+    expect(g.slice(0, plain.length)).toEqual(plain);
+    expect(g[plain.length]).toEqual(["", "", "", "", ""]);
+    const warningRows = g.slice(plain.length + 1);
+    expect(warningRows.map((r) => r[0])).toContain("SLIP_FEW_DIAMETERS");
+    for (const r of warningRows) {
+      expect(r).toHaveLength(5);
+      expect(r[0]).toMatch(/^[A-Z][A-Z0-9_]+$/);
+      expect(typeof r[1]).toBe("string");
+      expect(r.slice(2)).toEqual(["", "", ""]);
+    }
+  });
+
+  // exact Mooney data (Mooney 1931): γ̇_a = 100·(τ/10 kPa)² + 8·v_s/D with v_s = 5 mm/s at D = 1, 2, 4 mm
+  // → v_s = 5 mm/s and γ̇_c = 100 1/s at 10 kPa; three diameters over a factor 2 in stress give no warning
+  test("showWarnings TRUE with nothing to warn about says so; FALSE, blank and 0 leave the table alone", () => {
+    const D = [1, 1, 1, 2, 2, 2, 4, 4, 4];
+    const tau = [1e4, 1.5e4, 2e4, 1e4, 1.5e4, 2e4, 1e4, 1.5e4, 2e4];
+    const rate = D.map((d, i) => 100 * ((tau[i] as number) / 1e4) ** 2 + (8 * 5) / d);
+    const g = slipVelocity(col(...D), col(...rate), col(...tau), "mm", "Pa", false, true);
+    expectClose((g[0] as number[])[1] as number, 5, { rel: 1e-9 });
+    expectClose((g[0] as number[])[2] as number, 100, { rel: 1e-9 });
+    expect(g.slice(-2)).toEqual([
+      ["", "", "", "", ""],
+      ["warnings", "none", "", "", ""],
+    ]);
+    const table = slipVelocity(col(...D), col(...rate), col(...tau), "mm", "Pa", false);
+    expect(g).toHaveLength(table.length + 2);
+    expect(slipVelocity(col(...D), col(...rate), col(...tau), "mm", "Pa", false, false)).toEqual(table);
+    expect(slipVelocity(col(...D), col(...rate), col(...tau), "mm", "Pa", false, 0 as unknown as boolean)).toEqual(table);
+  });
+
+  test("showWarnings that is not TRUE or FALSE is #VALUE! naming the argument", () => {
+    const e = errorOf(slipVelocity(col(1, 1, 2, 2), col(180, 360, 140, 280), col(1e4, 2e4, 1e4, 2e4), undefined, undefined, true, "maybe" as unknown as boolean));
+    expect(e).toEqual({ code: "#VALUE!", message: expect.stringMatching(/showWarnings: must be TRUE or FALSE, got "maybe"/) });
+  });
 });
 
 describe("RHEO.REPVISCOSITY and RHEO.COGSWELL", () => {

@@ -24,7 +24,7 @@ import { FORMULA_SHEET, NOTES_SHEET, RAW_SHEET, WORKBOOK_SPECS, WorkbookSpec, bu
 import { FILM_FIT_MODEL, YIELD_MODELS } from "../scripts/workbooks/analysisBlocks";
 import { CREAM_YIELD, creamViscosity } from "../scripts/demo/creamYield";
 import { FILM_GRADE, filmGradeViscosity } from "../scripts/demo/filmGrade";
-import { PASTE_SLIP, pasteSlipVelocity, pasteViscosity } from "../scripts/demo/pasteSlip";
+import { PASTE_SLIP, pasteSlipRows, pasteSlipVelocity, pasteViscosity } from "../scripts/demo/pasteSlip";
 import { expectClose } from "./helpers/expectClose";
 import { BOOLEAN_LITERALS, RHEO_FUNCTIONS, clearArraySizes, declareArraySize, implementationOf, registerRheoFunctions } from "./helpers/hyperformulaRheo";
 
@@ -286,12 +286,14 @@ describe.each(WORKBOOK_SPECS)("workbooks/demo-$name.xlsx", (spec) => {
   }
 
   if (spec.name === "paste-slip") {
-    it("RHEO.SLIPVELOCITY over the REDUCE columns equals mooneySlip() of the core's flow curves", () => {
+    it("RHEO.SLIPVELOCITY over the REDUCE columns equals mooneySlip() of the core's flow curves, with its warnings below", () => {
       const f = first(book, "RHEO.SLIPVELOCITY");
       const curves = core.groups.map((g) => ({ dieDiameter: g.dieDiameter, shearRateApparent: g.flowCurve.map((p) => p.shearRateApparent), wallShearStress: g.flowCurve.map((p) => p.wallShearStress) }));
       expect(curves).toHaveLength(PASTE_SLIP.dieDiameters.length);
       const slip = mooneySlip(curves);
-      expect(f.height).toBe(slip.rows.length + 1);
+      // header, table, a blank row, then one row per warning ("warnings | none" when there is none)
+      const warningRows = Math.max(1, slip.warnings.length);
+      expect(f.height).toBe(1 + slip.rows.length + 1 + warningRows);
       slip.rows.forEach((r, i) => {
         // the sheet passes mm and kPa through the REDUCE spill: the inputs differ in the last bits, then the Rabinowitsch fit
         expectClose(hfNumber(book, f, i + 1, 0), fromSI(r.wallShearStress, spec.stressUnit, "pressure"), RABINOWITSCH, `stress, row ${i + 1}`);
@@ -300,28 +302,58 @@ describe.each(WORKBOOK_SPECS)("workbooks/demo-$name.xlsx", (spec) => {
         expectClose(hfNumber(book, f, i + 1, 3), r.shearRateWall as number, RABINOWITSCH, `wall rate, row ${i + 1}`);
         expectClose(hfNumber(book, f, i + 1, 4), r.viscosity as number, RABINOWITSCH, `viscosity, row ${i + 1}`);
       });
+      const blank = 1 + slip.rows.length;
+      for (let j = 0; j < f.width; j++) expect(hfValue(book, f, blank, j) ?? "").toBe("");
+      const listed = Array.from({ length: warningRows }, (_, k) => [hfValue(book, f, blank + 1 + k, 0), hfValue(book, f, blank + 1 + k, 1)]);
+      expect(listed).toEqual(slip.warnings.length === 0 ? [["warnings", "none"]] : slip.warnings.map((w) => [w.code, w.message]));
+      // the planned test (same apparent rates in every bore) leaves a wide shared stress range
+      expect(slip.warnings.map((w) => w.code)).not.toContain("SLIP_STRESS_OVERLAP_NARROW");
     });
 
     it("the Mooney slip velocity and slip-corrected viscosity agree with the generating laws within the noise", () => {
       const f = first(book, "RHEO.SLIPVELOCITY");
-      // Tolerances from the noise of scripts/demo/pasteSlip.ts (1 % Gaussian on each pressure):
-      // the two-die Bagley stress is (P2 − P1)/(2·16) with P = 2τ(L/R + e), L/R = 16 and 32, e ≈ 6.4,
-      // so it scatters by 1 % · √(22.4² + 38.4²)/16 ≈ 2.8 %; at a fixed stress the apparent rate goes
-      // as about τ^3 (slip exponent 2.5, bulk 1/n = 3.3), so each bore's rate scatters by ≈ 8 % of
-      // ≈ 200 1/s = 16 1/s. The Mooney slope over 1/R = 1000, 2000, 4000 1/m then has a standard
-      // error of 16/√Σ(x − x̄)² = 16/2160 1/s·m, i.e. v_s ± 1.9 mm/s ≈ ±30 % (1σ); we allow 2σ = 60 %.
-      // The intercept (the slip-free rate, ≈ 130 1/s) has ±16·√(1/3 + x̄²/Σ(x − x̄)²) ≈ ±20 1/s ≈ 15 % (1σ),
-      // and the viscosity τ/γ̇_w inherits that relative error: 2σ = 30 %.
-      const SLIP = { rel: 0.6 };
-      const BULK = { rel: 0.3 };
-      for (let i = 1; i < f.height; i++) {
+      const rows = mooneySlip(core.groups.map((g) => ({ dieDiameter: g.dieDiameter, shearRateApparent: g.flowCurve.map((p) => p.shearRateApparent), wallShearStress: g.flowCurve.map((p) => p.wallShearStress) }))).rows.length;
+      // Tolerances from the noise of scripts/demo/pasteSlip.ts (0.5 % Gaussian on each pressure, three
+      // die lengths L/R = 16, 32, 48 per bore, e ≈ 5 to 7). First-order propagation: the Bagley slope
+      // 2τ = Σ(x − x̄)P/Σ(x − x̄)² over x = L/R has σ/2τ = 0.5 % · √(16²·22² + 16²·54²)/512 ≈ 0.9 %;
+      // at a fixed stress an apparent rate goes as about τ^3 (slip exponent 2.5, bulk 1/n = 3.3), so
+      // each bore's rate scatters by ≈ 2.8 %; the Mooney slope over 1/R = 1000, 2000, 4000 1/m
+      // (Σ(x − x̄)² = 4.67e6 m⁻²) then carries ≈ 8 % at 21 kPa (rates ≈ 28, 20, 16 1/s, v_s ≈ 0.9 mm/s)
+      // and ≈ 14 % at 74 kPa, where slip is only 10 to 30 % of each bore's apparent rate.
+      // Measured by regenerating the data with seeds 1–100 (pasteSlipRows({ seed }) through reduce()
+      // and mooneySlip()): rms error of v_s 6–9 % at the five stresses below 48 kPa and 11–15 % at the
+      // three above; of the corrected viscosity 0.9–1.6 % everywhere. We allow 2.5σ: 22 % and 37 %
+      // for v_s, 4 % for the viscosity. (The same checks with 1 % noise and two die lengths needed 60 %.)
+      const SLIP_LOW = { rel: 0.22 };
+      const SLIP_HIGH = { rel: 0.37 };
+      const BULK = { rel: 0.04 };
+      for (let i = 1; i <= rows; i++) {
         const tau = toSI(hfNumber(book, f, i, 0), spec.stressUnit, "pressure");
         // generating law v_s = β·τ^m and bulk power law η = K·γ̇^(n−1): scripts/demo/pasteSlip.ts
-        expectClose(hfNumber(book, f, i, 1) * 1e-3, pasteSlipVelocity(tau), SLIP, `slip velocity at ${tau} Pa`);
+        expectClose(hfNumber(book, f, i, 1) * 1e-3, pasteSlipVelocity(tau), tau < 48e3 ? SLIP_LOW : SLIP_HIGH, `slip velocity at ${tau} Pa`);
         expectClose(hfNumber(book, f, i, 4), pasteViscosity(hfNumber(book, f, i, 3)), BULK, `slip-corrected viscosity at ${tau} Pa`);
         // the sheet's plain-formula columns restate the same laws
         expectClose(book.hf.getCellValue({ sheet: f.sheet, row: f.row + i, col: f.col + 5 }) as number, pasteSlipVelocity(tau) * 1e3, SAME, "law column v_s");
         expectClose(book.hf.getCellValue({ sheet: f.sheet, row: f.row + i, col: f.col + 6 }) as number, pasteViscosity(hfNumber(book, f, i, 3)), SAME, "law column eta");
+      }
+      // the shared stress range spans a factor > 3 (with equal piston speeds it spanned 1.13)
+      expect(toSI(hfNumber(book, f, rows, 0), spec.stressUnit, "pressure") / toSI(hfNumber(book, f, 1, 0), spec.stressUnit, "pressure")).toBeGreaterThan(3);
+    });
+
+    it("on the same test plan without noise, the Mooney analysis recovers the generating laws within 1 %", () => {
+      // closed-form reference: the Mooney (1931) relation γ̇_a = γ̇_a,noslip(τ) + 8·v_s/D with the exact
+      // capillary flow integral (scripts/demo/pasteSlip.ts); pressures written to 1e-6 bar. What remains
+      // is the log–log interpolation between rate steps a factor 2 apart: measured 0.4 % on v_s and
+      // 0.03 % on the viscosity.
+      const rows = pasteSlipRows({ pressureNoise: 0, pressureDigits: 6 });
+      const raw = readRawTable(rows.map((r, i) => (i === 0 ? r : r.map(Number))), { rowWord: "row", headerNumber: 1 });
+      const exact = reduce(raw.measurements);
+      const slip = mooneySlip(exact.groups.map((g) => ({ dieDiameter: g.dieDiameter, shearRateApparent: g.flowCurve.map((p) => p.shearRateApparent), wallShearStress: g.flowCurve.map((p) => p.wallShearStress) })));
+      expect(slip.rows).toHaveLength(8);
+      expect(slip.warnings).toEqual([]);
+      for (const r of slip.rows) {
+        expectClose(r.slipVelocity, pasteSlipVelocity(r.wallShearStress), { rel: 0.01 }, `noise-free slip velocity at ${r.wallShearStress} Pa`);
+        expectClose(r.viscosity as number, pasteViscosity(r.shearRateWall as number), { rel: 0.002 }, `noise-free viscosity at ${r.wallShearStress} Pa`);
       }
     });
   }

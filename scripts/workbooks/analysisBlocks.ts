@@ -2,8 +2,8 @@
  * The analysis blocks of the demo workbooks: what each scenario is for, written after the
  * reduction blocks of the Formulas sheet (scripts/make-workbooks.ts).
  *
- *   paste-slip   RHEO.SLIPVELOCITY (Mooney) over the REDUCE flow curves of the three bores,
- *                beside the generating slip law and bulk viscosity
+ *   paste-slip   RHEO.SLIPVELOCITY (Mooney, with its warnings) over the REDUCE flow curves of
+ *                the three bores, beside the generating slip law and bulk viscosity
  *   cream-yield  RHEO.FIT herschel-bulkley, RHEO.COMPAREFITS, RHEO.MODEL at the data rates
  *   film-grade   RHEO.SHIFTFIT (Arrhenius), RHEO.FIT cross at the reference temperature,
  *                RHEO.COGSWELL from the Bagley entrance pressure
@@ -78,9 +78,9 @@ export function slipBlocks(law: SlipLaw): AnalysisBlocks {
   return (ctx) => {
     const { ws } = ctx;
     const S = ctx.stressUnit;
-    label(ws, ctx.row, `${ctx.block}. Mooney wall-slip analysis of the three bores (RHEO.SLIPVELOCITY over the RHEO.REDUCE columns die_diameter, shear_rate_apparent, wall_shear_stress)`);
+    label(ws, ctx.row, `${ctx.block}. Mooney wall-slip analysis of the three bores (RHEO.SLIPVELOCITY over the RHEO.REDUCE columns die_diameter, shear_rate_apparent, wall_shear_stress; its warnings below)`);
     const top = ctx.row + 1;
-    const slip = place(ws, top, 1, rheo("slipVelocity", [reduceColumn(ctx, "die_diameter"), reduceColumn(ctx, "shear_rate_apparent"), reduceColumn(ctx, "wall_shear_stress"), "mm", S, true]));
+    const slip = place(ws, top, 1, rheo("slipVelocity", [reduceColumn(ctx, "die_diameter"), reduceColumn(ctx, "shear_rate_apparent"), reduceColumn(ctx, "wall_shear_stress"), "mm", S, true, true]));
     header(ws, top, slip.cols + 1, ["slip_velocity generating law [mm/s]", "viscosity generating bulk law [Pa.s]"]);
     slip.result.slice(1).forEach((r, i) => {
       const at = top + 1 + i;

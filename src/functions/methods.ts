@@ -16,6 +16,7 @@ import { pressureStandardUncertainty } from "../core/uncertainty";
 import { meltFlowPoint } from "../core/meltFlowRate";
 import { RheoError } from "../core/errors";
 import { fromSI, isUnitOf, toSI } from "../core/units";
+import { appendWarnings } from "./reduceTable";
 import { DEFAULT_SHEET_UNITS as U, Rows, atRows, booleanArg, cellError, column, guard, mapRows, readNumber, readRows, unitArg, optionalText } from "./adapter";
 
 /** Spills several values per kept row (blank rows stay blank), down a column or across a row of rows. */
@@ -132,20 +133,22 @@ export function orificePressure(orificeShearRate: unknown[][], orificePressure: 
 /**
  * Mooney wall-slip table from flow curves of two or more die diameters: wall stress, slip velocity, slip-corrected apparent rate, true wall rate, viscosity.
  * @customfunction SLIPVELOCITY
- * @example =RHEO.SLIPVELOCITY(A2:A31, C2:C31, D2:D31, "mm", "kPa", TRUE) spills the Mooney slip table for three bores.
+ * @example =RHEO.SLIPVELOCITY(A2:A31, C2:C31, D2:D31, "mm", "kPa", TRUE, TRUE) spills the Mooney slip table for three bores with its warnings below.
  * @param dieDiameter Die diameter of each flow-curve point: a column (default unit mm).
  * @param shearRateApparent Apparent shear rate of each point in 1/s (same length).
  * @param wallShearStress End-corrected wall shear stress of each point (same length; default unit Pa).
  * @param lengthUnit Unit of dieDiameter (default mm).
  * @param stressUnit Unit of wallShearStress and of the stress column (default Pa).
  * @param header TRUE to put a header row above the table (default FALSE).
+ * @param showWarnings TRUE to list the analysis's warnings below the table: a blank row, then code and message per row (default FALSE).
  * @returns Columns: wall stress, slip velocity [mm/s], corrected apparent rate [1/s], true wall rate [1/s], viscosity [Pa.s].
  */
-export function slipVelocity(dieDiameter: unknown[][], shearRateApparent: unknown[][], wallShearStress: unknown[][], lengthUnit?: string, stressUnit?: string, header?: boolean): unknown[][] {
+export function slipVelocity(dieDiameter: unknown[][], shearRateApparent: unknown[][], wallShearStress: unknown[][], lengthUnit?: string, stressUnit?: string, header?: boolean, showWarnings?: boolean): unknown[][] {
   return guard("slipVelocity", () => {
     const l = unitArg(lengthUnit, "lengthUnit", "length", U.length);
     const s = unitArg(stressUnit, "stressUnit", "pressure", U.stress);
     const withHeader = booleanArg(header, "header", false);
+    const withWarnings = booleanArg(showWarnings, "showWarnings", false);
     const rows = readRows([
       { argument: "dieDiameter", range: dieDiameter, quantity: "length", unit: l },
       { argument: "shearRateApparent", range: shearRateApparent },
@@ -163,7 +166,9 @@ export function slipVelocity(dieDiameter: unknown[][], shearRateApparent: unknow
     const result = mooneySlip([...byD.entries()].map(([dia, c]) => ({ dieDiameter: dia, shearRateApparent: c.rates, wallShearStress: c.stresses })));
     const table: unknown[][] = result.rows.map((r) => [fromSI(r.wallShearStress, s, "pressure"), r.slipVelocity * 1e3, r.shearRateApparentCorrected, r.shearRateWall ?? "", r.viscosity ?? ""]);
     if (table.length === 0) throw new RheoError("missing", "wallShearStress", "no stress gave a positive slip-corrected rate");
-    return withHeader ? [[`wall_shear_stress [${s}]`, "slip_velocity [mm/s]", "shear_rate_apparent_corrected [1/s]", "shear_rate_wall [1/s]", "viscosity [Pa.s]"], ...table] : table;
+    const out = withHeader ? [[`wall_shear_stress [${s}]`, "slip_velocity [mm/s]", "shear_rate_apparent_corrected [1/s]", "shear_rate_wall [1/s]", "viscosity [Pa.s]"], ...table] : table;
+    if (withWarnings) appendWarnings(out, result.warnings);
+    return out;
   });
 }
 

@@ -89,8 +89,8 @@ export function reduceTable(a: ReduceArgs): unknown[][] {
   return table;
 }
 
-/** Appends a blank row and one `[code, message]` row per warning, padded to the table width. */
-function appendWarnings(table: unknown[][], warnings: Warning[]): void {
+/** Appends a blank row and one `[code, message]` row per warning (or `warnings | none`), padded to the table width. */
+export function appendWarnings(table: unknown[][], warnings: Warning[]): void {
   const width = (table[0] as unknown[]).length;
   const pad = (cells: unknown[]) => [...cells, ...new Array<unknown>(width - cells.length).fill("")];
   table.push(pad([]));
