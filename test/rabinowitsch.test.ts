@@ -122,5 +122,9 @@ describe("errors", () => {
   test("repeated rate", () => expect(() => rabinowitschCorrection([10, 10, 20], [1, 1, 2])).toThrow(/contains the rate 10 1\/s twice/));
   test("unknown method", () => expect(() => rabinowitschCorrection([10, 20], [1, 2], { method: "spline" as never })).toThrow('method: unknown method "spline"; accepted: transition, local, global, difference'));
   test("degree out of range", () => expect(() => rabinowitschCorrection([10, 20], [1, 2], { method: "global", degree: 4 })).toThrow("degree: must be a whole number from 1 to 3 for the global method, got 4"));
-  test("window too small", () => expect(() => rabinowitschCorrection([10, 20], [1, 2], { window: 2 })).toThrow("window: must be a whole number of at least 3, got 2"));
+  test("window too small, even, or too small for the degree", () => {
+    expect(() => rabinowitschCorrection([10, 20], [1, 2], { window: 2 })).toThrow("window: must be an odd whole number of at least 3 (the point and its neighbours on each side), got 2");
+    expect(() => rabinowitschCorrection([10, 20], [1, 2], { window: 6 })).toThrow(/window: must be an odd whole number/);
+    expect(() => rabinowitschCorrection([10, 20], [1, 2], { method: "local", degree: 2, window: 3 })).toThrow("window: must hold at least degree + 2 = 4 points so the local fit is smoothed, got 3");
+  });
 });

@@ -78,8 +78,11 @@ function resolve(options: Partial<RabinowitschOptions>): RabinowitschOptions {
   if (!Number.isInteger(opt.degree) || opt.degree < 1 || opt.degree > maxDegree) {
     throw new RheoError("value", "degree", `must be a whole number from 1 to ${maxDegree} for the ${opt.method} method, got ${opt.degree}`);
   }
-  if (!Number.isInteger(opt.window) || opt.window < 3) {
-    throw new RheoError("value", "window", `must be a whole number of at least 3, got ${opt.window}`);
+  if (!Number.isInteger(opt.window) || opt.window < 3 || opt.window % 2 === 0) {
+    throw new RheoError("value", "window", `must be an odd whole number of at least 3 (the point and its neighbours on each side), got ${opt.window}`);
+  }
+  if (opt.method === "local" && opt.window < opt.degree + 2) {
+    throw new RheoError("value", "window", `must hold at least degree + 2 = ${opt.degree + 2} points so the local fit is smoothed, got ${opt.window}`);
   }
   return opt;
 }
