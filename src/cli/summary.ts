@@ -27,13 +27,19 @@ export function reductionSummary(result: ReductionResult, inputWarnings: Warning
       `n' ${span(g.flowCurve.map((f) => f.nPrime), 2)}`,
     ];
     if (g.bagley.length > 0) parts.push(`Bagley e ${span(g.bagley.map((b) => b.endCorrection), 2)}`);
-    const best = fits?.[i]?.ranked[0];
+    // The lowest AIC whose parameters are all determined by the data; a lower-AIC model with a
+    // parameter whose standard error exceeds its value is named beside it, not as the answer.
+    const ranked = fits?.[i]?.ranked ?? [];
+    const determined = (r: (typeof ranked)[number]) => !r.result.warnings.some((w) => w.code === "POORLY_DETERMINED");
+    const best = ranked.find(determined) ?? ranked[0];
     if (best) {
       const p = Object.entries(best.result.parameters)
         .filter(([name]) => !best.result.fixed.includes(name))
         .map(([name, v]) => `${name} ${num(v, 3)}`)
         .join(", ");
-      parts.push(`best fit ${best.model} (${p})`);
+      const better = ranked.filter((r) => r.aic < best.aic && !determined(r)).map((r) => r.model);
+      const note = better.length > 0 ? ` (lower AIC but poorly determined parameters: ${better.join(", ")})` : determined(best) ? "" : " (poorly determined parameters)";
+      parts.push(`best fit ${best.model} (${p})${note}`);
     }
     out.push(`  ${t}, D ${num(g.dieDiameter * 1e3)} mm, ${g.dies.length} dies: ${parts.join("; ")}`);
   });
