@@ -188,7 +188,7 @@ export async function writeWorkbookPlan(
       return names;
     });
   } catch (error) {
-    return removeCreatedAndRethrow(run, created, error, "sheets", "them");
+    return removeCreatedAndRethrow(run, created, error);
   }
 }
 
@@ -196,7 +196,8 @@ export async function writeWorkbookPlan(
  * After a failed write: deletes the sheets it `created` (in a batch of their own) and rethrows
  * `error`; when the deletion fails too, throws one error naming both and the sheets left behind.
  */
-async function removeCreatedAndRethrow(run: ExcelBatch, created: readonly string[], error: unknown, noun: "sheet" | "sheets", pronoun: "it" | "them"): Promise<never> {
+async function removeCreatedAndRethrow(run: ExcelBatch, created: readonly string[], error: unknown): Promise<never> {
+  const [noun, pronoun] = created.length === 1 ? ["sheet", "it"] : ["sheets", "them"];
   try {
     await deleteSheets(run, created);
   } catch (cleanup) {
@@ -236,6 +237,6 @@ export async function writeNewSheet(run: ExcelBatch, base: string, makePlan: (na
       return name;
     });
   } catch (error) {
-    return removeCreatedAndRethrow(run, created, error, "sheet", "it");
+    return removeCreatedAndRethrow(run, created, error);
   }
 }

@@ -42,21 +42,30 @@ export function residualProblem(
    * Turns the fast path's ln η (in `residuals`) and ∂ln η/∂p (in `modelGradient`, n × parameters)
    * into r and ∂r/∂u in place; false when some value is not finite.
    */
+  /**
+   * Writes r_i from the model's ln η at point i and returns ∂r_i/∂ln η (the weight, times η for
+   * linear residuals); NaN when r_i is not finite.
+   */
+  const residualAt = (i: number, lnEta: number, residuals: Float64Array): number => {
+    const sw = sqrtWeight[i] as number;
+    let r: number;
+    let scale = sw;
+    if (logSpace) {
+      r = sw * (lnEta - (logViscosity[i] as number));
+    } else {
+      const eta = Math.exp(lnEta);
+      r = sw * (eta - (viscosity[i] as number));
+      scale = sw * eta;
+    }
+    if (!Number.isFinite(r)) return NaN;
+    residuals[i] = r;
+    return scale;
+  };
+
   const fromLogCurve = (residuals: Float64Array, jacobian: Float64Array | null, modelGradient: Float64Array | null): boolean => {
     for (let i = 0; i < n; i++) {
-      const sw = sqrtWeight[i] as number;
-      const lnEta = residuals[i] as number;
-      let r: number;
-      let scale = sw;
-      if (logSpace) {
-        r = sw * (lnEta - (logViscosity[i] as number));
-      } else {
-        const eta = Math.exp(lnEta);
-        r = sw * (eta - (viscosity[i] as number));
-        scale = sw * eta;
-      }
-      if (!Number.isFinite(r)) return false;
-      residuals[i] = r;
+      const scale = residualAt(i, residuals[i] as number, residuals);
+      if (Number.isNaN(scale)) return false;
       if (!jacobian || !modelGradient) continue;
       const row = i * k;
       const from = i * parameterCount;
@@ -95,20 +104,8 @@ export function residualProblem(
         return true;
       }
       for (let i = 0; i < n; i++) {
-        const sw = sqrtWeight[i] as number;
-        const lnEta = def.logGradient(p, rates[i] as number, temperature[i] as number, gradient);
-        let r: number;
-        let scale: number;
-        if (logSpace) {
-          r = sw * (lnEta - (logViscosity[i] as number));
-          scale = sw;
-        } else {
-          const eta = Math.exp(lnEta);
-          r = sw * (eta - (viscosity[i] as number));
-          scale = sw * eta;
-        }
-        if (!Number.isFinite(r)) return false;
-        residuals[i] = r;
+        const scale = residualAt(i, def.logGradient(p, rates[i] as number, temperature[i] as number, gradient), residuals);
+        if (Number.isNaN(scale)) return false;
         const row = i * k;
         for (let f = 0; f < k; f++) {
           const v = scale * (gradient[columns[f] as number] as number) * (dpdu[f] as number);
