@@ -13,50 +13,45 @@ import { sheetPlanHtml } from "./preview";
 /** The Planner's fields start empty in Excel (the placeholders show examples). */
 const EMPTY_PLANNER: Partial<PlannerForm> = { dies: "", transducers: "", barrelDiameter: "", usableLength: "", shearRateMin: "", shearRateMax: "", points: "8", prior: "power-law", powerLawK: "", powerLawN: "", priorModel: "", priorParameters: "", dwellTime: "", density: "", compressibility: "", timePerLoad: "" };
 
+/** The Planner's text fields and the id of the input holding each (one table for reading and writing). */
+const TEXT_FIELDS = {
+  barrelDiameter: "planBarrel",
+  usableLength: "planUsableLength",
+  dies: "planDies",
+  transducers: "planTransducers",
+  shearRateMin: "planRateMin",
+  shearRateMax: "planRateMax",
+  points: "planPoints",
+  powerLawK: "planK",
+  powerLawN: "planN",
+  priorParameters: "planParameters",
+  mfr: "planMfr",
+  mfrLoad: "planMfrLoad",
+  dwellTime: "planDwell",
+  density: "planDensity",
+  compressibility: "planCompressibility",
+  timePerLoad: "planTimePerLoad",
+} as const satisfies Partial<Record<keyof PlannerForm, string>>;
+
+type TextField = keyof typeof TEXT_FIELDS;
+
+function textInput(field: TextField): HTMLInputElement | HTMLTextAreaElement {
+  return byId<HTMLInputElement | HTMLTextAreaElement>(TEXT_FIELDS[field]);
+}
+
 function readPlannerForm(): PlannerForm {
-  const v = (id: string) => byId<HTMLInputElement | HTMLTextAreaElement>(id).value;
+  const text = Object.fromEntries((Object.keys(TEXT_FIELDS) as TextField[]).map((f) => [f, textInput(f).value])) as Record<TextField, string>;
   return {
-    barrelDiameter: v("planBarrel"),
-    usableLength: v("planUsableLength"),
-    dies: v("planDies"),
-    transducers: v("planTransducers"),
-    shearRateMin: v("planRateMin"),
-    shearRateMax: v("planRateMax"),
-    points: v("planPoints"),
+    ...text,
     prior: byId<HTMLSelectElement>("planPrior").value as PlannerForm["prior"],
-    powerLawK: v("planK"),
-    powerLawN: v("planN"),
     priorModel: byId<HTMLSelectElement>("planModel").value,
-    priorParameters: v("planParameters"),
-    mfr: v("planMfr"),
-    mfrLoad: v("planMfrLoad"),
-    dwellTime: v("planDwell"),
-    density: v("planDensity"),
-    compressibility: v("planCompressibility"),
-    timePerLoad: v("planTimePerLoad"),
   };
 }
 
 function writePlannerForm(f: PlannerForm): void {
-  const set = (id: string, value: string) => (byId<HTMLInputElement | HTMLTextAreaElement>(id).value = value);
-  set("planBarrel", f.barrelDiameter);
-  set("planUsableLength", f.usableLength);
-  set("planDies", f.dies);
-  set("planTransducers", f.transducers);
-  set("planRateMin", f.shearRateMin);
-  set("planRateMax", f.shearRateMax);
-  set("planPoints", f.points);
+  for (const field of Object.keys(TEXT_FIELDS) as TextField[]) textInput(field).value = f[field];
   byId<HTMLSelectElement>("planPrior").value = f.prior;
-  set("planK", f.powerLawK);
-  set("planN", f.powerLawN);
   fillModelSelect(byId<HTMLSelectElement>("planModel"), f.priorModel);
-  set("planParameters", f.priorParameters);
-  set("planMfr", f.mfr);
-  set("planMfrLoad", f.mfrLoad);
-  set("planDwell", f.dwellTime);
-  set("planDensity", f.density);
-  set("planCompressibility", f.compressibility);
-  set("planTimePerLoad", f.timePerLoad);
   updatePriorFields();
 }
 
