@@ -160,6 +160,6 @@ describe("bad fit flags exit 1 with a message naming the flag and print nothing 
   test("one temperature only", () => {
     const { code, stdout, stderr } = run(["reduce", "one.csv", "--shift", "arrhenius", "--tref", "210 C"], { "one.csv": oneTemperature });
     expect({ code, stdout }).toEqual({ code: 1, stdout: "" });
-    expect(stderr).toMatch(/^rheoledger: --shift: needs flow curves at two or more temperatures; the file has only 210 °C, 1 mm/);
+    expect(stderr).toMatch(/^rheoledger: --shift: needs flow curves at two or more temperatures; the file has only 210 °C, D 1 mm/);
   });
 });

@@ -8,7 +8,7 @@ import { RheoError, type Warning } from "../core/errors";
 import { fitModel, type FitResult } from "../core/fit";
 import { fitFlowCurves, type GroupFits } from "../core/flowCurveFits";
 import { getModel, MODEL_IDS } from "../core/models";
-import type { ReductionGroup, ReductionResult } from "../core/reduce";
+import { groupLabel, type ReductionGroup, type ReductionResult } from "../core/reduce";
 import { fitArrheniusShift, fitWlfShift, type ArrheniusShiftFit, type TemperatureCurve, type WlfShiftFit } from "../core/temperature";
 import { toSI } from "../core/units";
 import { FlagSpec, ParsedArgs, splitQuantity } from "./args";
@@ -37,17 +37,12 @@ function trueCurve(g: ReductionGroup): { shearRate: number[]; viscosity: number[
   return { shearRate: points.map((p) => p.shearRateWall as number), viscosity: points.map((p) => p.viscosity as number) };
 }
 
-function groupName(g: ReductionGroup): string {
-  const t = g.temperature === null ? "no temperature" : `${num(g.temperature - 273.15)} °C`;
-  return `${t}, ${num(g.dieDiameter * 1e3)} mm`;
-}
-
 /** Re-raises a core error with the flag and the group in front, keeping its kind. */
 function inGroup<T>(flag: string, g: ReductionGroup, call: () => T): T {
   try {
     return call();
   } catch (e) {
-    if (e instanceof RheoError) throw new RheoError(e.kind, flag, `group ${groupName(g)}: ${e.message}`);
+    if (e instanceof RheoError) throw new RheoError(e.kind, flag, `group ${groupLabel(g)}: ${e.message}`);
     throw e;
   }
 }
@@ -106,7 +101,7 @@ function shiftCurves(result: ReductionResult): { curves: TemperatureCurve[]; die
   for (const g of withT) byDiameter.set(g.dieDiameter, [...(byDiameter.get(g.dieDiameter) ?? []), g]);
   const [dieDiameter, groups] = [...byDiameter.entries()].sort((a, b) => b[1].length - a[1].length)[0] as [number, ReductionGroup[]];
   if (groups.length < 2) {
-    throw new RheoError("missing", "--shift", `needs flow curves at two or more temperatures; the file has only ${groupName(groups[0] as ReductionGroup)}`);
+    throw new RheoError("missing", "--shift", `needs flow curves at two or more temperatures; the file has only ${groupLabel(groups[0] as ReductionGroup)}`);
   }
   const curves = groups.map((g) => ({ temperature: g.temperature as number, ...trueCurve(g) }));
   return { curves, dieDiameter };
@@ -174,7 +169,7 @@ export function fitReportText(report: FitReport, result: ReductionResult): strin
   result.groups.forEach((g, i) => {
     const fit = report.fits?.[i];
     if (fit) {
-      out.push(`== ${groupName(g)}: ${fit.model} fit, ${fit.converged ? "converged" : `NOT converged (${fit.stopReason})`}, R² ${fit.r2.toFixed(5)}, ${fit.pointCount} points`);
+      out.push(`== ${groupLabel(g)}: ${fit.model} fit, ${fit.converged ? "converged" : `NOT converged (${fit.stopReason})`}, R² ${fit.r2.toFixed(5)}, ${fit.pointCount} points`);
       out.push(
         table(
           ["parameter", "value", "std error", "95 % CI", "unit"],
@@ -189,7 +184,7 @@ export function fitReportText(report: FitReport, result: ReductionResult): strin
     }
     const c = report.comparisons?.[i];
     if (c) {
-      out.push(`== ${groupName(g)}: models ranked by AIC`);
+      out.push(`== ${groupLabel(g)}: models ranked by AIC`);
       out.push(
         table(
           ["rank", "model", "AIC", "ΔAIC", "weight", "R²"],

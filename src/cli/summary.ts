@@ -5,7 +5,7 @@
  */
 import type { Warning } from "../core/errors";
 import type { GroupFits } from "../core/flowCurveFits";
-import type { ReductionResult } from "../core/reduce";
+import { groupLabel, type ReductionResult } from "../core/reduce";
 import { num } from "./format";
 
 function span(values: number[], digits = 3): string {
@@ -17,7 +17,6 @@ function span(values: number[], digits = 3): string {
 export function reductionSummary(result: ReductionResult, inputWarnings: Warning[], fits?: GroupFits[]): string {
   const out: string[] = [`Reduced ${result.groups.length} group${result.groups.length === 1 ? "" : "s"}:`];
   result.groups.forEach((g, i) => {
-    const t = g.temperature === null ? "no temperature" : `${num(g.temperature - 273.15)} °C`;
     const rates = g.flowCurve.map((f) => f.shearRateWall).filter((v): v is number => v !== null);
     const etas = g.flowCurve.map((f) => f.viscosity).filter((v): v is number => v !== null);
     const parts = [
@@ -41,7 +40,7 @@ export function reductionSummary(result: ReductionResult, inputWarnings: Warning
       const note = better.length > 0 ? ` (lower AIC but poorly determined parameters: ${better.join(", ")})` : determined(best) ? "" : " (poorly determined parameters)";
       parts.push(`best fit ${best.model} (${p})${note}`);
     }
-    out.push(`  ${t}, D ${num(g.dieDiameter * 1e3)} mm, ${g.dies.length} dies: ${parts.join("; ")}`);
+    out.push(`  ${g.temperature === null ? "no temperature, " : ""}${groupLabel(g)}, ${g.dies.length} dies: ${parts.join("; ")}`);
   });
   const warnings = [...inputWarnings, ...result.warnings];
   const codes = [...new Set(warnings.map((w) => w.code))];

@@ -107,11 +107,8 @@ function sentence(text: string): string {
   return (t.charAt(0).toUpperCase() + t.slice(1)).replace(/([^.])$/, "$1.");
 }
 
-/** A short label of a group: "190 °C, D 1 mm". */
-export function groupLabel(g: Pick<ReductionGroup, "temperature" | "dieDiameter">): string {
-  const t = g.temperature === null ? "" : `${Number((g.temperature - 273.15).toFixed(1))} °C, `;
-  return `${t}D ${Number((g.dieDiameter * 1e3).toPrecision(4))} mm`;
-}
+import { groupLabel } from "../core/grouping";
+export { groupLabel };
 
 function logGrid(lo: number, hi: number, n: number): number[] {
   if (!(hi > lo)) return [lo];
