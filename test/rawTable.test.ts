@@ -52,7 +52,7 @@ describe("readRawTable(cells)", () => {
     const t = readRawTable([HEADER, [1, 20, 15, 60, 100, 200], [null, "", null, null, null, null], [1, 20, 15, 60, "", 200]]);
     expect(t.measurements).toHaveLength(1);
     expect(t.skippedRows).toEqual([4]);
-    expect(t.warnings[0]).toEqual({ code: "ROW_SKIPPED_BLANK", message: "row 4 skipped: blank pressure." });
+    expect(t.warnings[0]).toEqual({ code: "ROW_SKIPPED_BLANK", message: "row 4 skipped: blank pressure.", severity: "info" });
   });
   test("unknown columns are ignored with a warning", () => {
     const t = readRawTable([[...HEADER, "operator"], [1, 20, 15, 60, 100, 200, "J"]]);

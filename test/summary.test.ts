@@ -8,6 +8,7 @@ import { reduce, Measurement } from "../src/core/reduce";
 import { fitFlowCurves, GroupFits } from "../src/core/flowCurveFits";
 import { RankedFit } from "../src/core/fit";
 import { flowRateForApparentShearRate } from "../src/core/capillary";
+import { warning } from "../src/core/errors";
 
 /** Newtonian liquid, 1000 Pa·s, dies L = 10 and 20 mm of 1 mm bore, e = 2 (Hagen–Poiseuille + Bagley). */
 function newtonian(): Measurement[] {
@@ -17,7 +18,7 @@ function newtonian(): Measurement[] {
 }
 
 function withWarning(fit: RankedFit, code: string): RankedFit {
-  return { ...fit, result: { ...fit.result, warnings: [...fit.result.warnings, { code, message: "test" }] } };
+  return { ...fit, result: { ...fit.result, warnings: [...fit.result.warnings, warning(code, "test")] } };
 }
 
 test("names the lowest-AIC well-determined model and the poorly determined ones it passed over", () => {

@@ -7,6 +7,10 @@
  * `convergence`; the CLI prints the message and exits non-zero.
  */
 
+import { type WarningSeverity, warningSeverity } from "./warningCodes";
+
+export type { WarningSeverity } from "./warningCodes";
+
 /** Why a calculation was refused. */
 export type RheoErrorKind =
   /** wrong type, text where a number belongs, unknown unit or option */
@@ -18,31 +22,85 @@ export type RheoErrorKind =
   /** an iterative method did not reach a trustworthy answer */
   | "convergence";
 
-/** An error raised by the calculation core. `argument` names the input at fault. */
+/** Default {@link RheoError.code} of each kind, when the thrower gives no more specific code. */
+export const DEFAULT_ERROR_CODES: Readonly<Record<RheoErrorKind, string>> = Object.freeze({
+  value: "INVALID_VALUE",
+  missing: "MISSING_INPUT",
+  domain: "OUT_OF_RANGE",
+  convergence: "NOT_CONVERGED",
+});
+
+/** What {@link RheoError.retarget} may change. */
+export interface RheoErrorAddress {
+  /** the argument as the caller's user knows it (a flag, a field, a worksheet argument) */
+  argument?: string;
+  /** the row as the caller counts it; `null` removes the row */
+  row?: number | null;
+  /** a phrase put before the detail, e.g. "group 190 °C, D 1 mm:" */
+  context?: string;
+}
+
+/**
+ * An error raised by the calculation core. `argument` names the input at fault, `row` the row,
+ * `detail` says what is wrong (without the argument and row), `code` is a stable UPPER_SNAKE
+ * identifier (tools and surfaces match on it, never on the text). The message is
+ * "argument: row N detail".
+ */
 export class RheoError extends Error {
   readonly kind: RheoErrorKind;
   readonly argument: string;
   /** 1-based row (data row, not counting a header) when a single row is at fault. */
   readonly row: number | undefined;
+  /** what is wrong, in plain words, without the argument and row */
+  readonly detail: string;
+  /** stable identifier: {@link DEFAULT_ERROR_CODES} of the kind unless the thrower names one */
+  readonly code: string;
 
-  constructor(kind: RheoErrorKind, argument: string, message: string, row?: number) {
-    super(`${argument}: ${row !== undefined ? `row ${row} ` : ""}${message}`);
+  constructor(kind: RheoErrorKind, argument: string, detail: string, row?: number, code?: string) {
+    super(`${argument}: ${row !== undefined ? `row ${row} ` : ""}${detail}`);
     this.name = "RheoError";
     this.kind = kind;
     this.argument = argument;
     this.row = row;
+    this.detail = detail;
+    this.code = code ?? DEFAULT_ERROR_CODES[kind];
+  }
+
+  /**
+   * The same error addressed the way the caller's user sees it: another argument name, another
+   * row (or none), a context phrase before the detail. Kind and code are kept.
+   * @example new RheoError("value", "fullScale", "must be positive").retarget({ argument: "--transducer" }).message
+   *   // "--transducer: must be positive"
+   */
+  retarget(address: RheoErrorAddress): RheoError {
+    const row = address.row === null ? undefined : address.row ?? this.row;
+    const detail = address.context ? `${address.context} ${this.detail}` : this.detail;
+    return new RheoError(this.kind, address.argument ?? this.argument, detail, row, this.code);
   }
 }
 
-/** A non-fatal finding. `code` is stable (tools may match on it); `message` is plain language. */
+/**
+ * A non-fatal finding. `code` is stable and registered in warningCodes.ts (tools may match on it);
+ * `message` is plain language; `severity` comes from the registry; `scope` names the group or
+ * stage it belongs to (a group label, "input", "fit", "shift"), when known.
+ */
 export interface Warning {
   code: string;
   message: string;
+  severity: WarningSeverity;
+  scope?: string;
 }
 
-/** Builds a warning record. */
-export function warning(code: string, message: string): Warning {
-  return { code, message };
+/** Builds a warning record; the severity comes from the code's registry entry. */
+export function warning(code: string, message: string, scope?: string): Warning {
+  const w: Warning = { code, message, severity: warningSeverity(code) };
+  if (scope !== undefined) w.scope = scope;
+  return w;
+}
+
+/** The warning with its message prefixed by `scope` ("scope: message") and its scope set. */
+export function scoped(w: Warning, scope: string): Warning {
+  return { ...w, message: `${scope}: ${w.message}`, scope };
 }
 
 /**

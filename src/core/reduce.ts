@@ -14,7 +14,7 @@
  * representative rate, uncertainty, heating, extensional viscosity, pressure dependence, melt
  * flow rate) are applied by reduceMethods.ts and add fields; the basic fields never change.
  */
-import { RheoError, Warning } from "./errors";
+import { RheoError, Warning, scoped } from "./errors";
 import { meltFlowPoint } from "./meltFlowRate";
 import { applyGroupMethods, fittedTemperatureCoefficients, slipAcrossGroups } from "./reduceMethods";
 import { DEFAULT_REDUCE_OPTIONS, Measurement, ReduceOptions, ReductionResult } from "./reduceTypes";
@@ -53,7 +53,7 @@ export function reduce(measurements: Measurement[], options: Partial<ReduceOptio
     Object.assign(group, methods.results);
     group.warnings.push(...methods.warnings);
     const label = groupLabel(group);
-    warnings.push(...group.warnings.map((w) => ({ code: w.code, message: `${label}: ${w.message}` })));
+    warnings.push(...group.warnings.map((w) => scoped(w, label)));
   }
   const result: ReductionResult = { groups, warnings };
   if (opt.slip !== false) {

@@ -201,7 +201,7 @@ export function slipAcrossGroups(groups: ReductionGroup[], options: Partial<Slip
     );
     analysed++;
     rows.push(...r.rows.map((row) => ({ temperature, ...row })));
-    warnings.push(...r.warnings.map((w) => ({ code: w.code, message: `${label}${w.message}` })));
+    warnings.push(...r.warnings.map((w) => ({ ...w, message: `${label}${w.message}` })));
   }
   if (analysed === 0) {
     throw new RheoError("missing", "dieDiameter", "the slip analysis needs round dies of two or more diameters at one temperature");

@@ -1,0 +1,74 @@
+/**
+ * The words of the warning codes of src/core/warningCodes.ts: a short plain-language title (the
+ * heading the pane, the workbook and the reports show) and one line on when it is raised and what
+ * to do (the generated table in docs/methods.md). The keys are exactly the registry's
+ * (test/warningCodes.test.ts).
+ */
+import { WARNING_CODES, isWarningCode, type WarningCode, type WarningSeverity } from "../core/warningCodes";
+
+/** Title and description of one code. */
+export interface WarningText {
+  title: string;
+  description: string;
+}
+
+export const WARNING_CATALOG: Readonly<Record<WarningCode, WarningText>> = Object.freeze({
+  COLUMN_IGNORED: { title: "Column not used", description: "A column whose header is not a known quantity was left out of the calculation." },
+  ROW_SKIPPED_BLANK: { title: "Blank row skipped", description: "A data row with blank cells in required columns was skipped; the row number is given." },
+  TEMPERATURE_IGNORED: { title: "Temperature not used by the model", description: "An isothermal model was fitted; the temperature column played no part in it." },
+  BAGLEY_FEW_DIES: { title: "Few dies for the Bagley correction", description: "Fewer than three die lengths: a straight Bagley line cannot be checked for curvature." },
+  BAGLEY_LOW_R2: { title: "Bagley lines not straight", description: "R² of a Bagley line below the limit: check the data, or pressure dependence of viscosity." },
+  BAGLEY_NEGATIVE_END_CORRECTION: { title: "Negative end correction", description: "A Bagley intercept below zero is unphysical: check die lengths, pressures and the zero of the transducer." },
+  BAGLEY_END_CORRECTION_SCATTER: { title: "End correction scatters", description: "The end correction e varies more between neighbouring rates than a smooth trend allows." },
+  BAGLEY_RATES_INTERPOLATED: { title: "Rates interpolated between dies", description: "Dies were not run at identical rates; pressures were interpolated (log–log) to common rates." },
+  BAGLEY_RATE_DROPPED: { title: "Rates reached by one die only", description: "Rates that fewer than two dies reach have no Bagley line and were left out (listed)." },
+  BAGLEY_NONPOSITIVE_SLOPE: { title: "Bagley line does not rise", description: "Pressure does not rise with L/R at some rates: no wall stress can be derived there." },
+  END_CORRECTION_NONE: { title: "No end correction", description: "The wall stress of the longest die includes its entrance loss and is overestimated." },
+  ORIFICE_DIE_NOT_ON_BAGLEY: { title: "Orifice die kept off the Bagley line", description: "A die with L/D below the orifice limit is used only for the entrance pressure." },
+  ORIFICE_RATE_OUTSIDE: { title: "Orifice die does not cover the rate", description: "The orifice die was not run over the whole rate range of the long die; those rates have no orifice correction." },
+  ORIFICE_PRESSURE_TOO_HIGH: { title: "Orifice pressure at or above the long die's", description: "The orifice pressure is not below the long die's pressure: the corrected wall stress would not be positive." },
+  ORIFICE_BAGLEY_DISAGREE: { title: "Orifice and Bagley disagree", description: "The two entrance-pressure estimates differ by more than the limit." },
+  RABINOWITSCH_FEW_POINTS: { title: "Few points for the Rabinowitsch slope", description: "Too few flow-curve points for the chosen smoother; a simpler curve was used." },
+  RABINOWITSCH_NONPOSITIVE_SLOPE: { title: "No true wall rate at some points", description: "The smoothed slope n′ is not positive there; no true wall rate or viscosity is given." },
+  RABINOWITSCH_NPRIME_RANGE: { title: "Unusual flow index n′", description: "n′ lies outside the range usual for polymer melts and suspensions." },
+  REPRESENTATIVE_RATE_DISAGREES: { title: "Representative-rate check disagrees", description: "The Schümmer representative-rate viscosity differs from the Rabinowitsch result by more than the limit." },
+  SLIT_NARROW: { title: "Narrow slit", description: "W/H is small: the side walls slow the flow and the infinite-slit formulas overestimate the rate." },
+  SLIP_ONE_DIAMETER: { title: "Slip needs several bores", description: "The Mooney analysis needs two or more die bores at one temperature." },
+  SLIP_FEW_DIAMETERS: { title: "Few bores for slip", description: "Two bores give a slip line without a check of its straightness." },
+  SLIP_STRESS_OVERLAP_NARROW: { title: "Bores overlap little", description: "The die bores share only a narrow range of wall stress." },
+  SLIP_NEGATIVE_VELOCITY: { title: "Negative slip velocity", description: "A negative slip velocity is unphysical: the bores' data disagree beyond slip." },
+  SLIP_CORRECTED_RATE_NONPOSITIVE: { title: "Slip correction removes all flow", description: "The slip-corrected apparent rate is not positive at some stresses." },
+  COGSWELL_ROUND_ONLY: { title: "Cogswell for round dies only", description: "The extensional estimate is given for round dies only." },
+  COGSWELL_POINT_SKIPPED: { title: "Extensional point skipped", description: "A point without entrance pressure or true wall rate has no extensional estimate." },
+  COGSWELL_LOW_TROUTON: { title: "Trouton ratio below 3", description: "An extensional viscosity below three times the shear viscosity is not expected; check the entrance pressure." },
+  HEATING_ADIABATIC_RISE: { title: "Viscous heating", description: "The adiabatic temperature rise exceeds the limit: the viscosity at high rates is underestimated." },
+  HEATING_NAHME: { title: "Viscosity coupled to heating", description: "The Nahme–Griffith number exceeds the limit: viscous heating changes the viscosity along the die." },
+  PRESSURE_DEPENDENCE: { title: "Viscosity rises with pressure", description: "The Bagley lines bend upwards: the straight-line end correction is biased at those rates." },
+  PRESSURE_CURVATURE_DOWNWARD: { title: "Bagley lines bend downwards", description: "Downward curvature is not pressure dependence: look for slip, heating or a die-length error." },
+  PRESSURE_FEW_DIES: { title: "Pressure dependence needs three dies", description: "The curvature of a Bagley line needs three or more die lengths." },
+  PRESSURE_FIT_NOT_CONVERGED: { title: "Pressure-dependence fit failed", description: "The curved Bagley fit did not converge at some rates." },
+  TRANSDUCER_LOW_READING: { title: "Low transducer reading", description: "Readings below the usable fraction of the transducer's full scale have a large relative uncertainty." },
+  TRANSDUCER_OVER_RANGE: { title: "Transducer over range", description: "A reading exceeds the transducer's full scale." },
+  MFR_APPARENT_POINT: { title: "Melt-flow-rate point is apparent", description: "The MFR point is uncorrected (no Bagley, no Rabinowitsch) and is shown for comparison only." },
+  MFR_UNUSUAL_LOAD: { title: "Unusual MFR load", description: "The load is not one of the standard loads." },
+  NOT_CONVERGED: { title: "Fit did not converge", description: "The fit stopped before converging; its parameters are not reliable." },
+  SINGULAR_COVARIANCE: { title: "Parameters not separable", description: "The data cannot separate the model's parameters (singular covariance); no standard errors." },
+  PARAMETER_AT_BOUND: { title: "Parameter at its bound", description: "A parameter ended at a bound of its allowed range; the data do not determine it." },
+  POORLY_DETERMINED: { title: "Parameter poorly determined", description: "A parameter's standard error is as large as its value: the data do not determine it." },
+  FIT_FAILED: { title: "Model not fitted", description: "A model could not be fitted to a group; the reason is given." },
+  FIT_SKIPPED: { title: "No model fitted", description: "A group had too few corrected points for a model fit." },
+  REFERENCE_OUTSIDE_DATA: { title: "Reference temperature outside the data", description: "The master curve is extrapolated to a reference temperature outside the measured range." },
+  PLAN_PRESSURE_OVER_FULL_SCALE: { title: "Predicted pressure over full scale", description: "A planned step's predicted pressure exceeds the transducer's full scale." },
+  PLAN_PRESSURE_NEAR_FULL_SCALE: { title: "Predicted pressure near full scale", description: "A planned step's predicted pressure is close to the transducer's full scale." },
+  PLAN_PRESSURE_LOW: { title: "Predicted pressure low", description: "A planned step's predicted pressure is a small fraction of full scale." },
+  PLAN_NO_TRANSDUCER_COVERS: { title: "No transducer covers the step", description: "No transducer of the list covers a planned step's predicted pressure." },
+  PLAN_BARREL_CAPACITY_EXCEEDED: { title: "Barrel too small for the plan", description: "The planned ladder needs more melt than one barrel filling holds." },
+  LOT_NOTHING_COMPARED: { title: "Lot not compared", description: "No lot point lies in the reference's rate range." },
+  LOT_POINTS_NOT_COMPARED: { title: "Lot points outside the reference", description: "Lot points outside the reference's rate range were not compared." },
+});
+
+/** Severity, title and description of `code` (an unregistered code is titled by itself). */
+export function describeWarning(code: string): WarningText & { severity: WarningSeverity } {
+  if (!isWarningCode(code)) return { severity: "caution", title: code, description: "" };
+  return { severity: WARNING_CODES[code], ...WARNING_CATALOG[code] };
+}
