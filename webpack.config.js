@@ -23,7 +23,8 @@ const HtmlWebpackPlugin = require("html-webpack-plugin");
 const FUNCTION_FILES = ["./src/functions/functions.ts", "./src/functions/fitting.ts", "./src/functions/methods.ts", "./src/functions/planning.ts"];
 const DEV_PORT = 3000;
 /** Size budget of the functions bundle (it loads at every Excel start). */
-const FUNCTIONS_BUDGET_BYTES = 150 * 1024;
+// 150 KB until RHEO.REDUCE read every reduce setting through the shared reader (src/io/reduceOptions.ts, +14 KB)
+const FUNCTIONS_BUDGET_BYTES = 170 * 1024;
 
 /**
  * HTTPS options for the dev server. office-addin-dev-certs creates and trusts a localhost

@@ -42,7 +42,7 @@ export const BENCH_TARGETS = Object.freeze({
   scipyRatio: 3,
   reductionMs: 2,
   column10kMs: 20,
-  functionsBundleBytes: 150 * 1024,
+  functionsBundleBytes: 170 * 1024,
   taskpaneBundleBytes: 400 * 1024,
 });
 

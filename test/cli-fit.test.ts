@@ -146,9 +146,9 @@ describe("bad fit flags exit 1 with a message naming the flag and print nothing 
     ["unknown model in --compare", ["--compare", "cross,karo"], /^rheoledger: --compare: unknown model "karo"/],
     ["--shift without --tref", ["--shift", "arrhenius"], /^rheoledger: --tref: is required with --shift/],
     ["--tref without --shift", ["--tref", "210 C"], /^rheoledger: --tref: is the reference temperature of --shift/],
-    ["--tref without a unit", ["--shift", "arrhenius", "--tref", "210"], /^rheoledger: --tref: needs a unit, e.g. "210 C" or "210 K"/],
-    ["--tref with a wrong unit", ["--shift", "arrhenius", "--tref", "210 bar"], /^rheoledger: --tref: unknown temperature unit "bar"/],
-    ["unknown shift law", ["--shift", "eyring", "--tref", "210 C"], /^rheoledger: --shift: unknown shift law "eyring"; accepted: arrhenius, wlf/],
+    ["--tref without a unit", ["--shift", "arrhenius", "--tref", "210"], /^rheoledger: --tref: needs a unit, e.g. "210 °C"/],
+    ["--tref with a wrong unit", ["--shift", "arrhenius", "--tref", "210 bar"], /^rheoledger: --tref: "bar" is not a temperature unit \(it is a pressure unit\); accepted: K, C, F/],
+    ["unknown shift law", ["--shift", "eyring", "--tref", "210 C"], /^rheoledger: --shift: unknown choice "eyring"; accepted: none, arrhenius, wlf/],
   ];
   for (const [name, flags, message] of cases) {
     test(name, () => {
@@ -160,6 +160,6 @@ describe("bad fit flags exit 1 with a message naming the flag and print nothing 
   test("one temperature only", () => {
     const { code, stdout, stderr } = run(["reduce", "one.csv", "--shift", "arrhenius", "--tref", "210 C"], { "one.csv": oneTemperature });
     expect({ code, stdout }).toEqual({ code: 1, stdout: "" });
-    expect(stderr).toMatch(/^rheoledger: --shift: needs flow curves at two or more temperatures; the file has only 210 °C, D 1 mm/);
+    expect(stderr).toMatch(/^rheoledger: --shift: needs flow curves at two or more temperatures; the data have only 210 °C, D 1 mm/);
   });
 });

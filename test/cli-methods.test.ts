@@ -1,5 +1,5 @@
 import { main } from "../src/cli/main";
-import { parseHeating, parseMeltFlow, parseTransducer } from "../src/cli/methodFlags";
+import { CLI_SETTINGS_SOURCE, readReduceSettings } from "../src/io/reduceOptions";
 import { expectClose } from "./helpers/expectClose";
 
 async function run(args: string[], files: Record<string, string>) {
@@ -61,24 +61,28 @@ describe("rheoledger reduce with the method flags", () => {
   });
 });
 
-describe("flag parsers", () => {
-  test("parseTransducer: % or fraction", () => {
-    expect(parseTransducer("1000 bar, 0.25 %")).toEqual({ fullScale: 1e8, accuracy: 0.0025 });
-    expectClose(parseTransducer("50 MPa, 0.005").accuracy, 0.005, { rel: 1e-15 });
+describe("flag values through the reduce-settings reader", () => {
+  const read = (settings: Record<string, string | boolean>) => readReduceSettings(settings, CLI_SETTINGS_SOURCE).options;
+  test("--transducer: % or fraction", () => {
+    expect(read({ transducer: "1000 bar, 0.25 %" }).transducer).toEqual({ fullScale: 1e8, accuracy: 0.0025 });
+    expectClose((read({ transducer: "50 MPa, 0.005" }).transducer as { accuracy: number }).accuracy, 0.005, { rel: 1e-15 });
   });
-  test("parseHeating: units converted to SI, b optional", () => {
-    const h = parseHeating("density=0.76 g/cm3, cp=2.1 kJ/(kg.K), k=0.18");
+  test("--heating: units converted to SI, b optional, a unit required unless --si", () => {
+    const h = read({ heating: "density=0.76 g/cm3, cp=2.1 kJ/(kg.K), k=0.18 W/(m.K)" }).heating as { density: number; heatCapacity: number; conductivity: number; temperatureCoefficient?: number };
     expectClose(h.density, 760, { rel: 1e-15 });
     expectClose(h.heatCapacity, 2100, { rel: 1e-15 });
     expect(h.conductivity).toBe(0.18);
     expect(h.temperatureCoefficient).toBeUndefined();
-    expect(() => parseHeating("density=760, cp=2000")).toThrow(/--heating: needs k=/);
+    expect(() => read({ heating: "density=760 kg/m3, cp=2000 J/(kg.K)" })).toThrow(/--heating: needs k=/);
+    expect(() => read({ heating: "density=0.76 g/cm3, cp=2.1 kJ/(kg.K), k=0.18" })).toThrow(/--heating k: needs a unit, e.g. "0.18 W\/\(m·K\)" \(or give --si/);
+    expect((read({ heating: "density=760, cp=2100, k=0.18", si: true }).heating as { density: number }).density).toBe(760);
+    expect(() => read({ heating: "density=0.76 g/cm3, density=0.8 g/cm3, cp=2.1 kJ/(kg.K), k=0.18 W/(m.K)" })).toThrow(/--heating: gives density= twice/);
   });
-  test("parseMeltFlow: MVR by volume unit, MFR by mass unit with density", () => {
-    expectClose(parseMeltFlow("10 cm3/10min, 2.16 kg", undefined).volumeRate as number, 10e-6 / 600, { rel: 1e-15 });
-    const m = parseMeltFlow("2 g/10min, 5 kg", 750);
-    expectClose(m.massRate as number, 2e-3 / 600, { rel: 1e-15 });
+  test("--mfr: MVR by volume unit, MFR by mass unit with density", () => {
+    expectClose(read({ meltFlowRate: "10 cm3/10min, 2.16 kg" }).meltFlowRate?.volumeRate as number, 10e-6 / 600, { rel: 1e-15 });
+    const m = read({ meltFlowRate: "2 g/10min, 5 kg", density: "0.75 g/cm3" }).meltFlowRate as { massRate: number; load: number };
+    expectClose(m.massRate, 2e-3 / 600, { rel: 1e-15 });
     expect(m.load).toBe(5);
-    expect(() => parseMeltFlow("2 bar, 5 kg", 750)).toThrow(/not a mass rate/);
+    expect(() => read({ meltFlowRate: "2 bar, 5 kg", density: "0.75 g/cm3" })).toThrow(/not a mass rate/);
   });
 });

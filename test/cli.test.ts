@@ -84,7 +84,7 @@ describe("bad files exit non-zero with the line and column, and print nothing el
   test("unknown option", async () => {
     const { code, stderr } = await run(["reduce", DEMO, "--colour"]);
     expect(code).toBe(1);
-    expect(stderr).toMatch(/--colour: unknown option; accepted: --json/);
+    expect(stderr).toMatch(/--colour: unknown option; accepted: .*--json/);
   });
   test("missing file", async () => {
     const { code, stderr } = await run(["reduce", "no-such-file.csv"]);

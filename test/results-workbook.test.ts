@@ -10,7 +10,7 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import ExcelJS from "exceljs";
 import { fitFlowCurves } from "../src/core/flowCurveFits";
-import { reduce } from "../src/core/reduce";
+import { runReduction } from "../src/core/run";
 import { parseCsv } from "../src/io/csv";
 import { readRawTable } from "../src/io/rawTable";
 import { RESULTS_SHEETS } from "../src/io/resultsWorkbook";
@@ -25,8 +25,8 @@ const SAME = { rel: 1e-12, abs: 1e-300 };
 function coreOf(file: string) {
   const csv = parseCsv(readFileSync(file, "utf8"));
   const raw = readRawTable(csv.lines.map((l) => l.cells), { rowWord: "line", rowNumbers: csv.lines.map((l) => l.line), headerNumber: csv.lines[0]?.line ?? 1, decimalComma: csv.decimalComma });
-  const result = reduce(raw.measurements);
-  return { result, fits: fitFlowCurves(result), inputWarnings: raw.warnings };
+  const run = runReduction(raw.measurements, {}, { rank: true }, raw.warnings);
+  return { result: run.result, fits: fitFlowCurves(run.result), inputWarnings: raw.warnings, warnings: run.warnings };
 }
 
 async function runOut(csv: string, extra: string[] = []) {
@@ -106,8 +106,10 @@ describe("rheoledger reduce FILE.csv --out results.xlsx", () => {
 
   it("Warnings sheet lists the same codes as the core", () => {
     const { header, rows } = table(run.wb, RESULTS_SHEETS.warnings);
-    expect(header).toEqual(["code", "message"]);
-    expect(rows.map((r) => r[0])).toEqual([...core.inputWarnings, ...core.result.warnings].map((w) => w.code));
+    expect(header).toEqual(["severity", "code", "message"]);
+    // every warning of the run: reading, reduction and fits (one list on every surface)
+    expect(rows.map((r) => r[1])).toEqual(core.warnings.map((w) => w.code));
+    expect(rows.map((r) => r[0])).toEqual(core.warnings.map((w) => w.severity));
   });
 });
 

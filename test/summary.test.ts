@@ -29,7 +29,7 @@ test("names the lowest-AIC well-determined model and the poorly determined ones 
   const [first, second] = ranked as [RankedFit, RankedFit];
   // exact data give both fits AIC −∞; set ranks explicitly so the first has the lower AIC
   const doctored: GroupFits[] = [{ ...(fits[0] as GroupFits), ranked: [{ ...withWarning(first, "POORLY_DETERMINED"), aic: 10 }, { ...second, aic: 12 }] }];
-  const text = reductionSummary(result, [], doctored);
+  const text = reductionSummary({ result, comparisons: doctored, warnings: [] });
   expect(text).toContain(`best fit ${second.model} (`);
   expect(text).toContain(`(lower AIC but poorly determined parameters: ${first.model})`);
 });
@@ -38,7 +38,7 @@ test("with every model poorly determined it names the lowest AIC and says so", (
   const result = reduce(newtonian());
   const fits = fitFlowCurves(result, ["newtonian"]);
   const only = (fits[0] as GroupFits).ranked[0] as RankedFit;
-  const text = reductionSummary(result, [], [{ ...(fits[0] as GroupFits), ranked: [withWarning(only, "POORLY_DETERMINED")] }]);
+  const text = reductionSummary({ result, comparisons: [{ ...(fits[0] as GroupFits), ranked: [withWarning(only, "POORLY_DETERMINED")] }], warnings: [] });
   expect(text).toContain(`best fit ${only.model} (`);
   expect(text).toContain("(poorly determined parameters)");
 });

@@ -36,6 +36,7 @@ export function parseArgs(argv: string[], specs: Record<string, FlagSpec>): Pars
     if (!spec) {
       throw new RheoError("value", `--${name}`, `unknown option; accepted: ${Object.keys(specs).map((k) => "--" + k).join(", ")}`);
     }
+    if (flags.has(name)) throw new RheoError("value", `--${name}`, "is given twice; give each option once", undefined, "DUPLICATE_KEY");
     if (!spec.value) {
       if (eq > 0) throw new RheoError("value", `--${name}`, "takes no value");
       flags.set(name, true);

@@ -3,97 +3,82 @@
  * prints readable tables (units shown) or one JSON document in SI units.
  */
 import { RheoError, Warning } from "../core/errors";
-import { reduce, ReductionResult, ReduceOptions } from "../core/reduce";
-import { RabinowitschMethod } from "../core/rabinowitsch";
-import { toSI } from "../core/units";
+import type { ReductionResult, ReduceOptions } from "../core/reduce";
+import { runReduction, type ReductionRun } from "../core/run";
 import { parseCsv } from "../io/csv";
 import { readRawTable } from "../io/rawTable";
-import { FlagSpec, ParsedArgs, splitQuantity } from "./args";
+import { CLI_SETTINGS_SOURCE, readReduceSettings, reduceSetting, reduceSettingOfFlag, type ReduceRequest } from "../io/reduceOptions";
+import { reduceSettingFlags } from "../io/reduceSettingWords";
+import { FlagSpec, ParsedArgs } from "./args";
 import { num, table } from "./format";
-import { GroupFits, fitFlowCurves } from "../core/flowCurveFits";
 import { reductionSummary } from "./summary";
-import { METHOD_FLAGS, flowCurveExtrasJson, groupExtrasJson, groupExtrasText, methodOptionsFromFlags, topExtrasJson, topExtrasText } from "./methodFlags";
-import { FIT_FLAGS, buildFitReport, fitReportText, withFitJson } from "./fitReport";
+import { flowCurveExtrasJson, groupExtrasJson, groupExtrasText, topExtrasJson, topExtrasText } from "./methodFlags";
+import { fitReportText, withFitJson } from "./fitReport";
 
-export const REDUCE_FLAGS: Record<string, FlagSpec> = {
+/** Flags of `reduce` that choose what is printed or written (not reduce settings). */
+export const REDUCE_OUTPUT_FLAGS: Record<string, FlagSpec> = {
   json: { value: false, description: "print one JSON document in SI units instead of tables" },
-  "end-correction": { value: true, description: "bagley (default), none, or orifice (needs an orifice die)" },
-  method: { value: true, description: "Rabinowitsch slope method: transition (default), local, global, difference" },
-  degree: { value: true, description: "polynomial degree for the local (1–2) or global (1–3) method" },
-  window: { value: true, description: "points per local fit (default 5)" },
-  "barrel-diameter": { value: true, description: 'barrel bore when the file has no barrel_diameter column, e.g. "15 mm"' },
-  density: { value: true, description: 'melt density when the file has no density column, e.g. "0.76 g/cm3"' },
-  ...METHOD_FLAGS,
-  ...FIT_FLAGS,
   out: { value: true, description: "also write the results workbook (xlsx: summary, Bagley, flow curve, fits, warnings) to FILE" },
   summary: { value: false, description: "print a short summary (with model fits) instead of the full tables" },
 };
 
+/** Every flag of `reduce`: the reduce settings (src/io/reduceOptions.ts) and the output flags. */
+export const REDUCE_FLAGS: Record<string, FlagSpec> = { ...reduceSettingFlags(), ...REDUCE_OUTPUT_FLAGS };
+
 /** What a command hands back: text for standard output, and the data it printed. */
 export interface CommandOutput {
   stdout: string;
+  run: ReductionRun;
   result: ReductionResult;
   options: Partial<ReduceOptions>;
+  request: ReduceRequest;
   /** warnings from reading the file */
   inputWarnings: Warning[];
-  /** model fits per group, computed for --summary and --out */
-  fits?: GroupFits[];
 }
 
-function wholeNumber(text: string, flag: string): number {
-  const v = Number(text);
-  if (!Number.isInteger(v)) throw new RheoError("value", flag, `expected a whole number, got "${text}"`);
-  return v;
-}
-
-/** Reduce options from the command-line flags. */
-export function reduceOptionsFromFlags(args: ParsedArgs): Partial<ReduceOptions> {
-  const options: Partial<ReduceOptions> = {};
-  const end = args.flags.get("end-correction");
-  if (typeof end === "string") {
-    if (end !== "bagley" && end !== "none" && end !== "orifice") throw new RheoError("value", "--end-correction", `expected bagley, none or orifice, got "${end}"`);
-    options.endCorrection = end;
+/** The reduce settings given as flags, by setting key (output flags left out). */
+export function settingsFromFlags(args: ParsedArgs): Record<string, string | boolean> {
+  const out: Record<string, string | boolean> = {};
+  for (const [flag, value] of args.flags) {
+    const spec = reduceSettingOfFlag(flag);
+    if (spec) out[spec.key] = value;
   }
-  const rab: ReduceOptions["rabinowitsch"] = {};
-  const method = args.flags.get("method");
-  if (typeof method === "string") rab.method = method as RabinowitschMethod;
-  const degree = args.flags.get("degree");
-  if (typeof degree === "string") rab.degree = wholeNumber(degree, "--degree");
-  const window = args.flags.get("window");
-  if (typeof window === "string") rab.window = wholeNumber(window, "--window");
-  options.rabinowitsch = rab;
-  const density = args.flags.get("density");
-  const densityParts = typeof density === "string" ? splitQuantity(density, "--density") : undefined;
-  const densitySI = densityParts ? toSI(densityParts.value, densityParts.unit, "density", "--density") : undefined;
-  Object.assign(options, methodOptionsFromFlags(args, densitySI));
-  return options;
+  return out;
+}
+
+/** Reduce request from the command-line flags. @throws RheoError naming the flag */
+export function reduceRequestFromFlags(args: ParsedArgs): ReduceRequest {
+  return readReduceSettings(settingsFromFlags(args), CLI_SETTINGS_SOURCE);
+}
+
+/** A core error about a setting, re-addressed to its flag ("shift" → "--shift"). */
+export function asFlagError(e: unknown): unknown {
+  if (!(e instanceof RheoError)) return e;
+  try {
+    return e.retarget({ argument: CLI_SETTINGS_SOURCE.nameOf(reduceSetting(e.argument)) });
+  } catch {
+    return e;
+  }
 }
 
 /** Reads CSV text into measurements (errors name the file's line and column). */
-export function readCsvMeasurements(text: string, args: ParsedArgs) {
+export function readCsvMeasurements(text: string, input: ReduceRequest["input"]) {
   const csv = parseCsv(text);
   const cells = csv.lines.map((l) => l.cells);
   const first = csv.lines[0];
   if (!first) throw new RheoError("missing", "file", "is empty");
-  const barrel = args.flags.get("barrel-diameter");
-  const density = args.flags.get("density");
-  const q = (t: string | true | undefined, flag: string, kind: "length" | "density") => {
-    if (typeof t !== "string") return undefined;
-    const { value, unit } = splitQuantity(t, flag);
-    return toSI(value, unit, kind, flag);
-  };
   return readRawTable(cells, {
     rowWord: "line",
     headerNumber: first.line,
     rowNumbers: csv.lines.map((l) => l.line),
     decimalComma: csv.decimalComma,
-    barrelDiameter: q(barrel, "--barrel-diameter", "length"),
-    density: q(density, "--density", "density"),
+    barrelDiameter: input.barrelDiameter,
+    density: input.density,
   });
 }
 
-/** The JSON document of a reduction, SI units (the contract in the README). */
-export function reductionJson(result: ReductionResult, inputWarnings: Warning[]) {
+/** The JSON document of a reduction, SI units (the contract in docs/cli.md). */
+export function reductionJson(result: ReductionResult, warnings: Warning[]) {
   return {
     units: { pressure: "Pa", length: "m", time: "s", temperature: "K", viscosity: "Pa.s", shearRate: "1/s" },
     groups: result.groups.map((g) => ({
@@ -121,12 +106,12 @@ export function reductionJson(result: ReductionResult, inputWarnings: Warning[])
       warnings: g.warnings,
     })),
     ...topExtrasJson(result),
-    warnings: [...inputWarnings, ...result.warnings],
+    warnings,
   };
 }
 
-/** Readable tables: kPa for stress, bar for pressure, °C for temperature, mm for dies. */
-export function reductionText(result: ReductionResult, inputWarnings: Warning[]): string {
+/** Readable tables: kPa for stress, bar for pressure, °C for temperature, mm for dies (warnings apart: {@link warningsText}). */
+export function reductionText(result: ReductionResult): string {
   const out: string[] = [];
   for (const g of result.groups) {
     const t = g.temperature === null ? "temperature not given" : `${num(g.temperature - 273.15)} °C`;
@@ -154,25 +139,33 @@ export function reductionText(result: ReductionResult, inputWarnings: Warning[])
     out.push("");
   }
   out.push(...topExtrasText(result));
-  const warnings = [...inputWarnings, ...result.warnings];
-  if (warnings.length > 0) {
-    out.push("Warnings");
-    for (const w of warnings) out.push(`  [${w.code}] ${w.message}`);
-  } else out.push("No warnings.");
   return out.join("\n") + "\n";
+}
+
+/** Every warning of the run, most serious first within the order they were raised. */
+export function warningsText(warnings: Warning[]): string {
+  if (warnings.length === 0) return "No warnings.\n";
+  const rank = { serious: 0, caution: 1, info: 2 } as const;
+  const sorted = [...warnings].sort((a, b) => rank[a.severity] - rank[b.severity]);
+  return ["Warnings", ...sorted.map((w) => `  [${w.severity}] [${w.code}] ${w.message}`)].join("\n") + "\n";
 }
 
 /** Runs `reduce` on CSV text already read from the file. */
 export function runReduce(text: string, args: ParsedArgs): CommandOutput {
-  const raw = readCsvMeasurements(text, args);
-  const options = reduceOptionsFromFlags(args);
-  const result = reduce(raw.measurements, options);
-  const fits = args.flags.has("summary") || args.flags.has("out") ? fitFlowCurves(result) : undefined;
-  const fitReport = buildFitReport(args, result);
+  const request = reduceRequestFromFlags(args);
+  const raw = readCsvMeasurements(text, request.input);
+  const wantsRanking = args.flags.has("summary") || args.flags.has("out");
+  let run: ReductionRun;
+  try {
+    run = runReduction(raw.measurements, request.options, { ...request.fits, rank: wantsRanking }, raw.warnings);
+  } catch (e) {
+    throw asFlagError(e);
+  }
+  const result = run.result;
   const stdout = args.flags.has("json")
-    ? JSON.stringify(withFitJson(reductionJson(result, raw.warnings), fitReport), null, 2) + "\n"
-    : (args.flags.has("summary")
-        ? reductionSummary(result, raw.warnings, fits)
-        : reductionText(result, raw.warnings)) + fitReportText(fitReport, result);
-  return { stdout, result, options, inputWarnings: raw.warnings, fits };
+    ? JSON.stringify(withFitJson(reductionJson(result, run.warnings), run), null, 2) + "\n"
+    : args.flags.has("summary")
+      ? reductionSummary(run) + fitReportText(run, { comparisons: args.flags.has("compare") })
+      : reductionText(result) + fitReportText(run, { comparisons: args.flags.has("compare") }) + warningsText(run.warnings);
+  return { stdout, run, result, options: request.options, request, inputWarnings: raw.warnings };
 }

@@ -18,7 +18,7 @@ export async function writeResultsFile(out: CommandOutput, source: string, path:
     return 1;
   }
   try {
-    const bytes = await resultsWorkbookBytes({ result: out.result, inputWarnings: out.inputWarnings, fits: out.fits, source });
+    const bytes = await resultsWorkbookBytes({ result: out.result, warnings: out.run.warnings, fits: out.run.comparisons, source });
     io.writeFile(path, bytes);
   } catch (e) {
     io.stderr(`rheoledger: cannot write ${path}: ${(e as Error).message}\n`);

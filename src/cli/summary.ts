@@ -3,9 +3,8 @@
  * per group with its rate window, viscosity range, end corrections and best-fitting model, then
  * the number of warnings.
  */
-import type { Warning } from "../core/errors";
-import type { GroupFits } from "../core/flowCurveFits";
-import { groupLabel, type ReductionResult } from "../core/reduce";
+import type { ReductionRun } from "../core/run";
+import { groupLabel } from "../core/reduce";
 import { num } from "./format";
 
 function span(values: number[], digits = 3): string {
@@ -13,8 +12,10 @@ function span(values: number[], digits = 3): string {
   return `${num(Math.min(...values), digits)}–${num(Math.max(...values), digits)}`;
 }
 
-/** The summary text; `fits` in the order of result.groups. */
-export function reductionSummary(result: ReductionResult, inputWarnings: Warning[], fits?: GroupFits[]): string {
+/** The summary text of a run (its ranked fits, when present, name the best model per group). */
+export function reductionSummary(run: ReductionRun): string {
+  const { result } = run;
+  const fits = run.comparisons;
   const out: string[] = [`Reduced ${result.groups.length} group${result.groups.length === 1 ? "" : "s"}:`];
   result.groups.forEach((g, i) => {
     const rates = g.flowCurve.map((f) => f.shearRateWall).filter((v): v is number => v !== null);
@@ -42,7 +43,7 @@ export function reductionSummary(result: ReductionResult, inputWarnings: Warning
     }
     out.push(`  ${g.temperature === null ? "no temperature, " : ""}${groupLabel(g)}, ${g.dies.length} dies: ${parts.join("; ")}`);
   });
-  const warnings = [...inputWarnings, ...result.warnings];
+  const warnings = run.warnings;
   const codes = [...new Set(warnings.map((w) => w.code))];
   out.push(warnings.length === 0 ? "No warnings." : `${warnings.length} warning${warnings.length === 1 ? "" : "s"} (${codes.join(", ")}); the full list is in the Warnings sheet or without --summary.`);
   return out.join("\n") + "\n";

@@ -326,6 +326,7 @@ export function viscosityApp(shearRateApparent: unknown[][], wallShearStress: un
  * @param barrelDiameter Barrel bore when rawData has no barrel_diameter column (default unit mm).
  * @param density Melt density when rawData has no density column (default unit g/cm3).
  * @param showWarnings TRUE to list the reduction's warnings below the table (default FALSE).
+ * @param settings Further reduce settings: a two-column range of name and value, e.g. transducer | 700 bar, 0.25 % (names as in docs/functions.md; default none).
  * @returns Header row, then per point: temperature [C], die diameter [mm], apparent rate, wall stress, n', true rate, viscosity, apparent viscosity.
  */
 export function reduceData(
@@ -338,9 +339,10 @@ export function reduceData(
   barrelDiameter?: number,
   density?: number,
   showWarnings?: boolean,
+  settings?: unknown[][],
 ): unknown[][] {
   return guard("reduce", () =>
-    reduceTable({ rawData, endCorrection, method, degree, stressUnit, viscosityUnit, barrelDiameter, density, showWarnings }),
+    reduceTable({ rawData, endCorrection, method, degree, stressUnit, viscosityUnit, barrelDiameter, density, showWarnings, settings }),
   );
 }
 

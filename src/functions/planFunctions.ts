@@ -9,42 +9,11 @@ import { compareLot, DEFAULT_LOT_COMPARISON_OPTIONS, type LotReference } from ".
 import { toSI } from "../core/units";
 import { PLAN_DIE_KEYS, PLAN_SETTING_KEYS, PLAN_SHEET_UNITS, PLAN_TRANSDUCER_KEYS, readParameters, readPlanOptions } from "../io/planOptions";
 import { lotComparisonTable, lotVerdictTable, planStepTable, planSummaryTable, type SheetTable } from "../io/planTables";
-import { DEFAULT_SHEET_UNITS as U, choiceArg, isBlank, optionalText, readNumber, readRows, column, unitArg } from "./adapter";
-
-/** Lower case without spaces, underscores or hyphens: "Full scale" = "full_scale" = "fullScale". */
-function squash(text: string): string {
-  return text.toLowerCase().replace(/[\s_-]+/g, "");
-}
-
-function keyFor(name: string, keys: readonly string[], argument: string): string {
-  const found = keys.find((k) => squash(k) === squash(name));
-  if (!found) throw new RheoError("value", argument, `unknown name "${name}"; accepted: ${keys.join(", ")}`);
-  return found;
-}
-
-function grid(range: unknown, argument: string): unknown[][] {
-  if (!Array.isArray(range) || range.length === 0) throw new RheoError("missing", argument, "is required");
-  return range.map((row: unknown) => (Array.isArray(row) ? (row as unknown[]) : [row]));
-}
-
-/** A cell as the options reader wants it: trimmed text, a number, or undefined when blank. */
-function cellValue(cell: unknown, argument: string, where: string): unknown {
-  if (isBlank(cell)) return undefined;
-  if (typeof cell === "string") return cell.trim();
-  if (typeof cell === "number" || typeof cell === "boolean") return cell;
-  return readNumber(cell, argument, where); // throws for error values
-}
+import { DEFAULT_SHEET_UNITS as U, cellValue, choiceArg, grid, isBlank, keyFor, optionalText, readNumber, readRows, readSettingsRange, column, unitArg } from "./adapter";
 
 /** Settings: two columns, name | value. */
 function readSettings(range: unknown): Record<string, unknown> {
-  const out: Record<string, unknown> = {};
-  grid(range, "settings").forEach((row, i) => {
-    if (isBlank(row[0])) return;
-    if (row.length < 2) throw new RheoError("value", "settings", "must have two columns: name and value");
-    const key = keyFor(String(row[0]), Object.keys(PLAN_SETTING_KEYS), `settings row ${i + 1}`);
-    out[key] = cellValue(row[1], "settings", `row ${i + 1}`);
-  });
-  return out;
+  return readSettingsRange(range, Object.keys(PLAN_SETTING_KEYS));
 }
 
 /** A table with a header row `name [unit]`; numbers get the header's unit as "value unit" text. */

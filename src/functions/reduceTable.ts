@@ -3,12 +3,11 @@
  * to the flow-curve table, one row per point of every temperature/diameter group.
  */
 import { RheoError, Warning } from "../core/errors";
-import { DEFAULT_REDUCE_OPTIONS, ReduceOptions, reduce } from "../core/reduce";
-import { fromSI, toSI } from "../core/units";
+import { reduce } from "../core/reduce";
+import { fromSI } from "../core/units";
 import { readRawTable } from "../io/rawTable";
-import { DEFAULT_SHEET_UNITS as U, booleanArg, cellError, integerArg, optionalText, readNumber, unitArg } from "./adapter";
-import { methodArg } from "./tables";
-import { DEFAULT_RABINOWITSCH_OPTIONS } from "../core/rabinowitsch";
+import { KEYED_SETTINGS_SOURCE, REDUCE_SETTINGS, readReduceSettings, type ReduceSettingSpec } from "../io/reduceOptions";
+import { DEFAULT_SHEET_UNITS as U, booleanArg, cellError, isBlank, readSettingsRange, unitArg } from "./adapter";
 
 /** Arguments of RHEO.REDUCE as Excel passes them. */
 export interface ReduceArgs {
@@ -21,6 +20,33 @@ export interface ReduceArgs {
   barrelDiameter?: unknown;
   density?: unknown;
   showWarnings?: unknown;
+  /** further reduce settings: a name | value range (keys of src/io/reduceOptions.ts) */
+  settings?: unknown;
+}
+
+/** The reduce settings RHEO.REDUCE takes as arguments of their own, by worksheet argument name. */
+const DIRECT_ARGUMENTS: Readonly<Record<string, keyof ReduceArgs>> = Object.freeze({
+  endCorrection: "endCorrection",
+  rabinowitschMethod: "method",
+  rabinowitschDegree: "degree",
+  barrelDiameter: "barrelDiameter",
+  density: "density",
+});
+
+/** Settings of the worksheet: named by their argument, or "settings key" for the settings range. */
+const SHEET_SOURCE = { ...KEYED_SETTINGS_SOURCE, nameOf: (s: ReduceSettingSpec) => DIRECT_ARGUMENTS[s.key] ?? `settings ${s.key}` };
+
+/** The reduce settings of the call: its direct arguments and its settings range, by key. */
+function sheetSettings(a: ReduceArgs): Record<string, unknown> {
+  const keys = REDUCE_SETTINGS.filter((s) => s.key !== "si").map((s) => s.key);
+  const out: Record<string, unknown> = isBlank(a.settings) || a.settings === undefined ? {} : readSettingsRange(a.settings, keys);
+  for (const [key, argument] of Object.entries(DIRECT_ARGUMENTS)) {
+    const value = a[argument];
+    if (value === undefined || isBlank(value)) continue;
+    if (out[key] !== undefined) throw new RheoError("value", argument, `is given twice: as an argument and in settings ("${key}")`, undefined, "DUPLICATE_KEY");
+    out[key] = value;
+  }
+  return out;
 }
 
 /** Header row of the flow-curve table, `quantity [unit]`. */
@@ -37,19 +63,9 @@ export function reduceHeader(stressUnit: string, viscosityUnit: string): string[
   ];
 }
 
-function optionalQuantity(value: unknown, argument: string, unit: string, quantity: "length" | "density"): number | undefined {
-  const v = readNumber(value, argument, "the value");
-  return v === null ? undefined : toSI(v, unit, quantity, argument);
-}
-
 /** RHEO.REDUCE (see functions.ts for the argument descriptions). */
 export function reduceTable(a: ReduceArgs): unknown[][] {
-  const end = optionalText(a.endCorrection, "endCorrection", DEFAULT_REDUCE_OPTIONS.endCorrection).toLowerCase();
-  if (end !== "bagley" && end !== "none" && end !== "orifice") {
-    throw new RheoError("value", "endCorrection", `unknown choice "${end}"; accepted: bagley, orifice, none`);
-  }
-  const method = methodArg(a.method);
-  const degree = integerArg(a.degree, "degree", DEFAULT_RABINOWITSCH_OPTIONS.degree, 1, 3);
+  const request = readReduceSettings(sheetSettings(a), SHEET_SOURCE);
   const stressUnit = unitArg(a.stressUnit, "stressUnit", "pressure", U.stress);
   const viscosityUnit = unitArg(a.viscosityUnit, "viscosityUnit", "viscosity", U.viscosity);
   const showWarnings = booleanArg(a.showWarnings, "showWarnings", false);
@@ -57,16 +73,15 @@ export function reduceTable(a: ReduceArgs): unknown[][] {
     throw new RheoError("missing", "rawData", "needs a header row and at least one data row");
   }
   const cells = a.rawData.map((row: unknown) => (Array.isArray(row) ? (row as unknown[]) : [row]));
-  const raw = readRawTable(cells, {
-    rowWord: "row",
-    headerNumber: 1,
-    barrelDiameter: optionalQuantity(a.barrelDiameter, "barrelDiameter", U.length, "length"),
-    density: optionalQuantity(a.density, "density", U.density, "density"),
-  });
-  const options: Partial<ReduceOptions> = { endCorrection: end, rabinowitsch: { method, degree } };
-  const result = reduce(raw.measurements, options);
+  const raw = readRawTable(cells, { rowWord: "row", headerNumber: 1, ...request.input });
+  const fitKeys = (["model", "compare", "shift", "referenceTemperature"] as const).filter((k) => request.fits[k === "referenceTemperature" ? "shift" : k] !== undefined);
+  if (fitKeys.length > 0) {
+    throw new RheoError("value", `settings ${fitKeys[0]}`, "RHEO.REDUCE spills the flow curve only; fit models with RHEO.FIT or RHEO.COMPAREFITS and shift with RHEO.SHIFTFIT", undefined, "SETTING_NOT_USED_HERE");
+  }
+  const result = reduce(raw.measurements, request.options);
+  const run = { result, warnings: [...raw.warnings, ...result.warnings] };
   const table: unknown[][] = [reduceHeader(stressUnit, viscosityUnit)];
-  for (const g of result.groups) {
+  for (const g of run.result.groups) {
     const temperature = g.temperature === null ? "" : fromSI(g.temperature, U.temperature, "temperature");
     // slit groups have no diameter: the cell stays blank (the flow curve uses the slit formulas)
     const diameter = Number.isFinite(g.dieDiameter) ? fromSI(g.dieDiameter, U.length, "length") : "";
@@ -85,7 +100,7 @@ export function reduceTable(a: ReduceArgs): unknown[][] {
       ]);
     });
   }
-  if (showWarnings) appendWarnings(table, [...raw.warnings, ...result.warnings]);
+  if (showWarnings) appendWarnings(table, run.warnings);
   return table;
 }
 

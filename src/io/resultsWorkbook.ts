@@ -14,8 +14,8 @@ import type { ReductionResult } from "../core/reduce";
 /** What goes into the results workbook. */
 export interface ResultsInput {
   result: ReductionResult;
-  /** warnings from reading the input table */
-  inputWarnings: Warning[];
+  /** every warning of the run (reading, reduction, fits, shift) */
+  warnings: Warning[];
   /** model fits per group (same order as result.groups), when fitted */
   fits?: GroupFits[];
   /** where the data came from, e.g. the CSV path */
@@ -153,11 +153,11 @@ function fitsSheet({ fits }: ResultsInput): ResultsSheet {
   };
 }
 
-function warningsSheet({ result, inputWarnings }: ResultsInput): ResultsSheet {
+function warningsSheet({ warnings }: ResultsInput): ResultsSheet {
   return {
     name: RESULTS_SHEETS.warnings,
-    header: ["code", "message"],
-    rows: [...inputWarnings, ...result.warnings].map((w) => [w.code, w.message]),
+    header: ["severity", "code", "message"],
+    rows: warnings.map((w) => [w.severity, w.code, w.message]),
   };
 }
 

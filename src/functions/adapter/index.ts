@@ -3,3 +3,4 @@ export * from "./cellErrors";
 export * from "./ranges";
 export * from "./args";
 export * from "./data";
+export * from "./settings";

@@ -1,0 +1,152 @@
+/**
+ * The words of the reduce settings of src/io/reduceOptions.ts: the plain label the pane shows, one
+ * line of help (command-line help, pane help, docs), and help per choice. Kept apart from the
+ * settings table so the worksheet-function bundle, which reads settings but shows no help, does
+ * not carry them; test/reduceOptions.test.ts keeps the two key sets equal.
+ */
+import { DEFAULT_ORIFICE_OPTIONS } from "../core/orifice";
+import { DEFAULT_RABINOWITSCH_OPTIONS } from "../core/rabinowitsch";
+import { DEFAULT_UNCERTAINTY_OPTIONS } from "../core/uncertainty";
+import { MODEL_IDS } from "../core/models";
+import { DEFAULT_FLOW_CURVE_MODELS } from "../core/flowCurveFits";
+import { REDUCE_SETTINGS } from "./reduceOptions";
+
+/** Label, help and per-choice help of one setting. */
+export interface ReduceSettingWords {
+  /** plain label as the pane shows it */
+  label: string;
+  /** one line: what it does */
+  help: string;
+  /** help per choice, for choices */
+  choiceHelp?: Readonly<Record<string, string>>;
+}
+
+export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> = Object.freeze({
+  barrelDiameter: {
+    label: "Barrel bore",
+    help: 'barrel bore when the data have no barrel_diameter column, e.g. "15 mm" (piston speed → flow rate)',
+  },
+  density: {
+    label: "Melt density",
+    help: 'melt density when the data have no density column, e.g. "0.76 g/cm3" (mass rate → flow rate; MFR)',
+  },
+  endCorrection: {
+    label: "End correction",
+    help: "bagley (default), orifice (needs an orifice die), or none",
+    choiceHelp: {
+      bagley: "Fits pressure against L/R over dies of one bore at each rate and removes the entrance loss (needs two or more die lengths).",
+      orifice: "Subtracts the pressure of an orifice die (L/D below 1) at the same rate from the longest die: one long die is enough.",
+      none: "Uses the longest die as measured: quick, but the wall stress still includes the entrance loss and reads high.",
+    },
+  },
+  orifice: {
+    label: "Orifice end correction",
+    help: "same as --end-correction orifice: subtract an orifice die's pressure (L/D < 1) at the same rate",
+  },
+  orificeMaxLengthOverDiameter: {
+    label: "Orifice limit L/D",
+    help: `dies with L/D (L/H) below this are orifice dies (default ${DEFAULT_ORIFICE_OPTIONS.maxLengthOverDiameter})`,
+  },
+  rabinowitschMethod: {
+    label: "Rabinowitsch slope method",
+    help: "Rabinowitsch slope method: transition (default), local, global, difference",
+    choiceHelp: {
+      transition: "Smooth S-shaped curve through log stress vs log rate, differentiated exactly; the most accurate on melt data (default).",
+      local: "A low-order polynomial over a few neighbouring points at each rate; follows local bends.",
+      global: "One polynomial of degree 1–3 through all points; simple, but biased at the ends of the range.",
+      difference: "Slopes between neighbouring points; no smoothing, so noise shows through. For comparison.",
+    },
+  },
+  rabinowitschDegree: {
+    label: "Polynomial degree",
+    help: "polynomial degree for the local (1–2) or global (1–3) method",
+  },
+  rabinowitschWindow: {
+    label: "Points per local fit",
+    help: `points per local fit (odd, at least 3; default ${DEFAULT_RABINOWITSCH_OPTIONS.window})`,
+  },
+  transducer: {
+    label: "Pressure transducer",
+    help: 'pressure transducer "full scale, accuracy", e.g. "1000 bar, 0.25 %": low-reading flags and ± columns (k = 2)',
+  },
+  transducerFullScale: {
+    label: "Transducer full scale",
+    help: `full scale of the pressure transducer; readings above it or below ${DEFAULT_UNCERTAINTY_OPTIONS.minFractionOfFullScale * 100} % of it are flagged, and the flow curve gets ± columns`,
+  },
+  transducerAccuracy: {
+    label: "Transducer accuracy",
+    help: "accuracy in % of full scale from the transducer's certificate; gives the ± columns (k = 2, about 95 %)",
+  },
+  representativeRate: {
+    label: "Representative-rate cross-check",
+    help: "representative-rate (Schümmer) viscosity beside the Rabinowitsch result",
+  },
+  slip: {
+    label: "Wall slip (Mooney)",
+    help: "Mooney wall-slip analysis across two or more die diameters per temperature",
+  },
+  extensional: {
+    label: "Extensional viscosity (Cogswell)",
+    help: "Cogswell extensional viscosity and Trouton ratio from the entrance pressure",
+  },
+  pressureDependence: {
+    label: "Pressure dependence",
+    help: "curvature of the Bagley lines and the pressure coefficient of viscosity (three or more dies)",
+  },
+  heating: {
+    label: "Viscous heating",
+    help: 'viscous heating: "density=0.76 g/cm3, cp=2.1 kJ/(kg.K), k=0.18 W/(m.K), b=0.03 1/K" (b optional: fitted across temperatures)',
+  },
+  heatingDensity: {
+    label: "Melt density (heating)",
+    help: "melt density at test temperature",
+  },
+  heatingHeatCapacity: {
+    label: "Specific heat",
+    help: "specific heat of the melt",
+  },
+  heatingConductivity: {
+    label: "Thermal conductivity",
+    help: "thermal conductivity of the melt",
+  },
+  heatingTemperatureCoefficient: {
+    label: "Temperature coefficient b",
+    help: "b = −d ln η/dT; leave empty to fit it across the temperatures of the data",
+  },
+  meltFlowRate: {
+    label: "Melt-flow-rate result",
+    help: 'melt-flow-rate result "value unit, load", e.g. "12 g/10min, 2.16 kg" (MFR, needs the density) or "16 cm3/10min, 2.16 kg" (MVR)',
+  },
+  model: {
+    label: "Model",
+    help: `fit a viscosity model to each group's true flow curve: ${MODEL_IDS.filter((id) => id !== "cross-wlf").join(", ")}`,
+  },
+  compare: {
+    label: "Models to compare",
+    help: `rank models by AIC per group, e.g. power-law,cross,carreau-yasuda (default set: ${DEFAULT_FLOW_CURVE_MODELS.join(", ")})`,
+  },
+  shift: {
+    label: "Temperature shift",
+    help: "fit a temperature shift over the groups' flow curves: arrhenius or wlf (needs --tref on the command line)",
+    choiceHelp: {
+      none: "No shift: each temperature is reported on its own.",
+      arrhenius: "Arrhenius shift aT = exp[(Ea/R)(1/T − 1/Tref)]: fits the activation energy Ea; suits melts well above Tg.",
+      wlf: "WLF shift log aT = −C1(T − Tref)/(C2 + T − Tref): fits C1 and C2; suits melts within about 100 K of Tg.",
+    },
+  },
+  referenceTemperature: {
+    label: "Reference temperature",
+    help: 'reference temperature of the shift, e.g. "210 C" or "483.15 K" (pane: empty = the middle temperature of the data)',
+  },
+  si: {
+    label: "Bare numbers are SI",
+    help: "read numbers given without a unit in SI units (m, Pa, kg/m3, J/(kg.K), W/(m.K), 1/K); without it a unit is required",
+  },
+});
+
+/** The command-line flag table of `reduce` (flag → takes a value, description), from the settings table. */
+export function reduceSettingFlags(): Record<string, { value: boolean; description: string }> {
+  const out: Record<string, { value: boolean; description: string }> = {};
+  for (const s of REDUCE_SETTINGS) if (s.flag !== null) out[s.flag] = { value: s.kind.type !== "switch", description: REDUCE_SETTING_WORDS[s.key]?.help ?? "" };
+  return out;
+}
