@@ -50,8 +50,8 @@ describe("rheoledger reduce with the method flags", () => {
     const r = await run(["reduce", "n.csv", "--orifice", "--heating", "density=0.75 g/cm3, cp=2.5 kJ/(kg.K), k=0.2 W/(m.K), b=0.03 1/K"], files);
     expect(r.code).toBe(0);
     expect(r.stdout).toContain("Entrance pressure: Bagley and orifice die");
-    expect(r.stdout).toContain("Viscous heating (b = 0.03 1/K, given)");
-    expect(r.stdout).toContain("adiabatic rise [K]");
+    expect(r.stdout).toContain("b = 0.03 1/K (given).");
+    expect(r.stdout).toContain("Adiabatic rise [K]");
   });
   test("bad flag values exit 1 naming the flag", async () => {
     expect((await run(["reduce", "n.csv", "--transducer", "1000 bar"], files)).stderr).toMatch(/--transducer: expected "full scale, accuracy"/);

@@ -60,8 +60,8 @@ describe("rheoledger reduce DEMO (tables)", () => {
     const { code, stdout } = await run(["reduce", DEMO]);
     expect(code).toBe(0);
     expect(stdout.match(/^== /gm)).toHaveLength(3);
-    expect(stdout).toContain("wall stress [kPa]");
-    expect(stdout).toContain("viscosity [Pa.s]");
+    expect(stdout).toContain("Wall shear stress [kPa]");
+    expect(stdout).toContain("Viscosity [Pa·s]");
   });
 });
 

@@ -84,7 +84,7 @@ describe("parseArgs(argv, REDUCE_FLAGS)", () => {
     fc.tuple(fc.constant("positional" as const), fc.constant(""), positional, fc.constant(false)),
   );
 
-  test("recovers the flags (last one wins) and positionals of a valid command line, in either form", () => {
+  test("recovers the flags and positionals of a valid command line, in either form; a flag given twice is refused", () => {
     fc.assert(
       fc.property(fc.array(item, { maxLength: 10 }), (items) => {
         generated++;
@@ -102,6 +102,11 @@ describe("parseArgs(argv, REDUCE_FLAGS)", () => {
             argv.push(...(withEquals ? [`--${name}=${v}`] : [`--${name}`, v]));
             flags.set(name, v);
           }
+        }
+        const names = items.filter(([kind]) => kind !== "positional").map(([, name]) => name);
+        if (new Set(names).size < names.length) {
+          expect(() => parseArgs(argv, REDUCE_FLAGS)).toThrow(/^--[a-z-]+: is given twice/);
+          return;
         }
         const parsed = parseArgs(argv, REDUCE_FLAGS);
         expect(parsed.positionals).toEqual(positionals);

@@ -3,10 +3,8 @@
  * the `"fit"`, `"compare"` and `"shift"` keys of the JSON document (SI: Pa·s, s, Pa, K, J/mol) and
  * their text tables. The flags that ask for them are reduce settings (src/io/reduceOptions.ts).
  */
-import { getModel } from "../core/models";
-import { groupLabel } from "../core/reduce";
 import type { ReductionRun } from "../core/run";
-import { num, table } from "./format";
+import { num } from "./format";
 
 /** The fit parts of a run the command line prints. */
 export type FitReport = Pick<ReductionRun, "modelFits" | "comparisons" | "shift" | "result">;
@@ -65,51 +63,15 @@ export function fitTopJson(report: FitReport): Record<string, unknown> {
   };
 }
 
-const unitText = (unit: string) => (unit === "1" ? "-" : unit);
-
-/** Readable tables of the fits (values in SI, the unit of each parameter in its own column). */
-export function fitReportText(report: FitReport, show: { comparisons: boolean } = { comparisons: true }): string {
-  const out: string[] = [];
-  report.result.groups.forEach((g, i) => {
-    const fit = report.modelFits?.[i];
-    if (fit) {
-      out.push(`== ${groupLabel(g)}: ${fit.model} fit, ${fit.converged ? "converged" : `NOT converged (${fit.stopReason})`}, R² ${fit.r2.toFixed(5)}, ${fit.pointCount} points`);
-      out.push(
-        table(
-          ["parameter", "value", "std error", "95 % CI", "unit"],
-          getModel(fit.model).parameters.map((p) => {
-            const ci = fit.confidenceIntervals[p.name];
-            const held = fit.fixed.includes(p.name);
-            return [p.name, num(fit.parameters[p.name]), held ? "fixed" : num(fit.standardErrors[p.name], 3), ci ? `${num(ci[0])} … ${num(ci[1])}` : "", unitText(p.unit)];
-          }),
-        ),
-      );
-      out.push("");
-    }
-    const c = show.comparisons ? report.comparisons?.[i] : undefined;
-    if (c) {
-      out.push(`== ${groupLabel(g)}: models ranked by AIC`);
-      out.push(
-        table(
-          ["rank", "model", "AIC", "ΔAIC", "weight", "R²"],
-          c.ranked.map((r, k) => [String(k + 1), r.model, num(r.aic, 5), num(r.deltaAic, 3), num(r.akaikeWeight, 3), r.result.r2.toFixed(5)]),
-        ),
-      );
-      for (const f of c.failed) out.push(`  not ranked: ${f.model}: ${f.reason}`);
-      out.push("");
-    }
-  });
-  if (report.shift) {
-    const { fit, dieDiameter } = report.shift;
-    const constants =
-      fit.law === "arrhenius"
-        ? `Ea = ${num(fit.activationEnergy / 1e3)} ± ${num(fit.activationEnergyStandardError / 1e3, 2)} kJ/mol`
-        : `C1 = ${num(fit.C1)} ± ${num(fit.C1StandardError, 2)}, C2 = ${num(fit.C2)} ± ${num(fit.C2StandardError, 2)} K`;
-    out.push(`== Temperature shift (${fit.law}, Tref ${num(fit.referenceTemperature - 273.15)} °C, die diameter ${num(dieDiameter * 1e3)} mm): ${constants}`);
-    out.push(table(["temperature [°C]", "aT [-]"], fit.factors.map((f) => [num(f.temperature - 273.15), num(f.aT)])));
-    out.push("");
-  }
-  return out.length > 0 ? out.join("\n") + "\n" : "";
+/** One line on the temperature shift for the summary ("" without a shift). */
+export function shiftSummary(report: FitReport): string {
+  if (!report.shift) return "";
+  const { fit, dieDiameter } = report.shift;
+  const constants =
+    fit.law === "arrhenius"
+      ? `Ea = ${num(fit.activationEnergy / 1e3)} ± ${num(fit.activationEnergyStandardError / 1e3, 2)} kJ/mol`
+      : `C1 = ${num(fit.C1)} ± ${num(fit.C1StandardError, 2)}, C2 = ${num(fit.C2)} ± ${num(fit.C2StandardError, 2)} K`;
+  return `Temperature shift (${fit.law}, Tref ${num(fit.referenceTemperature - 273.15)} °C, die diameter ${num(dieDiameter * 1e3)} mm): ${constants}\n`;
 }
 
 /** The reduction's JSON document with the fit keys added to its groups and top level. */

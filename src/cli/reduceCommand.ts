@@ -3,17 +3,18 @@
  * prints readable tables (units shown) or one JSON document in SI units.
  */
 import { RheoError, Warning } from "../core/errors";
-import type { ReductionResult, ReduceOptions } from "../core/reduce";
+import { groupLabel, type ReductionGroup, type ReductionResult, type ReduceOptions } from "../core/reduce";
 import { runReduction, type ReductionRun } from "../core/run";
 import { parseCsv } from "../io/csv";
 import { readRawTable } from "../io/rawTable";
 import { CLI_SETTINGS_SOURCE, readReduceSettings, reduceSetting, reduceSettingOfFlag, type ReduceRequest } from "../io/reduceOptions";
 import { reduceSettingFlags } from "../io/reduceSettingWords";
 import { FlagSpec, ParsedArgs } from "./args";
-import { num, table } from "./format";
+import { num, resultTableText } from "./format";
 import { reductionSummary } from "./summary";
-import { flowCurveExtrasJson, groupExtrasJson, groupExtrasText, topExtrasJson, topExtrasText } from "./methodFlags";
-import { fitReportText, withFitJson } from "./fitReport";
+import { flowCurveExtrasJson, groupExtrasJson, topExtrasJson } from "./methodFlags";
+import { resultTables } from "../io/resultTables";
+import { shiftSummary, withFitJson } from "./fitReport";
 
 /** Flags of `reduce` that choose what is printed or written (not reduce settings). */
 export const REDUCE_OUTPUT_FLAGS: Record<string, FlagSpec> = {
@@ -110,36 +111,26 @@ export function reductionJson(result: ReductionResult, warnings: Warning[]) {
   };
 }
 
-/** Readable tables: kPa for stress, bar for pressure, °C for temperature, mm for dies (warnings apart: {@link warningsText}). */
-export function reductionText(result: ReductionResult): string {
+/** The heading line of a group: its label and dies. */
+function groupHeading(g: ReductionGroup): string {
+  const ratio = g.geometry === "slit" ? "L/H" : "L/D";
+  const bore = g.geometry === "slit" ? (g.slitHeight as number) : g.dieDiameter;
+  return `== ${groupLabel(g)}; dies: ${g.dies.map((d) => `L ${num(d.dieLength * 1e3)} mm (${ratio} ${num(d.dieLength / bore)})`).join(", ")}`;
+}
+
+/**
+ * Readable tables of a run (src/io/resultTables.ts): per group a heading and its tables, then the
+ * tables across groups; warnings apart ({@link warningsText}).
+ */
+export function reductionText(run: ReductionRun): string {
+  const tables = resultTables(run).filter((t) => t.id !== "groups" && t.id !== "warnings");
   const out: string[] = [];
-  for (const g of result.groups) {
-    const t = g.temperature === null ? "temperature not given" : `${num(g.temperature - 273.15)} °C`;
-    if (g.geometry === "slit") {
-      const h = g.slitHeight as number;
-      out.push(`== ${t}, slit ${num((g.slitWidth as number) * 1e3)} × ${num(h * 1e3)} mm; dies: ${g.dies.map((d) => `L ${num(d.dieLength * 1e3)} mm (L/H ${num(d.dieLength / h)})`).join(", ")}`);
-    } else out.push(`== ${t}, die diameter ${num(g.dieDiameter * 1e3)} mm; dies: ${g.dies.map((d) => `L ${num(d.dieLength * 1e3)} mm (L/D ${num(d.dieLength / g.dieDiameter)})`).join(", ")}`);
-    if (g.bagley.length > 0) {
-      out.push("", "Bagley end correction");
-      out.push(
-        table(
-          ["shear rate app. [1/s]", "wall stress [kPa]", "entrance p. [bar]", "e [-]", "R² [-]", "dies"],
-          g.bagley.map((b) => [num(b.shearRateApparent), num(b.wallShearStress / 1e3), num(b.entrancePressure / 1e5), num(b.endCorrection, 3), b.r2.toFixed(4), String(b.diesUsed)]),
-        ),
-      );
-    }
-    out.push("", "Flow curve (Rabinowitsch-corrected)");
-    out.push(
-      table(
-        ["shear rate app. [1/s]", "wall stress [kPa]", "n' [-]", "shear rate wall [1/s]", "viscosity [Pa.s]", "visc. app. [Pa.s]"],
-        g.flowCurve.map((f) => [num(f.shearRateApparent), num(f.wallShearStress / 1e3), num(f.nPrime, 3), num(f.shearRateWall), num(f.viscosity), num(f.viscosityApparent)]),
-      ),
-    );
-    out.push(...groupExtrasText(g));
-    out.push("");
+  for (const g of run.result.groups) {
+    out.push(groupHeading(g), "");
+    for (const t of tables.filter((x) => x.scope === groupLabel(g))) out.push(resultTableText({ ...t, scope: undefined }), "");
   }
-  out.push(...topExtrasText(result));
-  return out.join("\n") + "\n";
+  for (const t of tables.filter((x) => x.scope === undefined)) out.push(resultTableText(t), "");
+  return out.join("\n");
 }
 
 /** Every warning of the run, most serious first within the order they were raised. */
@@ -165,7 +156,7 @@ export function runReduce(text: string, args: ParsedArgs): CommandOutput {
   const stdout = args.flags.has("json")
     ? JSON.stringify(withFitJson(reductionJson(result, run.warnings), run), null, 2) + "\n"
     : args.flags.has("summary")
-      ? reductionSummary(run) + fitReportText(run, { comparisons: args.flags.has("compare") })
-      : reductionText(result) + fitReportText(run, { comparisons: args.flags.has("compare") }) + warningsText(run.warnings);
+      ? reductionSummary(run) + shiftSummary(run)
+      : reductionText(run) + warningsText(run.warnings);
   return { stdout, run, result, options: request.options, request, inputWarnings: raw.warnings };
 }

@@ -1,0 +1,366 @@
+/**
+ * Every result table of a run, described once: an id, a title, the group it belongs to, its
+ * columns (a stable key, a plain header, one display unit, how many significant figures), and its
+ * rows already in the display units. The command line's text, the results workbook, the HTML
+ * report and the task pane all render these descriptions, so a result added here appears on every
+ * surface and a column means the same everywhere. A new result = one table builder below.
+ *
+ * Display units (one spelling each, as the pane and the reports show them): shear rate 1/s, stress
+ * kPa, pressure bar, viscosity Pa·s, temperature °C, lengths mm, speeds mm/s, energies kJ/mol.
+ * An undefined value is `null` (an empty cell) and the table's notes say why; a number that is not
+ * finite never reaches a table.
+ */
+import type { Warning } from "../core/errors";
+import { groupLabel, type ReductionGroup } from "../core/reduce";
+import type { ReductionRun } from "../core/run";
+import { getModel } from "../core/models";
+import { displayUnit, modelName, parameterSymbol } from "./displayNames";
+
+/** One cell: a number in the column's unit, text, a flag, or null for an empty cell. */
+export type ResultCell = number | string | boolean | null;
+
+/** One column. */
+export interface ResultColumn {
+  /** stable id (the JSON key where one exists), e.g. "wallShearStress" */
+  key: string;
+  /** plain label without unit, e.g. "Wall shear stress" */
+  header: string;
+  /** display unit, one spelling: "kPa", "1/s", "Pa·s", "°C", "mm", "bar"; "" for none */
+  unit: string;
+  kind: "number" | "text" | "flag";
+  /** significant figures to show (default 4) */
+  digits?: number;
+}
+
+/** One table of results. */
+export interface ResultTable {
+  /** "groups", "bagley", "flowCurve", "fitParameters", "warnings", ... */
+  id: string;
+  title: string;
+  /** the group label when the table belongs to one group */
+  scope?: string;
+  columns: ResultColumn[];
+  rows: ResultCell[][];
+  /** why some cells are empty, what a column means */
+  notes?: string[];
+  /** keys of the columns to keep on a narrow screen */
+  keyColumns?: string[];
+  /** how a chart of this table is drawn (x and y column keys) */
+  chart?: { kind: "bagley" | "flowCurve" | "viscosity" | "nPrime" | "master"; x: string; y: string[]; logX?: boolean; logY?: boolean; seriesBy?: string };
+}
+
+/** A header with its unit the way every surface prints it: "Wall shear stress [kPa]". */
+export function headerWithUnit(c: ResultColumn): string {
+  return c.unit === "" ? c.header : `${c.header} [${c.unit}]`;
+}
+
+const num = (key: string, header: string, unit: string, digits?: number): ResultColumn => ({ key, header, unit, kind: "number", ...(digits ? { digits } : {}) });
+const text = (key: string, header: string): ResultColumn => ({ key, header, unit: "", kind: "text" });
+const flag = (key: string, header: string): ResultColumn => ({ key, header, unit: "", kind: "flag" });
+
+/** A finite number scaled by `factor`, else null (an empty cell). */
+function v(x: number | null | undefined, factor = 1): number | null {
+  return x === null || x === undefined || !Number.isFinite(x) ? null : x * factor;
+}
+const celsius = (kelvin: number | null): number | null => (kelvin === null ? null : kelvin - 273.15);
+const KPA = 1e-3;
+const BAR = 1e-5;
+const MM = 1e3;
+
+function groupsTable(run: ReductionRun): ResultTable {
+  const rows = run.result.groups.map((g, i): ResultCell[] => {
+    const rates = g.flowCurve.map((f) => f.shearRateWall).filter((x): x is number => x !== null);
+    const etas = g.flowCurve.map((f) => f.viscosity).filter((x): x is number => x !== null);
+    const best = run.comparisons?.[i]?.ranked[0];
+    return [
+      groupLabel(g),
+      celsius(g.temperature),
+      g.geometry === "slit" ? null : v(g.dieDiameter, MM),
+      g.dies.length,
+      g.flowCurve.length,
+      rates.length ? Math.min(...rates) : null,
+      rates.length ? Math.max(...rates) : null,
+      etas.length ? Math.min(...etas) : null,
+      etas.length ? Math.max(...etas) : null,
+      best ? modelName(best.model) : null,
+      run.warnings.filter((w) => w.scope === groupLabel(g)).length,
+    ];
+  });
+  return {
+    id: "groups",
+    title: "Groups reduced",
+    columns: [
+      text("group", "Group"),
+      num("temperature", "Temperature", "°C"),
+      num("dieDiameter", "Die diameter", "mm"),
+      num("dies", "Dies", ""),
+      num("points", "Points", ""),
+      num("shearRateWallMin", "True wall rate, lowest", "1/s"),
+      num("shearRateWallMax", "True wall rate, highest", "1/s"),
+      num("viscosityMin", "Viscosity, lowest", "Pa·s"),
+      num("viscosityMax", "Viscosity, highest", "Pa·s"),
+      text("bestModel", "Lowest-AIC model"),
+      num("warnings", "Warnings", ""),
+    ],
+    rows,
+    notes: run.result.groups.some((g) => g.geometry === "slit") ? ["Slit groups have no die diameter; their label gives width × height."] : undefined,
+    keyColumns: ["group", "points", "viscosityMin", "viscosityMax"],
+  };
+}
+
+function bagleyTable(g: ReductionGroup): ResultTable | null {
+  if (g.bagley.length === 0) return null;
+  return {
+    id: "bagley",
+    title: "Bagley end correction",
+    scope: groupLabel(g),
+    columns: [
+      num("shearRateApparent", "Apparent shear rate", "1/s"),
+      num("wallShearStress", "Wall shear stress", "kPa"),
+      num("entrancePressure", "Entrance pressure", "bar"),
+      num("endCorrection", "End correction e", "", 3),
+      num("r2", "R²", "", 6),
+      num("diesUsed", "Dies", ""),
+    ],
+    rows: g.bagley.map((b) => [b.shearRateApparent, v(b.wallShearStress, KPA), v(b.entrancePressure, BAR), v(b.endCorrection), v(b.r2), b.diesUsed]),
+    keyColumns: ["shearRateApparent", "wallShearStress", "endCorrection"],
+    chart: { kind: "bagley", x: "shearRateApparent", y: ["entrancePressure"] },
+  };
+}
+
+function flowCurveTable(g: ReductionGroup): ResultTable {
+  const columns: ResultColumn[] = [
+    num("shearRateApparent", "Apparent shear rate", "1/s"),
+    num("wallShearStress", "Wall shear stress", "kPa"),
+    num("nPrime", "n′", "", 3),
+    num("shearRateWall", "True wall shear rate", "1/s"),
+    num("viscosity", "Viscosity", "Pa·s"),
+    num("viscosityApparent", "Apparent viscosity", "Pa·s"),
+  ];
+  const rep = g.representativeRate;
+  const unc = g.uncertainty;
+  if (rep) columns.push(num("shearRateRepresentative", "Representative rate", "1/s"), num("viscosityRepresentative", "Representative viscosity", "Pa·s"), num("representativeDeviation", "Representative vs Rabinowitsch", "%", 3));
+  if (unc) columns.push(num("wallShearStressUncertainty", "± wall shear stress (k = 2)", "kPa", 2), num("shearRateWallUncertainty", "± true wall rate (k = 2)", "1/s", 2), num("viscosityUncertainty", "± viscosity (k = 2)", "Pa·s", 2));
+  const rows = g.flowCurve.map((f, i): ResultCell[] => {
+    const row: ResultCell[] = [f.shearRateApparent, v(f.wallShearStress, KPA), v(f.nPrime), v(f.shearRateWall), v(f.viscosity), v(f.viscosityApparent)];
+    const r = rep?.[i];
+    if (rep) row.push(v(r?.shearRateRepresentative), v(r?.viscosityRepresentative), v(r?.deviation, 100));
+    const u = unc?.[i];
+    if (unc) row.push(v(u?.wallShearStress, KPA), v(u?.shearRateWall), v(u?.viscosity));
+    return row;
+  });
+  const notes: string[] = [];
+  if (g.flowCurve.some((f) => f.shearRateWall === null)) notes.push("Empty true wall rate and viscosity: the smoothed slope n′ is not positive there, so no Rabinowitsch correction exists.");
+  return {
+    id: "flowCurve",
+    title: "Flow curve (Rabinowitsch-corrected)",
+    scope: groupLabel(g),
+    columns,
+    rows,
+    notes: notes.length ? notes : undefined,
+    keyColumns: ["shearRateWall", "wallShearStress", "viscosity"],
+    chart: { kind: "viscosity", x: "shearRateWall", y: ["viscosity"], logX: true, logY: true },
+  };
+}
+
+function entrancePressureTable(g: ReductionGroup): ResultTable | null {
+  if (!g.entrancePressures) return null;
+  return {
+    id: "entrancePressures",
+    title: "Entrance pressure: Bagley and orifice die",
+    scope: groupLabel(g),
+    columns: [num("shearRateApparent", "Apparent shear rate", "1/s"), num("entrancePressure", "Bagley", "bar"), num("entrancePressureOrifice", "Orifice die", "bar"), num("difference", "Difference", "%", 3)],
+    rows: g.entrancePressures.map((e) => [e.shearRateApparent, v(e.entrancePressure, BAR), v(e.entrancePressureOrifice, BAR), v(e.difference, 100)]),
+    notes: ["Empty: that estimate does not exist at this rate (no Bagley line, or outside the orifice die's range)."],
+  };
+}
+
+function extensionalTable(g: ReductionGroup): ResultTable | null {
+  if (!g.extensional) return null;
+  return {
+    id: "extensional",
+    title: "Extensional viscosity (Cogswell)",
+    scope: groupLabel(g),
+    columns: [
+      num("shearRateWall", "True wall shear rate", "1/s"),
+      num("entrancePressure", "Entrance pressure", "bar"),
+      num("tensileStress", "Tensile stress", "kPa"),
+      num("extensionRate", "Extension rate", "1/s"),
+      num("extensionalViscosity", "Extensional viscosity", "Pa·s"),
+      num("troutonRatio", "Trouton ratio", "", 3),
+    ],
+    rows: g.extensional.map((e) => [v(e.shearRateWall), v(e.entrancePressure, BAR), v(e.tensileStress, KPA), v(e.extensionRate), v(e.extensionalViscosity), v(e.troutonRatio)]),
+    keyColumns: ["extensionRate", "extensionalViscosity", "troutonRatio"],
+  };
+}
+
+function heatingTable(g: ReductionGroup): ResultTable | null {
+  if (!g.heating) return null;
+  const h = g.heating;
+  return {
+    id: "heating",
+    title: "Viscous heating",
+    scope: groupLabel(g),
+    columns: [num("shearRateApparent", "Apparent shear rate", "1/s"), num("pressure", "Pressure", "bar"), num("adiabaticTemperatureRise", "Adiabatic rise", "K", 3), num("nahmeNumber", "Nahme–Griffith number", "", 3)],
+    rows: h.rows.map((r) => [r.shearRateApparent, v(r.pressure, BAR), v(r.adiabaticTemperatureRise), v(r.nahmeNumber)]),
+    notes: [`b = ${Number(h.temperatureCoefficient.toPrecision(3))} 1/K (${h.temperatureCoefficientSource}).`],
+  };
+}
+
+function pressureDependenceTable(g: ReductionGroup): ResultTable | null {
+  if (!g.pressureDependence) return null;
+  const pd = g.pressureDependence;
+  return {
+    id: "pressureDependence",
+    title: "Pressure dependence (curved Bagley lines)",
+    scope: groupLabel(g),
+    columns: [
+      num("shearRateApparent", "Apparent shear rate", "1/s"),
+      num("pressureCoefficient", "β", "1/GPa", 3),
+      num("wallShearStressAtZeroPressure", "Wall shear stress at p = 0", "kPa"),
+      num("entrancePressure", "Entrance pressure", "bar"),
+      num("logViscosityRise", "ln viscosity rise", "", 3),
+      num("diesUsed", "Dies", ""),
+    ],
+    rows: pd.rows.map((r) => [r.shearRateApparent, v(r.pressureCoefficient, 1e9), v(r.wallShearStressAtZeroPressure, KPA), v(r.entrancePressure, BAR), v(r.logViscosityRise), r.diesUsed]),
+    notes: [pd.pressureCoefficient === null ? "No median β: no rate had a converged curved fit." : `Median β = ${Number((pd.pressureCoefficient * 1e9).toPrecision(3))} 1/GPa.`],
+  };
+}
+
+function slipTable(run: ReductionRun): ResultTable | null {
+  const slip = run.result.slip;
+  if (!slip) return null;
+  return {
+    id: "slip",
+    title: "Wall slip (Mooney)",
+    columns: [
+      num("temperature", "Temperature", "°C"),
+      num("wallShearStress", "Wall shear stress", "kPa"),
+      num("slipVelocity", "Slip velocity", "mm/s", 3),
+      num("slipVelocityStandardError", "± slip velocity (1 s.e.)", "mm/s", 2),
+      num("shearRateApparentCorrected", "Slip-corrected apparent rate", "1/s"),
+      num("shearRateWall", "True wall shear rate", "1/s"),
+      num("viscosity", "Viscosity", "Pa·s"),
+      num("r2", "R²", "", 4),
+    ],
+    rows: slip.map((s) => [celsius(s.temperature), v(s.wallShearStress, KPA), v(s.slipVelocity, MM), v(s.slipVelocityStandardError, MM), v(s.shearRateApparentCorrected), v(s.shearRateWall), v(s.viscosity), v(s.r2)]),
+    keyColumns: ["wallShearStress", "slipVelocity", "viscosity"],
+  };
+}
+
+function meltFlowTable(run: ReductionRun): ResultTable | null {
+  const m = run.result.meltFlowRate;
+  if (!m) return null;
+  return {
+    id: "meltFlowRate",
+    title: "Melt-flow-rate point (apparent, standard die 2.095 × 8.000 mm)",
+    columns: [num("flowRate", "Flow rate", "mm³/s"), num("pressure", "Pressure", "bar"), num("shearRateApparent", "Apparent shear rate", "1/s"), num("wallShearStressApparent", "Apparent wall stress", "kPa"), num("viscosityApparent", "Apparent viscosity", "Pa·s")],
+    rows: [[v(m.flowRate, 1e9), v(m.pressure, BAR), v(m.shearRateApparent), v(m.wallShearStressApparent, KPA), v(m.viscosityApparent)]],
+  };
+}
+
+function fitParameterTable(run: ReductionRun): ResultTable | null {
+  const rows: ResultCell[][] = [];
+  run.result.groups.forEach((g, i) => {
+    const fits = [
+      ...(run.modelFits?.[i] ? [{ model: run.modelFits[i].model, rank: null as number | null, result: run.modelFits[i] }] : []),
+      ...(run.comparisons?.[i]?.ranked ?? []).map((r, k) => ({ model: r.model, rank: k + 1 as number | null, result: r.result })),
+    ];
+    for (const f of fits) {
+      for (const p of getModel(f.model).parameters) {
+        const ci = f.result.confidenceIntervals[p.name];
+        const held = f.result.fixed.includes(p.name);
+        rows.push([groupLabel(g), modelName(f.model), f.rank, parameterSymbol(p.name), displayUnit(p.unit), v(f.result.parameters[p.name]), held ? null : v(f.result.standardErrors[p.name]), ci ? v(ci[0]) : null, ci ? v(ci[1]) : null, held]);
+      }
+    }
+  });
+  if (rows.length === 0) return null;
+  return {
+    id: "fitParameters",
+    title: "Model fits: parameters (SI units)",
+    columns: [
+      text("group", "Group"),
+      text("model", "Model"),
+      num("rank", "Rank by AIC", ""),
+      text("parameter", "Parameter"),
+      text("unit", "Unit (SI)"),
+      num("value", "Value", ""),
+      num("standardError", "Standard error", "", 3),
+      num("ci95Low", "95 % interval, low", ""),
+      num("ci95High", "95 % interval, high", ""),
+      flag("fixed", "Held fixed"),
+    ],
+    rows,
+    notes: ["Empty standard error or interval: the parameter was held fixed, or the data cannot separate it (singular covariance)."],
+    keyColumns: ["model", "parameter", "value", "standardError"],
+  };
+}
+
+function fitRankingTable(run: ReductionRun): ResultTable | null {
+  if (!run.comparisons) return null;
+  const rows: ResultCell[][] = [];
+  run.result.groups.forEach((g, i) => {
+    const c = run.comparisons?.[i];
+    c?.ranked.forEach((r, k) => rows.push([groupLabel(g), k + 1, modelName(r.model), v(r.aic), v(r.deltaAic), v(r.akaikeWeight), v(r.result.r2), v(r.result.rmse), r.result.converged, null]));
+    c?.failed.forEach((f) => rows.push([groupLabel(g), null, modelName(f.model), null, null, null, null, null, false, f.reason]));
+  });
+  return {
+    id: "fitRanking",
+    title: "Model fits: ranking by AIC",
+    columns: [
+      text("group", "Group"),
+      num("rank", "Rank", ""),
+      text("model", "Model"),
+      num("aic", "AIC", "", 5),
+      num("deltaAic", "ΔAIC", "", 3),
+      num("akaikeWeight", "Akaike weight", "", 3),
+      num("r2", "R²", "", 6),
+      num("rmse", "RMS error of ln η", "", 3),
+      flag("converged", "Converged"),
+      text("reason", "Why not fitted"),
+    ],
+    rows,
+    keyColumns: ["group", "rank", "model", "deltaAic"],
+  };
+}
+
+function shiftTable(run: ReductionRun): ResultTable | null {
+  const s = run.shift;
+  if (!s) return null;
+  const f = s.fit;
+  const notes =
+    f.law === "arrhenius"
+      ? [`Arrhenius: Ea = ${Number((f.activationEnergy / 1e3).toPrecision(4))} ± ${Number((f.activationEnergyStandardError / 1e3).toPrecision(2))} kJ/mol (1 s.e.).`]
+      : [`WLF: C1 = ${Number(f.C1.toPrecision(4))} ± ${Number(f.C1StandardError.toPrecision(2))}, C2 = ${Number(f.C2.toPrecision(4))} ± ${Number(f.C2StandardError.toPrecision(2))} K (1 s.e.).`];
+  notes.push(`Reference temperature ${Number((f.referenceTemperature - 273.15).toPrecision(5))} °C (${s.referenceChoice === "given" ? "given" : "the middle measured temperature"}); die diameter ${Number((s.dieDiameter * MM).toPrecision(4))} mm.`);
+  return {
+    id: "shift",
+    title: `Temperature shift (${f.law === "arrhenius" ? "Arrhenius" : "WLF"})`,
+    columns: [num("temperature", "Temperature", "°C"), num("aT", "Shift factor aT", "", 4)],
+    rows: f.factors.map((x) => [celsius(x.temperature), v(x.aT)]),
+    notes,
+  };
+}
+
+/** The warnings table: every warning of the run, most serious first. */
+export function warningsTable(warnings: readonly Warning[]): ResultTable {
+  const rank = { serious: 0, caution: 1, info: 2 } as const;
+  const sorted = [...warnings].sort((a, b) => rank[a.severity] - rank[b.severity]);
+  return {
+    id: "warnings",
+    title: "Warnings",
+    columns: [text("severity", "Severity"), text("code", "Code"), text("scope", "Where"), text("message", "Message")],
+    rows: sorted.map((w) => [w.severity, w.code, w.scope ?? null, w.message]),
+    keyColumns: ["severity", "message"],
+  };
+}
+
+/** Every table of a run, in reading order: groups, then per group its tables, then across groups. */
+export function resultTables(run: ReductionRun): ResultTable[] {
+  const tables: (ResultTable | null)[] = [groupsTable(run)];
+  for (const g of run.result.groups) {
+    tables.push(bagleyTable(g), flowCurveTable(g), entrancePressureTable(g), extensionalTable(g), heatingTable(g), pressureDependenceTable(g));
+  }
+  tables.push(slipTable(run), meltFlowTable(run), fitRankingTable(run), fitParameterTable(run), shiftTable(run), warningsTable(run.warnings));
+  return tables.filter((t): t is ResultTable => t !== null);
+}
