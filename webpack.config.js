@@ -9,8 +9,8 @@
  *
  * custom-functions-metadata-plugin reads the @customfunction JSDoc of FUNCTION_FILES, writes
  * dist/functions.json, and appends `CustomFunctions.associate(id, fn)` for each declared function
- * to that file's source. Worksheet functions declared in another file must be added to the list
- * and imported by src/functions/entry.ts (the bundle's entry).
+ * to that file's source. The list of those files is src/functions/entry.ts (the bundle's entry and
+ * the one registry of function files).
  */
 const fs = require("fs");
 const os = require("os");
@@ -19,8 +19,13 @@ const CopyWebpackPlugin = require("copy-webpack-plugin");
 const CustomFunctionsMetadataPlugin = require("custom-functions-metadata-plugin");
 const HtmlWebpackPlugin = require("html-webpack-plugin");
 
-/** Files holding @customfunction declarations (the metadata plugin's input). */
-const FUNCTION_FILES = ["./src/functions/functions.ts", "./src/functions/fitting.ts", "./src/functions/methods.ts", "./src/functions/planning.ts"];
+/**
+ * Files holding @customfunction declarations (the metadata plugin's input): the files that
+ * src/functions/entry.ts, the one registry, imports.
+ */
+const FUNCTION_FILES = [...fs.readFileSync(path.join(__dirname, "src/functions/entry.ts"), "utf8").matchAll(/^import \* as \w+ from "\.\/(\w+)";$/gm)].map(
+  (m) => `./src/functions/${m[1]}.ts`,
+);
 const DEV_PORT = 3000;
 /** Size budget of the functions bundle (it loads at every Excel start). */
 // 150 KB until RHEO.REDUCE read every reduce setting through the shared reader (src/io/reduceOptions.ts, +14 KB)

@@ -1,28 +1,18 @@
 /**
  * Building RHEO formulas for the demo workbooks together with the values they compute: each call
  * gives the formula text Excel stores and the result grid of the same implementation the add-in
- * registers (the files src/functions/entry.ts bundles: functions.ts, fitting.ts, methods.ts,
- * planning.ts), which becomes the cell's cached value.
+ * registers (the files of the registry src/functions/entry.ts), which becomes the cell's cached value.
  */
 import { readFileSync } from "node:fs";
 import path from "node:path";
-import * as coreFunctions from "../../src/functions/functions";
-import * as fittingFunctions from "../../src/functions/fitting";
-import * as methodFunctions from "../../src/functions/methods";
-import * as planningFunctions from "../../src/functions/planning";
 import { isCellError } from "../../src/functions/adapter";
+import { FUNCTION_MODULES as MODULES } from "../../src/functions/entry";
 import { SheetFunctionEntry, readFunctionTable } from "./functionTable";
 
-/** The files declaring worksheet functions, with their exports. */
-const FUNCTION_MODULES: [string, Record<string, unknown>][] = [
-  ["functions.ts", coreFunctions],
-  ["fitting.ts", fittingFunctions],
-  ["methods.ts", methodFunctions],
-  ["planning.ts", planningFunctions],
-];
+const FUNCTION_MODULES = Object.entries(MODULES) as [string, Record<string, unknown>][];
 
-/** The exported JavaScript name of any declared worksheet function. */
-export type SheetFunctionName = keyof typeof coreFunctions | keyof typeof fittingFunctions | keyof typeof methodFunctions | keyof typeof planningFunctions;
+import type { SheetFunctionName } from "../../src/functions/entry";
+export type { SheetFunctionName };
 
 export type Grid = unknown[][];
 

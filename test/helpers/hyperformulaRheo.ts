@@ -1,7 +1,7 @@
 /**
  * The RHEO worksheet functions as a HyperFormula plugin, for evaluating workbooks headlessly in
- * tests. Every function declared with `@customfunction` in the files src/functions/entry.ts
- * bundles (functions.ts, fitting.ts, methods.ts, planning.ts) is
+ * tests. Every function declared with `@customfunction` in the files of the registry
+ * src/functions/entry.ts is
  * registered under its Excel name and calls the SAME exported implementation the add-in
  * registers; arguments arrive as Excel passes them (ranges as 2-D arrays, blanks and omitted
  * optional arguments as null).
@@ -21,22 +21,14 @@ import { readFileSync } from "node:fs";
 import path from "node:path";
 import { ArraySize, CellError, EmptyValue, ErrorType, FunctionArgumentType, FunctionPlugin, HyperFormula, SimpleRangeValue } from "hyperformula";
 import type { ImplementedFunctions } from "hyperformula";
-import * as coreFunctions from "../../src/functions/functions";
-import * as fittingFunctions from "../../src/functions/fitting";
-import * as methodFunctions from "../../src/functions/methods";
-import * as planningFunctions from "../../src/functions/planning";
 import { isCellError } from "../../src/functions/adapter";
+import { FUNCTION_MODULES as MODULES } from "../../src/functions/entry";
 import { readFunctionTable, type SheetFunctionEntry } from "../../scripts/workbooks/functionTable";
 
 type Implementation = (...args: unknown[]) => unknown[][];
 
-/** The files that declare worksheet functions (those src/functions/entry.ts imports) and their exports. */
-const FUNCTION_MODULES: [string, Record<string, unknown>][] = [
-  ["functions.ts", coreFunctions],
-  ["fitting.ts", fittingFunctions],
-  ["methods.ts", methodFunctions],
-  ["planning.ts", planningFunctions],
-];
+/** The files that declare worksheet functions and their exports (the registry src/functions/entry.ts). */
+const FUNCTION_MODULES = Object.entries(MODULES) as [string, Record<string, unknown>][];
 
 /** Every RHEO function as declared in src/functions (Excel name, parameters). */
 export const RHEO_FUNCTIONS: SheetFunctionEntry[] = FUNCTION_MODULES.flatMap(([file]) => readFunctionTable(readFileSync(path.join(__dirname, "../../src/functions", file), "utf8")));
