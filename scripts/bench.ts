@@ -4,7 +4,7 @@
  * machine and its load, so no test asserts on them.
  *
  *   npm run bench                          print the table
- *   npm run bench -- --write-readme        also write it into README.md (between the
+ *   npm run bench -- --write-docs          also write it into docs/performance.md (between the
  *                                          `<!-- performance -->` and `<!-- performance:end -->` markers)
  *   npm run bench -- --quick               fewer repeats (a smoke run; figures are noisier)
  *   npm run bench -- --no-build            read dist/ as it is, even when older than the sources
@@ -277,14 +277,14 @@ function plainTable(lines: Line[]): string {
   return [row("what", "median", "target", ""), row("-".repeat(w[0]!), "-".repeat(w[1]!), "-".repeat(w[2]!), "----"), ...lines.map((l) => row(l.what, l.measured, l.target, l.verdict))].join("\n");
 }
 
-/** Replaces the block after `<!-- performance -->` (up to `<!-- performance:end -->`) in README.md. */
+/** Replaces the block after `<!-- performance -->` (up to `<!-- performance:end -->`) in docs/performance.md. */
 function writeReadme(block: string): void {
-  const file = path.join(ROOT, "README.md");
+  const file = path.join(ROOT, "docs", "performance.md");
   const text = readFileSync(file, "utf8"); // read right before writing: others edit this file too
   const start = "<!-- performance -->";
   const end = "<!-- performance:end -->";
   const i = text.indexOf(start);
-  if (i < 0) throw new Error(`README.md has no ${start} marker; add it where the figures belong`);
+  if (i < 0) throw new Error(`docs/performance.md has no ${start} marker; add it where the figures belong`);
   const j = text.indexOf(end, i);
   const after = j < 0 ? text.slice(i + start.length) : text.slice(j + end.length);
   writeFileSync(file, `${text.slice(0, i)}${start}\n${block}\n${end}${after}`);
@@ -357,7 +357,7 @@ function main(): void {
   console.log("\n" + notes.map((n) => `- ${n}`).join("\n"));
   if (sink === 42) console.log(""); // use the sink
 
-  if (flags.has("--write-readme")) {
+  if (flags.has("--write-docs")) {
     const block = [
       "",
       `Latest \`npm run bench\` on ${date}:`,
@@ -371,7 +371,7 @@ function main(): void {
       "",
     ].join("\n");
     writeReadme(block);
-    console.log("\nREADME.md: performance section updated.");
+    console.log("\ndocs/performance.md: performance section updated.");
   }
 }
 

@@ -1,12 +1,12 @@
 #!/usr/bin/env node
 /**
- * Writes the worksheet-function reference into README.md between
+ * Writes the worksheet-function reference into docs/functions.md between
  *   <!-- function-reference:start --> and <!-- function-reference:end -->
  * from dist/functions.json (names, arguments, descriptions, built by `npm run build`) and the
  * `@example` lines of the @customfunction blocks (functions.json has no examples).
  *
- *   node scripts/gen-function-reference.mjs          rewrite README.md
- *   node scripts/gen-function-reference.mjs --check  exit 1 if README.md is out of date
+ *   node scripts/gen-function-reference.mjs          rewrite docs/functions.md
+ *   node scripts/gen-function-reference.mjs --check  exit 1 if docs/functions.md is out of date
  */
 import { existsSync, readFileSync, writeFileSync } from "node:fs";
 import { dirname, join } from "node:path";
@@ -126,19 +126,19 @@ function main() {
   }
   const metadata = JSON.parse(readFileSync(jsonPath, "utf8"));
   const examples = Object.assign({}, ...SOURCES.map((s) => readExamples(readFileSync(join(root, s), "utf8"))));
-  const readmePath = join(root, "README.md");
+  const readmePath = join(root, "docs", "functions.md");
   const readme = existsSync(readmePath) ? readFileSync(readmePath, "utf8") : "";
   const next = spliceReadme(readme, renderReference(metadata, examples));
   if (process.argv.includes("--check")) {
     if (next !== readme) {
-      console.error("README.md function reference is out of date: run `npm run docs:functions`.");
+      console.error("docs/functions.md is out of date: run `npm run docs:functions`.");
       process.exit(1);
     }
-    console.log("README.md function reference is up to date.");
+    console.log("docs/functions.md is up to date.");
     return;
   }
   writeFileSync(readmePath, next);
-  console.log(`README.md: function reference for ${metadata.functions.length} functions written.`);
+  console.log(`docs/functions.md: function reference for ${metadata.functions.length} functions written.`);
 }
 
 if (process.argv[1] === fileURLToPath(import.meta.url)) main();
