@@ -38,6 +38,8 @@ export interface RheoErrorAddress {
   row?: number | null;
   /** a phrase put before the detail, e.g. "group 190 °C, D 1 mm:" */
   context?: string;
+  /** the offending value as the user gave it, e.g. "-5 mm" (replaces the core's SI value) */
+  received?: string;
 }
 
 /**
@@ -55,15 +57,18 @@ export class RheoError extends Error {
   readonly detail: string;
   /** stable identifier: {@link DEFAULT_ERROR_CODES} of the kind unless the thrower names one */
   readonly code: string;
+  /** the offending value, when the thrower gives it apart from the detail (", got …" in the message) */
+  readonly received: string | undefined;
 
-  constructor(kind: RheoErrorKind, argument: string, detail: string, row?: number, code?: string) {
-    super(`${argument}: ${row !== undefined ? `row ${row} ` : ""}${detail}`);
+  constructor(kind: RheoErrorKind, argument: string, detail: string, row?: number, code?: string, received?: string) {
+    super(`${argument}: ${row !== undefined ? `row ${row} ` : ""}${detail}${received !== undefined ? `, got ${received}` : ""}`);
     this.name = "RheoError";
     this.kind = kind;
     this.argument = argument;
     this.row = row;
     this.detail = detail;
     this.code = code ?? DEFAULT_ERROR_CODES[kind];
+    this.received = received;
   }
 
   /**
@@ -75,7 +80,7 @@ export class RheoError extends Error {
   retarget(address: RheoErrorAddress): RheoError {
     const row = address.row === null ? undefined : address.row ?? this.row;
     const detail = address.context ? `${address.context} ${this.detail}` : this.detail;
-    return new RheoError(this.kind, address.argument ?? this.argument, detail, row, this.code);
+    return new RheoError(this.kind, address.argument ?? this.argument, detail, row, this.code, address.received ?? this.received);
   }
 }
 
@@ -109,25 +114,25 @@ export function scoped(w: Warning, scope: string): Warning {
  */
 export function requirePositive(value: number, argument: string, row?: number): number {
   if (typeof value !== "number" || !Number.isFinite(value)) {
-    throw new RheoError("value", argument, `must be a finite number, got ${String(value)}`, row);
+    throw new RheoError("value", argument, "must be a finite number", row, undefined, String(value));
   }
-  if (value <= 0) throw new RheoError("domain", argument, `must be greater than zero, got ${value}`, row);
+  if (value <= 0) throw new RheoError("domain", argument, "must be greater than zero", row, undefined, String(value));
   return value;
 }
 
 /** Throws a `domain` error unless `value` is a finite number >= 0. */
 export function requireNonNegative(value: number, argument: string, row?: number): number {
   if (typeof value !== "number" || !Number.isFinite(value)) {
-    throw new RheoError("value", argument, `must be a finite number, got ${String(value)}`, row);
+    throw new RheoError("value", argument, "must be a finite number", row, undefined, String(value));
   }
-  if (value < 0) throw new RheoError("domain", argument, `must not be negative, got ${value}`, row);
+  if (value < 0) throw new RheoError("domain", argument, "must not be negative", row, undefined, String(value));
   return value;
 }
 
 /** Throws a `value` error unless `value` is a finite number. */
 export function requireFinite(value: number, argument: string, row?: number): number {
   if (typeof value !== "number" || !Number.isFinite(value)) {
-    throw new RheoError("value", argument, `must be a finite number, got ${String(value)}`, row);
+    throw new RheoError("value", argument, "must be a finite number", row, undefined, String(value));
   }
   return value;
 }

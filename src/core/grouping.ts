@@ -26,10 +26,10 @@ export function checkMeasurement(m: Measurement, index: number): number {
   const row = m.row ?? index + 1;
   const need = (value: number, name: string, allowZero = false) => {
     if (typeof value !== "number" || !Number.isFinite(value)) {
-      throw new RheoError("value", name, `must be a finite number, got ${String(value)}`, row);
+      throw new RheoError("value", name, "must be a finite number", row, undefined, String(value));
     }
     if (allowZero ? value < 0 : value <= 0) {
-      throw new RheoError("domain", name, `must be ${allowZero ? "zero or more" : "greater than zero"}, got ${value}`, row);
+      throw new RheoError("domain", name, `must be ${allowZero ? "zero or more" : "greater than zero"}`, row, undefined, String(value));
     }
   };
   if (m.slitWidth !== undefined || m.slitHeight !== undefined) {

@@ -69,7 +69,7 @@ export function modelArg(value: unknown, argument = "model"): ModelDefinition {
   try {
     return getModel(id);
   } catch (e) {
-    if (e instanceof RheoError && argument !== "model") throw new RheoError(e.kind, argument, e.message.slice("model: ".length));
+    if (e instanceof RheoError && argument !== "model") throw e.retarget({ argument });
     throw e;
   }
 }

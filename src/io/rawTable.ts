@@ -159,8 +159,9 @@ export function readRawTable(cells: unknown[][], options: Partial<RawTableOption
     const get = (name: ColumnName) => values.get(name) as number;
     const fail = (name: ColumnName, e: unknown): never => {
       const col = byName.get(name) as ColumnInfo;
-      const msg = e instanceof RheoError ? e.message.replace(/^[^:]+: /, "") : String(e);
-      throw new RheoError(e instanceof RheoError ? e.kind : "value", `${col.header} (column ${col.index + 1})`, `${opt.rowWord} ${number} ${msg}`);
+      const argument = `${col.header} (column ${col.index + 1})`;
+      if (e instanceof RheoError) throw e.retarget({ argument, row: null, context: `${opt.rowWord} ${number}`, received: e.received === undefined ? undefined : String(values.get(name) ?? e.received) });
+      throw new RheoError("value", argument, `${opt.rowWord} ${number} ${String(e)}`);
     };
     let flowRate: number;
     try {

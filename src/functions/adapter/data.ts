@@ -106,9 +106,9 @@ function singleCellResult(
 function inUserTerms(thrown: unknown, rows: SheetRows, k: number, rename: Record<string, string>): unknown {
   if (!(thrown instanceof RheoError) || thrown.row !== undefined) return thrown;
   const argument = rename[thrown.argument] ?? thrown.argument;
-  let rest = thrown.message.slice(`${thrown.argument}: `.length);
   const typed = rows.typed[argument]?.[k];
   const unit = rows.units[argument];
-  if (typed !== undefined && /got \S+$/.test(rest)) rest = rest.replace(/got \S+$/, `got ${typed}${unit ? ` ${unit}` : ""}`);
-  return new RheoError(thrown.kind, argument, rest);
+  // the value as the user typed it, in the user's unit, in place of the core's SI value
+  const received = typed !== undefined && thrown.received !== undefined ? `${typed}${unit ? ` ${unit}` : ""}` : undefined;
+  return thrown.retarget({ argument, ...(received !== undefined ? { received } : {}) });
 }

@@ -11,7 +11,7 @@
  * - numbers stored as text ("12.5", " 1e3 ") are read as numbers; other text, logical values and
  *   error values are refused with a #VALUE! naming the argument and the row.
  */
-import { RheoError, RheoErrorKind } from "../../core/errors";
+import { RheoError } from "../../core/errors";
 
 /** How a range runs: down a column, across a row, or a single cell. */
 export type Orientation = "column" | "row" | "single";
@@ -32,8 +32,8 @@ export function position(orientation: Orientation, index: number): string {
 }
 
 /** A RheoError located at one cell of a range. */
-export function errorAt(kind: RheoErrorKind, argument: string, orientation: Orientation, index: number, message: string): RheoError {
-  return new RheoError(kind, argument, `${position(orientation, index)} ${message}`);
+export function errorAt(error: RheoError, argument: string, orientation: Orientation, index: number): RheoError {
+  return error.retarget({ argument, row: null, context: position(orientation, index) });
 }
 
 /** True for the cell values Excel passes for an empty cell. */
@@ -178,12 +178,9 @@ export function atRows<T>(rows: Rows, call: () => T, rename: Record<string, stri
   } catch (thrown) {
     if (!(thrown instanceof RheoError)) throw thrown;
     const argument = rename[thrown.argument] ?? thrown.argument;
-    const rowPart = thrown.row !== undefined ? `row ${thrown.row} ` : "";
-    const prefix = `${thrown.argument}: ${rowPart}`;
-    const rest = thrown.message.startsWith(prefix) ? thrown.message.slice(prefix.length) : thrown.message;
     const pos = thrown.row !== undefined ? rows.kept[thrown.row - 1] : undefined;
-    if (pos !== undefined) throw errorAt(thrown.kind, argument, rows.orientation, pos, rest);
-    if (argument !== thrown.argument) throw new RheoError(thrown.kind, argument, rest);
+    if (pos !== undefined) throw errorAt(thrown, argument, rows.orientation, pos);
+    if (argument !== thrown.argument) throw thrown.retarget({ argument });
     throw thrown;
   }
 }
@@ -198,11 +195,7 @@ export function eachRow(rows: Rows, names: string[], compute: (...values: number
     try {
       return compute(...cols.map((c) => c[k] as number));
     } catch (thrown) {
-      if (thrown instanceof RheoError && thrown.row === undefined) {
-        const prefix = `${thrown.argument}: `;
-        const rest = thrown.message.startsWith(prefix) ? thrown.message.slice(prefix.length) : thrown.message;
-        throw errorAt(thrown.kind, thrown.argument, rows.orientation, pos, rest);
-      }
+      if (thrown instanceof RheoError && thrown.row === undefined) throw errorAt(thrown, thrown.argument, rows.orientation, pos);
       throw thrown;
     }
   });
