@@ -137,7 +137,7 @@ function pressureAt(series: DieSeries, rate: number, tolerance: number) {
  * Bagley end correction over dies of one diameter (and one temperature).
  *
  * For each common apparent rate, fits ΔP = slope·(L/R) + ΔP_ent by least squares
- * (ml-regression) and reports τ_w = slope/2, ΔP_ent, e = ΔP_ent/slope and R².
+ * (regression.ts) and reports τ_w = slope/2, ΔP_ent, e = ΔP_ent/slope and R².
  * Rates where fewer than `minDies` dies have a value (measured, or interpolated inside the die's
  * measured range; never extrapolated) are left out with a warning.
  *

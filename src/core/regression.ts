@@ -1,13 +1,13 @@
 /**
  * Least-squares straight lines and polynomials, with the statistics the corrections need.
- * Lines come from mljs (ml-regression-simple-linear), polynomials from the Householder QR of
- * ./linearLeastSquares; this module adds the standard errors of the coefficients
- * (Draper & Smith, Applied Regression Analysis, 3rd ed. 1998, §1.4 and §3.1).
+ * Lines from centred sums, b = Sxy/Sxx, a = ȳ − b·x̄, with the standard errors of the
+ * coefficients (Draper & Smith, Applied Regression Analysis, 3rd ed. (1998), ch. 1; from memory);
+ * polynomials from the Householder QR of ./linearLeastSquares.
+ * Why not ml-regression-simple-linear (used here before): it gave slope and intercept only (this
+ * module needs the means, Sxx and residuals anyway), and from raw one-pass sums
+ * (nΣxy − ΣxΣy)/(nΣx² − (Σx)²), which cancel catastrophically when x carries a large offset
+ * (docs/numerics.md; test/regression.test.ts).
  */
-// The sub-package, not the ml-regression umbrella (which pulls every mljs regression into the
-// worksheet-function bundle); polynomials without ml-regression-polynomial, whose ml-matrix was
-// ~70 KB of that bundle's 150 KB budget (see linearLeastSquares.ts).
-import { SimpleLinearRegression } from "ml-regression-simple-linear";
 import { leastSquares } from "./linearLeastSquares";
 
 /** A fitted line y = intercept + slope·x. Standard errors are NaN-free: 0 when n = 2. */
@@ -27,29 +27,33 @@ export interface LineFit {
 }
 
 /**
- * Ordinary least-squares line through (x, y) (ml-regression SimpleLinearRegression), with
+ * Ordinary least-squares line through (x, y) from centred sums: b = Sxy/Sxx, a = ȳ − b·x̄, with
  * SE(b) = √(s²/Sxx), SE(a) = √(s²(1/n + x̄²/Sxx)), s² = Σr²/(n−2).
  * Caller guarantees n ≥ 2 and that x is not constant.
+ * @example fitLine([1, 2, 3], [3, 5, 7]) // slope 2, intercept 1, r2 1
  */
 export function fitLine(x: number[], y: number[]): LineFit {
   const n = x.length;
-  const reg = new SimpleLinearRegression(x, y);
-  const slope = reg.slope;
-  const intercept = reg.intercept;
   const meanX = x.reduce((s, v) => s + v, 0) / n;
   const meanY = y.reduce((s, v) => s + v, 0) / n;
   let sxx = 0;
-  let ssr = 0;
+  let sxy = 0;
   let sst = 0;
+  for (let i = 0; i < n; i++) {
+    const dx = (x[i] as number) - meanX;
+    const dy = (y[i] as number) - meanY;
+    sxx += dx * dx;
+    sxy += dx * dy;
+    sst += dy * dy;
+  }
+  const slope = sxy / sxx;
+  const intercept = meanY - slope * meanX;
+  let ssr = 0;
   const residuals: number[] = [];
   for (let i = 0; i < n; i++) {
-    const xi = x[i] as number;
-    const yi = y[i] as number;
-    const r = yi - (intercept + slope * xi);
+    const r = (y[i] as number) - (intercept + slope * (x[i] as number));
     residuals.push(r);
-    sxx += (xi - meanX) ** 2;
     ssr += r * r;
-    sst += (yi - meanY) ** 2;
   }
   const r2 = sst === 0 ? 1 : 1 - ssr / sst;
   const s2 = n > 2 ? ssr / (n - 2) : 0;
