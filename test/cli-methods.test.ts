@@ -24,6 +24,21 @@ function csv(): string {
   return lines.join("\n");
 }
 
+/** Numeric rows of every text table titled `title` in the CLI output (all groups), as numbers. */
+function table(stdout: string, title: string): number[][] {
+  const rows: number[][] = [];
+  const lines = stdout.split("\n");
+  lines.forEach((line, i) => {
+    if (line.trim() !== title) return;
+    for (let j = i + 3; j < lines.length && (lines[j] as string).trim() !== ""; j++) {
+      rows.push((lines[j] as string).trim().split(/\s+/).map(Number));
+    }
+  });
+  expect(rows.length).toBeGreaterThan(0);
+  rows.forEach((row) => row.forEach((v) => expect(Number.isFinite(v)).toBe(true)));
+  return rows;
+}
+
 describe("rheoledger reduce with the method flags", () => {
   const files = { "n.csv": csv() };
   test("--slip --extensional --representative --pressure --transducer --mfr: JSON keys in SI", async () => {
@@ -49,9 +64,16 @@ describe("rheoledger reduce with the method flags", () => {
   test("--orifice and --heating: text tables with units", async () => {
     const r = await run(["reduce", "n.csv", "--orifice", "--heating", "density=0.75 g/cm3, cp=2.5 kJ/(kg.K), k=0.2 W/(m.K), b=0.03 1/K"], files);
     expect(r.code).toBe(0);
-    expect(r.stdout).toContain("Entrance pressure: Bagley and orifice die");
-    expect(r.stdout).toContain("b = 0.03 1/K (given).");
-    expect(r.stdout).toContain("Adiabatic rise [K]");
+    expect(r.stdout).toContain("Viscous heating (b = 0.03 1/K, given)");
+    // values, not only headers: the invented data's entrance loss is √(8/3)·μ·γ̇_a (Cogswell's
+    // relation for a Trouton liquid, μ = 400 Pa·s), which the Bagley column must show in bar
+    const entrance = table(r.stdout, "Entrance pressure: Bagley and orifice die");
+    expect(entrance.length).toBe(3 * 4);
+    for (const [rate, bagleyBar] of entrance) expectClose(bagleyBar as number, (Math.sqrt(8 / 3) * 400 * (rate as number)) / 1e5, { rel: 2e-3 });
+    // adiabatic rise ΔT = ΔP/(ρ·c_p) (Macosko 1994, ch. 6, from memory) of the pressure printed beside it
+    const heating = table(r.stdout, "Viscous heating (b = 0.03 1/K, given)");
+    expect(heating.length).toBe(3 * 4);
+    for (const [, pressureBar, rise] of heating) expectClose(rise as number, ((pressureBar as number) * 1e5) / (750 * 2500), { rel: 3e-3 });
   });
   test("bad flag values exit 1 naming the flag", async () => {
     expect((await run(["reduce", "n.csv", "--transducer", "1000 bar"], files)).stderr).toMatch(/--transducer: expected "full scale, accuracy"/);

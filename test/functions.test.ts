@@ -144,8 +144,12 @@ describe("range conventions", () => {
         for (const grid of results) {
           for (const r of grid) {
             for (const v of r) {
-              const ok = (typeof v === "number" && Number.isFinite(v)) || v === "" || v instanceof FakeCustomFunctionError || typeof v === "string";
-              if (!ok) return false;
+              // a finite number, an empty cell of a spill, or an error that names what went wrong;
+              // and no text at all: none of these calls asks for a header row
+              const ok = (typeof v === "number" && Number.isFinite(v)) || v === "" || (v instanceof FakeCustomFunctionError && /^\S[^:]*: \S/.test(v.message));
+              if (!ok) {
+                throw new Error(`unexpected cell ${typeof v === "string" ? JSON.stringify(v) : String(v)} for ${JSON.stringify([a, b, c])}`);
+              }
             }
           }
         }

@@ -123,7 +123,7 @@ maybe("task pane preview mode (chromium)", () => {
 
   test("preview mode renders the core's Bagley table, flow curve and fits for the demo data (500 px)", async () => {
     const { page, errors } = await openPane(500);
-    await expect(page.locator("#mode-banner")).toBeTruthy();
+    expect(await page.locator("#mode-banner").count()).toBe(1);
     expect(await page.locator("#mode-banner").isVisible()).toBe(true);
     await page.click("#run");
     await page.waitForSelector('table[data-block="flow-1"]');
