@@ -7,7 +7,8 @@
  *   // @check <module> | <what is checked> | <source> | <tolerance> | <number of values>
  *
  * - module: the src/core module the check exercises, as a path without extension
- *   ("bagley", "temperature/fitShift", "models/ellis");
+ *   ("bagley", "temperature/fitShift", "models/ellis"); several separated by ", " when one
+ *   assertion checks them together;
  * - source: the outside reference, first the one the value comes from (a standard, handbook,
  *   paper, book with edition, or an independent library such as scipy with its generator); mark
  *   "from memory" where the text was not at hand;
@@ -80,16 +81,18 @@ export function collectChecks(root = ROOT) {
           problems.push(`${where}: an @check needs 5 non-empty fields separated by " | ", got ${fields.length}`);
           return;
         }
-        const [module, check, source, tolerance, count] = fields;
+        const [moduleList, check, source, tolerance, count] = fields;
         if (!/^[1-9][0-9]*$/.test(count)) {
           problems.push(`${where}: the number of values must be a whole number ≥ 1, got "${count}"`);
           return;
         }
-        if (!existsSync(join(root, "src", "core", `${module}.ts`))) {
-          problems.push(`${where}: no module src/core/${module}.ts`);
+        const modules = moduleList.split(", ");
+        const missing = modules.filter((m) => !existsSync(join(root, "src", "core", `${m}.ts`)));
+        if (missing.length) {
+          problems.push(`${where}: no module ${missing.map((m) => `src/core/${m}.ts`).join(", ")}`);
           return;
         }
-        checks.push({ module, check, source, tolerance, values: Number(count), file: rel, line: i + 1 });
+        checks.push({ module: moduleList, modules, check, source, tolerance, values: Number(count), file: rel, line: i + 1 });
       });
   }
   return { checks, problems };
@@ -105,9 +108,17 @@ export function coreModules(root = ROOT) {
   return walk(base).sort();
 }
 
-/** The first source named in a source field: text before ";" or ",", without parentheses. */
+/**
+ * The first source named in a source field, as a key for counting distinct sources: the text
+ * before ";", without parentheses, cut at the first ", " unless what follows ends an author list
+ * ("Williams, Landel & Ferry"), without a trailing year; any scipy reference counts as "scipy".
+ */
 export function primarySource(source) {
-  return source.split(";")[0].replace(/\([^)]*\)/g, "").split(",")[0].trim();
+  if (/^scipy\b/i.test(source)) return "scipy";
+  const parts = source.replace(/\([^)]*\)/g, "").split(";")[0].split(", ");
+  let key = parts[0].trim();
+  if (parts[1] && / & /.test(parts[1]) && /^[A-Z]/.test(parts[1])) key += `, ${parts[1].trim()}`;
+  return key.replace(/\s+(1[6-9]|20)\d\d\s*$/, "").trim();
 }
 
 export function summarise(checks) {
@@ -136,7 +147,7 @@ export function renderTable(checks, root = ROOT) {
     "generator committed under scripts/ and its output under test/fixtures/).",
     "",
     `- ${s.values} outside values from ${s.sources.length} sources, besides ${s.fixtureValues} values of the scipy fitter fixture.`,
-    `- Core modules with a check: ${new Set(checks.map((c) => c.module)).size} of ${modules.length - Object.keys(EXEMPT_MODULES).filter((m) => modules.includes(m)).length} (exempt modules are listed at the end).`,
+    `- Core modules with a check: ${new Set(checks.flatMap((c) => c.modules)).size} of ${modules.length - Object.keys(EXEMPT_MODULES).filter((m) => modules.includes(m)).length} (exempt modules are listed at the end).`,
     "",
     "| module | check | source | tolerance | values | test |",
     "|---|---|---|---|---:|---|",
@@ -166,7 +177,7 @@ if (isMain) {
   const text = renderTable(checks);
   if (process.argv.includes("--json")) {
     const modules = coreModules().filter((m) => !(m in EXEMPT_MODULES));
-    const covered = new Set(checks.map((c) => c.module));
+    const covered = new Set(checks.flatMap((c) => c.modules));
     console.log(JSON.stringify({ checks, summary: summarise(checks), uncovered: modules.filter((m) => !covered.has(m)) }));
   } else if (process.argv.includes("--check")) {
     const current = existsSync(TABLE_PATH) ? readFileSync(TABLE_PATH, "utf8") : "";

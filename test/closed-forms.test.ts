@@ -162,7 +162,7 @@ describe("Rabinowitsch factor on fluids that are not power laws", () => {
     test(`${fluid.name}: γ̇_a·factor(n') with n' from the closed form is the true wall rate, tube and slit`, () => {
       for (const w of [2, 30, 600]) {
         const tau = fluid.stress(w);
-        // @check rabinowitsch | tube: γ̇_a(3n'+1)/(4n') with n' of the closed forms equals γ̇(τ_w) (Bingham, HB, Ellis; 3 stresses each) | Rabinowitsch, Z. Phys. Chem. A145 (1929) 1; closed forms of Buckingham 1921, Herschel & Bulkley 1926, Bird, Armstrong & Hassager 1987 | rel 1e-6 | 9
+        // @check rabinowitsch | tube: γ̇_a(3n'+1)/(4n') with n' of the closed forms equals γ̇(τ_w) (Bingham, HB, Ellis; 3 stresses each) | Rabinowitsch, Z. Phys. Chem. A145 (1929) 1; closed forms of Buckingham 1921, Herschel & Bulkley 1926 and Bird, Armstrong & Hassager 1987 | rel 1e-6 | 9
         expectClose(fluid.tube(tau) * rabinowitschFactor(nPrimeOf(fluid.tube, tau)), w, { rel: 1e-6 }, `tube at γ̇w = ${w}`);
         // @check rabinowitsch | slit: γ̇_a(2n'+1)/(3n') with n' of the closed forms equals γ̇(τ_w) (Bingham, HB, Ellis; 3 stresses each) | Macosko, Rheology (1994), ch. 6 (from memory); closed forms of Bird, Dai & Yarusso 1983 and Chhabra & Richardson 2008 | rel 1e-6 | 9
         expectClose(fluid.slit(tau) * rabinowitschFactor(nPrimeOf(fluid.slit, tau), "slit"), w, { rel: 1e-6 }, `slit at γ̇w = ${w}`);
@@ -187,7 +187,7 @@ describe("smoothed Rabinowitsch correction on exact closed-form flow curves", ()
       for (const geometry of ["round", "slit"] as const) {
         const apparent = tau.map(geometry === "round" ? fluid.tube : fluid.slit);
         const r = rabinowitschCorrection(apparent, tau, { geometry });
-        // @check rabinowitsch | default smoothed correction on exact Bingham/HB/Ellis curves, tube and slit (10 points each) | closed forms of Buckingham 1921, Herschel & Bulkley 1926, Bird, Armstrong & Hassager 1987; tolerance measured here | rel 0.01–0.02 | 60
+        // @check rabinowitsch, transitionCurve | default smoothed correction (transition curve) on exact Bingham/HB/Ellis curves, tube and slit (10 points each) | Buckingham 1921; Herschel & Bulkley 1926; Bird, Armstrong & Hassager 1987 (closed forms); tolerance measured here | rel 0.01–0.02 | 60
         r.shearRateWall.forEach((g, i) => expectClose(g as number, wall[i] as number, { rel: tol }, `${geometry} point ${i}`));
       }
     });

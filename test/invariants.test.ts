@@ -47,7 +47,7 @@ describe("round trip: forward flow integral → reduce → the same viscosity fu
   test("the true wall rates and viscosities are those of the fluid within 1 %", () => {
     expect(g.flowCurve).toHaveLength(WALL.length);
     g.flowCurve.forEach((p, i) => {
-      // @check reduce | forward integral → reduce round trip: γ̇_w of a Herschel–Bulkley fluid at 7 stresses (default Rabinowitsch smoothing) | Herschel & Bulkley, Kolloid-Z. 39 (1926) 291; Bagley, J. Appl. Phys. 28 (1957) 624 | rel 0.01 | 7
+      // @check reduce, reduceGroup | forward integral → reduce round trip: γ̇_w of a Herschel–Bulkley fluid at 7 stresses (default Rabinowitsch smoothing) | Herschel & Bulkley, Kolloid-Z. 39 (1926) 291; Bagley, J. Appl. Phys. 28 (1957) 624 | rel 0.01 | 7
       expectClose(p.shearRateWall as number, WALL[i] as number, { rel: 0.01 }, `point ${i}`);
       expectClose(p.viscosity as number, viscosity(WALL[i] as number), { rel: 0.01 }, `point ${i}`);
     });

@@ -116,7 +116,7 @@ describe("melt-flow-rate test (ISO 1133 geometry)", () => {
     // @check meltFlowRate | τ_w,app of the 2.16 kg load ≈ 1.94e4 Pa, whatever the flow | Dealy & Wissbrun, Melt Rheology and Its Role in Plastics Processing (1990), melt flow rate section (from memory); ISO 1133-1 geometry | rel 3e-3 | 1
     expectClose(p.wallShearStressApparent, 1.94e4, { rel: 3e-3 });
     // γ̇_a = 32Q/(πD³) of the standard die
-    // @check capillary | γ̇_a = 32Q/(πD³): 10 cm³/10 min through the 2.095 mm die | ISO 1133-1 die bore (from memory); Hagen–Poiseuille wall rate | rel 1e-12 | 1
+    // @check capillary | γ̇_a = 32Q/(πD³): 10 cm³/10 min through the 2.095 mm die | ISO 1133-1 (die bore; from memory); Hagen–Poiseuille wall rate | rel 1e-12 | 1
     expectClose(apparentShearRate(10e-6 / 600, 2.095e-3), (32 * (10e-6 / 600)) / (Math.PI * 2.095e-3 ** 3), { rel: 1e-12 });
   });
 });
