@@ -52,6 +52,8 @@ export const EXEMPT_MODULES = {
   "temperature/index": "re-exports only",
   "temperature/curves": "input checks, no calculation",
   grouping: "sorting points into temperature and diameter groups, no calculation",
+  transducerChoice: "a selection rule (each step within 5–90 % of full scale: common practice, no source); the pressures it ranks are checked against Hagen–Poiseuille through the planner",
+  parameterComparison: "an interval-overlap rule (common practice, no source); the intervals come from fitModel, checked against scipy",
 };
 
 function testFiles(dir) {

@@ -55,6 +55,7 @@ describe("rheoledger reduce with the method flags", () => {
     const g = doc.groups[0];
     expect(g.geometry).toBe("round");
     expect(g.entrancePressures.length).toBe(4);
+    // @check reduceMethods, cogswell | through reduce: data with Cogswell's entrance loss of a Trouton liquid give η_E/η = 3 at 4 rates | Trouton, Proc. R. Soc. A 77 (1906) 426; Cogswell, Polym. Eng. Sci. 12 (1972) 64 | rel 1e-6 | 4
     g.extensional.forEach((e: { troutonRatio: number }) => expectClose(e.troutonRatio, 3, { rel: 1e-6 }));
     expect(Object.keys(g.flowCurve[0])).toEqual(expect.arrayContaining(["viscosityRepresentative", "viscosityUncertainty", "wallShearStressUncertainty", "shearRateWallUncertainty"]));
     expect(g.pressureDependence.rows.length).toBe(4);

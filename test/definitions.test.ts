@@ -8,6 +8,8 @@ import { evaluateModel } from "../src/core/models";
 import { flowRateFromPiston } from "../src/core/flow";
 import { interpolateLogLog } from "../src/core/interpolate";
 import { barusPressure } from "../src/core/pressureDependence";
+import { reduce } from "../src/core/reduce";
+import { fitFlowCurves } from "../src/core/flowCurveFits";
 import { expectClose } from "./helpers/expectClose";
 
 const RATES = [0.03, 2, 150];
@@ -96,5 +98,21 @@ describe("Barus die pressure", () => {
       // @check pressureDependence | Barus die pressure at L/R = 10, 40, 80 against RK4 integration of the momentum balance with η ∝ exp(βp) | Barus, Am. J. Sci. 45 (1893) 87 (from memory); Duvdevani & Klein, SPE J. 23 (1967) 41 | rel 1e-10 | 3
       expectClose(barusPressure(x, entrance, 2 * tau0, beta), rk4(x), { rel: 1e-10 }, `x = ${x}`);
     }
+  });
+});
+
+describe("fitting every group of a reduction", () => {
+  test("water at 20 °C through three capillaries: the power-law fit of the flow curve is Newtonian with μ = 1.0016 mPa·s", () => {
+    const mu = 1.0016e-3;
+    const D = 0.3e-3;
+    const data = [30, 60, 90].flatMap((ld) =>
+      [1e3, 3e3, 1e4, 3e4].map((rate) => ({ dieDiameter: D, dieLength: ld * D, flowRate: (rate * Math.PI * D ** 3) / 32, pressure: 2 * mu * rate * (2 * ld + 1.178) })),
+    );
+    const [group] = fitFlowCurves(reduce(data), ["power-law"]);
+    const fit = group?.ranked[0];
+    expect(fit?.model).toBe("power-law");
+    // @check flowCurveFits | power-law fit of a reduced Hagen–Poiseuille flow curve of water: K = μ = 1.0016 mPa·s, n = 1 | IAPWS 2008 viscosity of water at 20 °C (1.0016 mPa·s); Hagen–Poiseuille | rel 1e-6 | 2
+    expectClose(fit?.result.parameters.K as number, mu, { rel: 1e-6 });
+    expectClose(fit?.result.parameters.n as number, 1, { rel: 1e-6 });
   });
 });

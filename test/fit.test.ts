@@ -37,6 +37,7 @@ describe("fitModel(model, data) against scipy.optimize.least_squares", () => {
     test(`${c.name}: same optimum to 1e-5, same standard errors to 1e-3`, () => {
       const fit = fitModel(c.model, c.data, { residualSpace: c.residualSpace, fixed: c.fixed });
       expect(fit.converged).toBe(true);
+      // @check fit/fitModel, fit/residuals, fit/setup, fit/statistics, fit/transforms, fit/linearAlgebra | every model fitted to invented noisy data: parameters, standard errors and SSR of 11 cases | scipy fitter fixture (test/fixtures/scipy-fits.json, scripts/scipy_fit_reference.py, scipy 1.10 least_squares) | rel 1e-5 (parameters), 1e-3 (standard errors), 1e-8 (SSR) | 83
       for (const [name, value] of Object.entries(c.parameters)) expectClose(fit.parameters[name] as number, value, { rel: 1e-5 }, name);
       for (const [name, se] of Object.entries(c.standardErrors)) expectClose(fit.standardErrors[name] as number, se, { rel: 1e-3 }, `SE ${name}`);
       expectClose(fit.ssr, c.ssr, { rel: 1e-8 }, "SSR");
@@ -221,6 +222,7 @@ describe("compareModels(models, data)", () => {
     expect(result.failed).toEqual([expect.objectContaining({ model: "bingham", reason: "did not converge (max-iterations)" })]);
     // Burnham & Anderson (2002) §2.9: w = exp(−Δ/2)/Σ
     const second = result.ranked[1];
+    // @check fit/compareModels | Akaike weight of the second model, w = exp(−ΔAIC/2)/Σexp(−ΔAIC_j/2) | Burnham & Anderson, Model Selection and Multimodel Inference, 2nd ed. (2002), ch. 2 (from memory) | rel 1e-10 | 1
     expectClose(second?.akaikeWeight as number, Math.exp(-(second?.deltaAic as number) / 2) * (result.ranked[0]?.akaikeWeight as number), { rel: 1e-10 });
   });
   test("per-model errors are listed, data errors thrown", () => {

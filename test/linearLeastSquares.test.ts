@@ -27,6 +27,7 @@ describe("leastSquares(columns, y)", () => {
       sxy += (t - mx) * ((y[i] as number) - my);
       sxx += (t - mx) ** 2;
     });
+    // @check linearLeastSquares, regression | Householder least squares of a noisy line equals the closed form b = Sxy/Sxx, a = ȳ − b·x̄ | Draper & Smith, Applied Regression Analysis, 3rd ed. (1998), ch. 1 (from memory) | rel 1e-12 | 2
     const slope = sxy / sxx;
     const c = leastSquares([x.map(() => 1), x], y);
     expectClose(c[1] as number, slope, { rel: 1e-12 });

@@ -49,6 +49,7 @@ describe("compareLot(reference table, lot) at the reference's rates", () => {
   // t = ln(100/50)/ln(200/50) = 0.5, η = exp(0.5 ln 1000 + 0.5 ln 500) = √(500 000) = 707.107 Pa·s.
   test("lot measured at other rates: interpolated in log–log, not linearly", () => {
     const r = compareLot(ref, { shearRate: [5, 50, 200, 2000], viscosity: [2200, 1000, 500, 180] });
+    // @check lotComparison | lot viscosity between measured rates interpolated log–log: the geometric mean on a power-law segment | Bird, Armstrong & Hassager, Dynamics of Polymeric Liquids vol. 1 (1987), ch. 4 (power law straight in log–log; from memory) | rel 1e-6 | 1
     expectClose(r.points[1]!.lotViscosity as number, 707.107, { rel: 1e-6 });
     expectClose(r.points[1]!.deviation as number, 707.1068 / 800 - 1, { rel: 1e-5 });
     expect(r.points[1]!.status).toBe("fail"); // −11.6 %

@@ -51,6 +51,7 @@ describe("dieFlowPoint: predicted pressure against closed forms", () => {
     const mu = 1.0016e-3;
     const p = dieFlowPoint(modelViscosity("newtonian", { mu }), capillary, 1000, "apparent", 0);
     const hagenPoiseuille = (8 * mu * L * p.flowRate) / (Math.PI * R ** 4);
+    // @check diePressure, priorViscosity | water (IAPWS 1.0016 mPa·s) in a 1 mm × 20 mm die at 1000 1/s: Hagen–Poiseuille ΔP = 8μLQ/(πR⁴) | Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed. (2002), eq. 2.3-21 (from memory); IAPWS 2008 viscosity of water | rel 1e-6 | 2
     expectClose(p.pressure, hagenPoiseuille, { rel: 1e-6 });
     // by hand: ΔP = 2μγ̇·L/R = 2 · 1.0016e-3 · 1000 · 40 = 80.128 Pa
     expectClose(p.pressure, 80.128, { rel: 1e-6 });

@@ -33,6 +33,7 @@ describe("representativeRateCheck against the exact power-law ratio", () => {
       const r = representativeRateCheck(c.rates, c.stress, c.wall, c.viscosity);
       const inside = r.rows.filter((x) => x.deviation !== null);
       expect(inside.length).toBeGreaterThanOrEqual(3);
+      // @check representativeRate | η* at γ̇* = (π/4)γ̇_a against the exact power-law viscosity, n = 1, 0.5, 0.15 | Schümmer & Worthoff, Chem. Eng. Sci. 33 (1978) 759 (from memory); power-law closed form of Rabinowitsch 1929 | abs 1e-12 | 3
       inside.forEach((x) => expectClose(x.deviation as number, ratio - 1, { abs: 1e-12 }));
       expect(r.warnings.map((w) => w.code)).toEqual(n === 0.15 ? ["REPRESENTATIVE_RATE_DISAGREES"] : []);
     });

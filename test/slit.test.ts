@@ -11,6 +11,7 @@ const H = 1e-3;
 describe("slit formulas", () => {
   // Force balance on a slab of the slit (Macosko 1994, §6.3): τ_w = ΔP·H/(2L).
   test("slitWallShearStress(1e7, 1 mm, 20 mm) = 2.5e5 Pa; with ΔP_ent = 2e6, 2e5 Pa", () => {
+    // @check slit | τ_w = (ΔP − ΔP_ent)·H/(2L) from a force balance on the slit, two cases | Macosko, Rheology (1994), ch. 6, slit rheometry (from memory); ISO 11443 | rel 1e-15 | 2
     expectClose(slitWallShearStress(1e7, 1e-3, 20e-3), 2.5e5, { rel: 1e-15 });
     expectClose(slitWallShearStress(1e7, 1e-3, 20e-3, 2e6), 2e5, { rel: 1e-15 });
   });

@@ -116,6 +116,7 @@ describe("masterCurve(curves, shift) and evaluateAtTemperature", () => {
   test("reduced points fall on the reference curve, sorted by reduced rate", () => {
     const master = masterCurve(curves, shift);
     expect(master.shearRate.length).toBe(45);
+    // @check temperature/masterCurve | time–temperature superposition η(γ̇, T) = a_T·η_ref(a_T·γ̇): 45 reduced points fall on the reference curve | Ferry, Viscoelastic Properties of Polymers, 3rd ed. (1980), ch. 11 (from memory); Dealy & Wang 2013 | rel 1e-12 | 45
     master.shearRate.forEach((g, i) => expectClose(master.viscosity[i] as number, quadraticMaster(g), { rel: 1e-12 }));
     expect([...master.shearRate].sort((a, b) => a - b)).toEqual(master.shearRate);
   });

@@ -7,11 +7,13 @@ describe("uncertainty propagation (JCGM 100:2008, GUM)", () => {
   // GUM §4.3.7: a bound ±a with no stated confidence is rectangular, u = a/√3;
   // ±0.25 % of 1000 bar = ±2.5 bar → u = 1.4434 bar
   test("pressureStandardUncertainty: a·FS/√3", () => {
+    // @check uncertainty | rectangular bound ±a of a transducer: u = a/√3 | JCGM 100:2008 (GUM), 4.3.7 | rel 1e-15 | 1
     expectClose(pressureStandardUncertainty({ fullScale: 1000e5, accuracy: 0.0025 }), 2.5e5 / Math.sqrt(3), { rel: 1e-15 });
     expect(() => pressureStandardUncertainty({ fullScale: 1000e5, accuracy: 1.5 })).toThrow(/accuracy: is a fraction of full scale/);
   });
   // slope of a least-squares line: Var(b) = σ²/Sxx (Draper & Smith 1998, §1.4); x = 10, 20, 30 → Sxx = 200
   test("bagleyStressUncertainty = ½√(u_P²/Sxx + SE²)", () => {
+    // @check uncertainty | standard error of a least-squares slope, Var(b) = σ²/Sxx, propagated to τ_w = b/2 | Draper & Smith, Applied Regression Analysis, 3rd ed. (1998), ch. 1 (from memory); JCGM 100:2008 (GUM), 5.1 | rel 1e-15 | 2
     expectClose(bagleyStressUncertainty([10, 20, 30], 1000, 0), 0.5 * 1000 / Math.sqrt(200), { rel: 1e-15 });
     expectClose(bagleyStressUncertainty([10, 20, 30], 1000, 30), 0.5 * Math.sqrt(1000 ** 2 / 200 + 900), { rel: 1e-15 });
     expect(() => bagleyStressUncertainty([10, 10], 1, 0)).toThrow(/must have different lengths/);
