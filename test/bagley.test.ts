@@ -3,7 +3,7 @@ import { RheoError } from "../src/core/errors";
 import { expectClose } from "./helpers/expectClose";
 
 /**
- * Exact Bagley data: ΔP = 2τ_w(L/R + e) (Bagley 1957, J. Appl. Phys. 28, 624, eq. 3), with a
+ * Exact Bagley data: ΔP = 2τ_w(L/R + e) (Bagley 1957, J. Appl. Phys. 28, 624), with a
  * power-law stress τ_w = K·γ̇^n so that log–log interpolation between rates is exact.
  */
 function exactPoints(lOverR: number[], rates: number[], e: (rate: number) => number, K = 1e4, n = 0.4): BagleyPoint[] {

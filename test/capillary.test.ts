@@ -14,7 +14,7 @@ import { expectClose } from "./helpers/expectClose";
 // Water at 20 °C: 1.0016 mPa·s (IAPWS 2008 formulation for the viscosity of ordinary water).
 const WATER_20C = 1.0016e-3;
 
-describe("Hagen–Poiseuille (Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed. 2002, eq. 2.3-21)", () => {
+describe("Hagen–Poiseuille (Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed. 2002, eq. 2.3-21, from memory)", () => {
   // ΔP = 8μLQ/(πR⁴) for a Newtonian liquid in a tube.
   const D = 0.5e-3;
   const L = 100e-3;
@@ -35,7 +35,7 @@ describe("Hagen–Poiseuille (Bird, Stewart & Lightfoot, Transport Phenomena, 2n
   });
 });
 
-describe("flow integral for a power-law liquid (closed form γ̇_w/γ̇_a = (3n+1)/(4n): Macosko 1994, §6.2, equation number from memory)", () => {
+describe("flow integral for a power-law liquid (closed form γ̇_w/γ̇_a = (3n+1)/(4n): Macosko 1994, ch. 6, from memory)", () => {
   for (const n of [0.2, 0.35, 0.5, 0.8]) {
     test(`n = ${n}`, () => {
       const eta = (g: number) => 1e4 * Math.pow(g, n - 1);

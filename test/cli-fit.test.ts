@@ -48,7 +48,7 @@ describe("rheoledger reduce DEMO --model carreau-yasuda --json", () => {
    * (test/cli.test.ts bounds them at 5 % each, 1.5 % rms). A least-squares fit of the right model
    * averages that noise, so at the measured rates its rms deviation from the law must not exceed
    * the points' own (in the linearised problem the fitted values are a projection of the data:
-   * Bates & Watts, Nonlinear Regression Analysis (1988), §2.1, from memory), and no fitted value
+   * Bates & Watts, Nonlinear Regression Analysis (1988), ch. 2, from memory), and no fitted value
    * may be further than the 5 % the points are allowed.
    */
   test("the fitted curve follows the generating law at least as closely as the reduced points (rms), each within 5 %", () => {

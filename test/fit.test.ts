@@ -220,7 +220,7 @@ describe("compareModels(models, data)", () => {
     expectClose(result.ranked.reduce((s, r) => s + r.akaikeWeight, 0), 1, { rel: 1e-12 });
     expect(result.ranked[0]?.model).toBe("carreau-yasuda");
     expect(result.failed).toEqual([expect.objectContaining({ model: "bingham", reason: "did not converge (max-iterations)" })]);
-    // Burnham & Anderson (2002) §2.9: w = exp(−Δ/2)/Σ
+    // Burnham & Anderson (2002), ch. 2 (from memory): w = exp(−Δ/2)/Σ
     const second = result.ranked[1];
     // @check fit/compareModels | Akaike weight of the second model, w = exp(−ΔAIC/2)/Σexp(−ΔAIC_j/2) | Burnham & Anderson, Model Selection and Multimodel Inference, 2nd ed. (2002), ch. 2 (from memory) | rel 1e-10 | 1
     expectClose(second?.akaikeWeight as number, Math.exp(-(second?.deltaAic as number) / 2) * (result.ranked[0]?.akaikeWeight as number), { rel: 1e-10 });

@@ -3,7 +3,7 @@ import { expectClose } from "./helpers/expectClose";
 import reference from "./fixtures/scipy-fits.json";
 
 describe("tQuantile(p, dof) (Hill 1970, ACM Algorithm 396)", () => {
-  // Printed two-sided 95 % t-table (e.g. Abramowitz & Stegun 1964, Table 26.10; 3 decimals).
+  // Printed two-sided 95 % t-table (e.g. Abramowitz & Stegun 1964, table of the t distribution, from memory; 3 decimals).
   const table: [number, number][] = [
     [1, 12.706],
     [2, 4.303],
@@ -31,7 +31,7 @@ describe("tQuantile(p, dof) (Hill 1970, ACM Algorithm 396)", () => {
 });
 
 describe("normalQuantile(q) (Acklam's approximation)", () => {
-  // Abramowitz & Stegun 1964, Table 26.5: z(0.025) = 1.959964, z(0.005) = 2.575829, z(0.05) = 1.644854.
+  // Abramowitz & Stegun 1964, table of the normal distribution (from memory): z(0.025) = 1.959964, z(0.005) = 2.575829, z(0.05) = 1.644854.
   test("upper-tail deviates", () => {
     // @check fit/studentT | normal quantiles z(0.025), z(0.005), z(0.05) | Abramowitz & Stegun, Handbook of Mathematical Functions (1964), table of the normal distribution (from memory) | rel 1e-8 | 3
     expectClose(normalQuantile(0.025), 1.959963985, { rel: 1e-8 });

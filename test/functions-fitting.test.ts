@@ -219,7 +219,7 @@ describe("RHEO.COMPAREFITS(shearRate, viscosity, models, ...)", () => {
     expectClose(body.reduce((s, r) => s + num(r[4]), 0), 1, { rel: 1e-12 });
     const fitAic = num(line(sheet.fit(col(...c.data.shearRate), col(...c.data.viscosity), "carreau-yasuda"), "AIC")[1]);
     expectClose(num(body[0]?.[2]), fitAic, { rel: 1e-9 });
-    // Burnham & Anderson (2002) §2.9: w_i = exp(−ΔAIC_i/2)/Σ exp(−ΔAIC_j/2)
+    // Burnham & Anderson (2002), ch. 2 (from memory): w_i = exp(−ΔAIC_i/2)/Σ exp(−ΔAIC_j/2)
     const deltas = body.map((r) => num(r[3]));
     const total = deltas.reduce((s, d) => s + Math.exp(-d / 2), 0);
     body.forEach((r, i) => expectClose(num(r[4]), Math.exp(-(deltas[i] as number) / 2) / total, { rel: 1e-9 }));
@@ -284,7 +284,7 @@ describe("RHEO.SHIFTFIT(temperature, shearRate, viscosity, referenceTemperature,
   /**
    * Exact superposed data on a power-law master curve, η = a_T·K·(a_T·γ̇)^(n−1): the shift fit's
    * polynomial describes it exactly, so the generating Ea = 60 kJ/mol (invented) is recovered to
-   * rounding (Dealy & Wang, Melt Rheology (2013), ch. 4, time–temperature superposition).
+   * rounding (Dealy & Wang, Melt Rheology (2013), time–temperature superposition, from memory).
    */
   function superposed(law: (T: number) => number) {
     const T: number[] = [];

@@ -99,7 +99,7 @@ describe("RHEO.BAGLEY(dieLengthOrRatio, shearRateApparent, pressure, dieDiameter
 
 /**
  * Power-law fluid τ_w = K·γ̇_w^n. The Rabinowitsch relation gives γ̇_w = γ̇_a(3n+1)/(4n) exactly
- * and n' = n (Macosko 1994, eq. 6.2.15 and Example 6.2.1).
+ * and n' = n (Macosko 1994, ch. 6, from memory).
  */
 const K = 8000;
 const N = 0.4;

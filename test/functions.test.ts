@@ -184,7 +184,7 @@ describe("RHEO.SHEARRATEAPP(flowRate, dieDiameter, ...)", () => {
 });
 
 describe("wall stresses", () => {
-  // τ = ΔP·D/(4L) (force balance on the melt cylinder, Macosko 1994, eq. 6.2.3): 100 bar, D 1 mm, L 20 mm.
+  // τ = ΔP·D/(4L) (force balance on the melt cylinder, Macosko 1994, ch. 6, from memory): 100 bar, D 1 mm, L 20 mm.
   test("RHEO.WALLSTRESSAPP: 100 bar, 1 mm × 20 mm → 125 kPa", () => {
     expectClose(num(sheet.wallStressApp(cell(100), cell(1), cell(20))[0]?.[0]), 1.25e5, { rel: 1e-12 });
     expectClose(num(sheet.wallStressApp(cell(10), cell(1), cell(20), "MPa", "mm", "kPa")[0]?.[0]), 125, { rel: 1e-12 });

@@ -9,10 +9,10 @@
  *    rectangular grid, and every cell is a finite number, text, a logical or an error value with a
  *    code and a message naming what went wrong; never NaN or ∞, never an "internal error".
  * 2. Physical identities on valid input, against closed forms: wall stress is ΔP·D/(4L) and
- *    linear in pressure (Bagley 1957; Macosko 1994 §6.2); Q = v·πDb²/4; γ̇a = 32Q/(πD³); a
+ *    linear in pressure (Bagley 1957; Macosko 1994, ch. 6, from memory); Q = v·πDb²/4; γ̇a = 32Q/(πD³); a
  *    Newtonian liquid (τ = μγ̇) gives n' = 1 and η = μ at every rate; a power-law liquid
  *    (τw = K·γ̇wⁿ, so τw = K·((3n+1)/(4n))ⁿ·γ̇aⁿ) gives n' = n, γ̇w = γ̇a(3n+1)/(4n) and
- *    η = K·γ̇w^(n−1) (Rabinowitsch 1929; Macosko 1994 §6.2, from memory); unit conversions
+ *    η = K·γ̇w^(n−1) (Rabinowitsch 1929; Macosko 1994, ch. 6, from memory); unit conversions
  *    invert (NIST SP 811 factors are exact ratios).
  * 3. Paired ranges of different lengths are #VALUE! naming the argument.
  *

@@ -1,7 +1,7 @@
 /**
  * leastSquares (Householder QR) and fitPolynomial, against closed forms: exact recovery of a
  * polynomial from noise-free points, and the textbook straight-line formulas
- * b = Sxy/Sxx, a = ȳ − b·x̄ (Draper & Smith, Applied Regression Analysis, 3rd ed. 1998, §1.2).
+ * b = Sxy/Sxx, a = ȳ − b·x̄ (Draper & Smith, Applied Regression Analysis, 3rd ed. 1998, ch. 1, from memory).
  */
 import { leastSquares } from "../src/core/linearLeastSquares";
 import { fitPolynomial, polynomialValue } from "../src/core/regression";

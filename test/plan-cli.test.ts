@@ -48,7 +48,7 @@ describe("rheoledger plan OPTIONS.json --json", () => {
     expect(code).toBe(0);
     const doc = JSON.parse(stdout);
     const die = doc.dies[0];
-    // Hagen–Poiseuille (Bird, Stewart & Lightfoot 2002, eq. 2.3-21); at γ̇a = 100 1/s:
+    // Hagen–Poiseuille (Bird, Stewart & Lightfoot 2002, eq. 2.3-21, from memory); at γ̇a = 100 1/s:
     // ΔP = 2μγ̇·L/R = 2 · 1.4 · 100 · 40 = 11 200 Pa = 0.112 bar; ×10 and ×100 at the next steps.
     // @check planner, diePressure | every planned step of a Newtonian liquid: Hagen–Poiseuille pressure | Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed. (2002), eq. 2.3-21 (from memory) | rel 1e-6 | 3
     for (const s of die.steps) expectClose(s.pressure, (8 * 1.4 * 0.02 * s.flowRate) / (Math.PI * 0.0005 ** 4), { rel: 1e-6 });

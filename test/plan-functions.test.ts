@@ -49,7 +49,7 @@ describe("RHEO.PLAN(settings, dies, transducers, output)", () => {
     const p = header.indexOf("pressure [bar]");
     const speed = header.indexOf("piston_speed [mm/min]");
     expect(out).toHaveLength(4);
-    // ΔP = 2μγ̇·L/R (Hagen–Poiseuille, Bird, Stewart & Lightfoot 2002 eq. 2.3-21) = 11 200 Pa at 100 1/s
+    // ΔP = 2μγ̇·L/R (Hagen–Poiseuille, Bird, Stewart & Lightfoot 2002, eq. 2.3-21, from memory) = 11 200 Pa at 100 1/s
     [0.112, 1.12, 11.2].forEach((bar, i) => expectClose(num(out[i + 1]![p]), bar, { rel: 1e-6 }));
     // v = γ̇D³/(8D_b²) = 100 · 1 / (8 · 225) mm/s = 0.05556 mm/s = 3.3333 mm/min
     expectClose(num(out[1]![speed]), 3.33333, { rel: 1e-5 });

@@ -45,7 +45,7 @@ function input(over: Partial<PlanInput> = {}): PlanInput {
 }
 
 describe("dieFlowPoint: predicted pressure against closed forms", () => {
-  // Hagen–Poiseuille (e.g. Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed. (2002), eq. 2.3-21):
+  // Hagen–Poiseuille (e.g. Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed. (2002), eq. 2.3-21, from memory):
   // ΔP = 8μLQ/(πR⁴). Water at 20 °C: μ = 1.0016 mPa·s (IAPWS 2008).
   test("water in a 1 mm × 20 mm die at 1000 1/s: Hagen–Poiseuille with e = 0", () => {
     const mu = 1.0016e-3;
@@ -67,7 +67,7 @@ describe("dieFlowPoint: predicted pressure against closed forms", () => {
     expectClose(p.pressure, hp * (1 + (2 * R) / L), { rel: 1e-6 });
   });
 
-  // Power law in a round die (Rabinowitsch 1929; Macosko 1994 eq. 6.2.15): γ̇_w = γ̇_a(3n+1)/(4n),
+  // Power law in a round die (Rabinowitsch 1929; Macosko 1994, ch. 6, from memory): γ̇_w = γ̇_a(3n+1)/(4n),
   // τ_w = K·γ̇_w^n, ΔP = 2τ_w(L/R + e) (Bagley 1957).
   test.each([
     [1e4, 0.4, 100, 3],
@@ -88,7 +88,7 @@ describe("dieFlowPoint: predicted pressure against closed forms", () => {
     expectClose(p.shearRateWall, 220, { rel: 0 });
   });
 
-  // Slit, power law (Macosko 1994 §6.3; ISO 11443): γ̇_a = 6Q/(WH²), γ̇_w = γ̇_a(2n+1)/(3n), ΔP = 2τ_w·L/H.
+  // Slit, power law (Macosko 1994, ch. 6, from memory; ISO 11443): γ̇_a = 6Q/(WH²), γ̇_w = γ̇_a(2n+1)/(3n), ΔP = 2τ_w·L/H.
   test("slit 10 mm × 1 mm × 30 mm, power law: closed form", () => {
     const slit: PlanDie = { name: "slit", kind: "slit", width: 10e-3, height: 1e-3, length: 30e-3 };
     const n = 0.35;
@@ -98,7 +98,7 @@ describe("dieFlowPoint: predicted pressure against closed forms", () => {
     expectClose(p.shearRateWall, wall, { rel: 1e-6 });
     expectClose(p.pressure, 2 * K * Math.pow(wall, n) * 30, { rel: 1e-6 });
     expectClose(apparentSlitShearRate(p.flowRate, 10e-3, 1e-3), 300, { rel: 1e-12 });
-    // Newtonian slit (plane Poiseuille): ΔP = 12μLQ/(WH³) (Bird, Stewart & Lightfoot 2002, §2.2)
+    // Newtonian slit (plane Poiseuille): ΔP = 12μLQ/(WH³) (Bird, Stewart & Lightfoot 2002, ch. 2, flow through a narrow slit, from memory)
     const q = dieFlowPoint(() => 3, slit, 300, "apparent", 0);
     expectClose(q.pressure, (12 * 3 * 30e-3 * q.flowRate) / (10e-3 * 1e-9), { rel: 1e-6 });
     expectClose(wallRateFromApparentSlitRate(() => 3, 300), 300, { rel: 1e-6 });

@@ -7,7 +7,7 @@ import { expectClose } from "./helpers/expectClose";
 const carreau = (eta0: number, lambda: number, n: number) => (g: number) => eta0 * Math.pow(1 + (lambda * g) ** 2, (n - 1) / 2);
 
 /**
- * Exact (γ̇_a, τ_w) pairs with known γ̇_w: the flow integral (Macosko 1994, §6.2) evaluated by
+ * Exact (γ̇_a, τ_w) pairs with known γ̇_w: the flow integral (Macosko 1994, ch. 6, from memory) evaluated by
  * quadrature (src/core/forwardFlow.ts, itself checked against the power-law closed form in
  * test/capillary.test.ts). A shear-thinning melt-like Carreau fluid, 10 rates over 10–3000 1/s.
  */
@@ -22,7 +22,7 @@ function worstError(wall: number[], result: (number | null)[]): number {
 }
 
 describe("rabinowitschFactor(n')", () => {
-  // Macosko 1994 §6.2: (3n+1)/(4n); Newtonian 1 (Hagen–Poiseuille); slit (2n+1)/(3n).
+  // Macosko 1994, ch. 6 (from memory): (3n+1)/(4n); Newtonian 1 (Hagen–Poiseuille); slit (2n+1)/(3n).
   test("round: 1 for n' = 1, 1.25 for n' = 0.5", () => {
     expect(rabinowitschFactor(1)).toBe(1);
     expect(rabinowitschFactor(0.5)).toBe(1.25);
@@ -50,7 +50,7 @@ describe("exact references for every method", () => {
       r.nPrime.forEach((n) => expectClose(n, 1, { rel: 1e-9 }));
       r.shearRateWall.forEach((g, i) => expectClose(g as number, rates[i] as number, { rel: 1e-9 }));
     });
-    test(`${JSON.stringify(m)}: power law n = 0.4 gives the factor (3n+1)/(4n) = 1.375 (Macosko 1994, §6.2)`, () => {
+    test(`${JSON.stringify(m)}: power law n = 0.4 gives the factor (3n+1)/(4n) = 1.375 (Macosko 1994, ch. 6, from memory)`, () => {
       const r = rabinowitschCorrection(rates, rates.map((g) => 2e4 * g ** 0.4), m);
       r.shearRateWall.forEach((g, i) => expectClose(g as number, (rates[i] as number) * 1.375, { rel: 1e-9 }));
     });

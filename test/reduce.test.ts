@@ -8,7 +8,7 @@ const eta = (g: number) => 5000 * Math.pow(1 + (0.5 * g) ** 2, (0.4 - 1) / 2);
 
 /**
  * Exact raw data: for each die and apparent rate, the wall stress from the flow integral
- * (Macosko 1994, §6.2) and ΔP = 2τ_w(L/R + e) (Bagley 1957) with e = 2.5.
+ * (Macosko 1994, ch. 6, from memory) and ΔP = 2τ_w(L/R + e) (Bagley 1957) with e = 2.5.
  */
 const RATES = [20, 50, 100, 200, 500, 1000, 2000];
 const STRESSES = RATES.map((rate) => {

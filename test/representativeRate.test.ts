@@ -4,7 +4,7 @@ import { flowRateForApparentShearRate } from "../src/core/capillary";
 import { expectClose } from "./helpers/expectClose";
 
 /**
- * Power law τ = K γ̇^n: γ̇_w = γ̇_a(3n+1)/(4n) exactly (Macosko 1994, eq. 6.2.16), so the
+ * Power law τ = K γ̇^n: γ̇_w = γ̇_a(3n+1)/(4n) exactly (Macosko 1994, ch. 6, from memory), so the
  * representative viscosity τ_w/γ̇_a at γ̇* = (π/4)γ̇_a (Schümmer & Worthoff 1978) relates to the
  * true η(γ̇*) = K γ̇*^(n−1) by ((3n+1)/(4n))^n (4/π)^(n−1) (algebra): 1 for n = 1,
  * 0.99083 for n = 0.5, 0.92963 for n = 0.15.

@@ -4,8 +4,8 @@ import { flowRateForApparentShearRate } from "../src/core/capillary";
 import { expectClose } from "./helpers/expectClose";
 
 /**
- * Exact synthetic data with a known slip law (Mooney 1931; Macosko 1994, §6.2.3): a power-law
- * liquid τ = K γ̇^n (no-slip apparent rate γ̇_a,ns = (4n/(3n+1))(τ/K)^(1/n), Macosko eq. 6.2.16)
+ * Exact synthetic data with a known slip law (Mooney 1931; Macosko 1994, ch. 6, from memory): a power-law
+ * liquid τ = K γ̇^n (no-slip apparent rate γ̇_a,ns = (4n/(3n+1))(τ/K)^(1/n), Macosko 1994, ch. 6, from memory)
  * slipping with v_s = α τ^m adds 8v_s/D to the apparent rate of a die of diameter D.
  * The stresses of every diameter are the analysis grid, so interpolation is exact.
  */

@@ -9,7 +9,7 @@ const W = 10e-3;
 const H = 1e-3;
 
 describe("slit formulas", () => {
-  // Force balance on a slab of the slit (Macosko 1994, §6.3): τ_w = ΔP·H/(2L).
+  // Force balance on a slab of the slit (Macosko 1994, ch. 6, from memory): τ_w = ΔP·H/(2L).
   test("slitWallShearStress(1e7, 1 mm, 20 mm) = 2.5e5 Pa; with ΔP_ent = 2e6, 2e5 Pa", () => {
     // @check slit | τ_w = (ΔP − ΔP_ent)·H/(2L) from a force balance on the slit, two cases | Macosko, Rheology (1994), ch. 6, slit rheometry (from memory); ISO 11443 | rel 1e-15 | 2
     expectClose(slitWallShearStress(1e7, 1e-3, 20e-3), 2.5e5, { rel: 1e-15 });
@@ -29,7 +29,7 @@ describe("slit formulas", () => {
 
 /**
  * Newtonian slit, plane Poiseuille flow (Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed.
- * 2002, §2.5 adapted to a slit): Q = W H³ ΔP_die/(12 μ L), so ΔP_die = 12μQL/(WH³), the wall
+ * 2002, ch. 2, flow through a narrow slit, from memory): Q = W H³ ΔP_die/(12 μ L), so ΔP_die = 12μQL/(WH³), the wall
  * rate is 6Q/(WH²) exactly and τ_w = ΔP_die·H/(2L). A constant entrance loss is added.
  */
 function newtonianSlit(mu: number, entrance: number, lengths: number[], rates: number[]): Measurement[] {
@@ -64,7 +64,7 @@ describe("reduce() with slit dies", () => {
     });
   });
 
-  test("power-law slit: the true wall rate is γ̇_a(2n+1)/(3n) (Macosko 1994, §6.3)", () => {
+  test("power-law slit: the true wall rate is γ̇_a(2n+1)/(3n) (Macosko 1994, ch. 6, from memory)", () => {
     const K = 2e4;
     const n = 0.4;
     const eta = (g: number) => K * Math.pow(g, n - 1);

@@ -274,7 +274,7 @@ describe("optional checks and the temperature shift", () => {
       expect(ext.rows).toHaveLength(g.extensional?.length ?? -1);
       g.extensional?.forEach((e, r) => expect(ext.rows[r]?.[4]).toBe(e.extensionalViscosity));
       const heat = findBlock(plan, `heating-${i + 1}`);
-      // adiabatic rise ΔT = ΔP/(ρ·c_p) (Macosko 1994, §6.2.5), from the pressure the table shows
+      // adiabatic rise ΔT = ΔP/(ρ·c_p) (Macosko 1994, ch. 6, from memory), from the pressure the table shows
       heat.rows.forEach((r) => expectClose(r[2] as number, ((r[1] as number) * 1e5) / (750 * 2100), { rel: 1e-9 }));
       expect(findBlock(plan, `pressure-${i + 1}`).title).toMatch(/median β/);
     });

@@ -11,7 +11,7 @@ describe("uncertainty propagation (JCGM 100:2008, GUM)", () => {
     expectClose(pressureStandardUncertainty({ fullScale: 1000e5, accuracy: 0.0025 }), 2.5e5 / Math.sqrt(3), { rel: 1e-15 });
     expect(() => pressureStandardUncertainty({ fullScale: 1000e5, accuracy: 1.5 })).toThrow(/accuracy: is a fraction of full scale/);
   });
-  // slope of a least-squares line: Var(b) = σ²/Sxx (Draper & Smith 1998, §1.4); x = 10, 20, 30 → Sxx = 200
+  // slope of a least-squares line: Var(b) = σ²/Sxx (Draper & Smith 1998, ch. 1, from memory); x = 10, 20, 30 → Sxx = 200
   test("bagleyStressUncertainty = ½√(u_P²/Sxx + SE²)", () => {
     // @check uncertainty | standard error of a least-squares slope, Var(b) = σ²/Sxx, propagated to τ_w = b/2 | Draper & Smith, Applied Regression Analysis, 3rd ed. (1998), ch. 1 (from memory); JCGM 100:2008 (GUM), 5.1 | rel 1e-15 | 2
     expectClose(bagleyStressUncertainty([10, 20, 30], 1000, 0), 0.5 * 1000 / Math.sqrt(200), { rel: 1e-15 });

@@ -5,7 +5,8 @@ import { expectClose } from "./helpers/expectClose";
 describe("toSI / fromSI against defining values", () => {
   // NIST SP 811 (2008) appendix B.8: 1 psi = 6.894 757 E+03 Pa (6894.757293168 from lbf/in²).
   test("1 psi = 6894.757 Pa (NIST SP 811)", () => expectClose(toSI(1, "psi", "pressure"), 6894.757, { rel: 1e-7 }));
-  // SI brochure (BIPM 2019) Table 8: 1 bar = 100 kPa exactly.
+  // 1 bar = 100 kPa exactly: SI Brochure, 8th ed. (BIPM 2006), Table 8 (from memory; the 9th ed.
+  // of 2019 no longer lists the bar); NIST SP 811 (2008).
   test("1 bar = 1e5 Pa (SI brochure)", () => expect(toSI(1, "bar", "pressure")).toBe(1e5));
   test("MPa and kPa", () => {
     expect(toSI(2.5, "MPa", "pressure")).toBe(2.5e6);

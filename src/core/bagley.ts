@@ -5,7 +5,7 @@
  * ΔP = 2τ_w (L/R + e): a straight line in L/R whose slope is 2τ_w, whose intercept is the
  * entrance (plus exit) pressure ΔP_ent, and which crosses ΔP = 0 at L/R = −e, e = ΔP_ent/slope.
  * When the dies were not run at identical rates, each die's ln ΔP vs ln γ̇_a is interpolated to
- * common rates first (Macosko 1994, §6.2; Dealy & Wang 2013, §6.3).
+ * common rates first (Macosko 1994, ch. 6, from memory; Dealy & Wang 2013, from memory).
  */
 import { RheoError, Warning, warning } from "./errors";
 import { fitLine } from "./regression";

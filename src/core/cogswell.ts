@@ -1,6 +1,6 @@
 /**
  * Extensional viscosity from the entrance pressure loss (Cogswell, Polym. Eng. Sci. 12 (1972) 64;
- * Macosko 1994, §6.2.4; Dealy & Wang 2013, §6.5). Converging flow into a round die is treated
+ * Macosko 1994, ch. 6, from memory; Dealy & Wang 2013, from memory). Converging flow into a round die is treated
  * as a sum of shear and extension; with n the local power-law index, η the shear viscosity and
  * γ̇ the wall shear rate at the entrance pressure ΔP_ent:
  *

@@ -1,7 +1,7 @@
 /**
  * Forward model of round-capillary flow: the apparent wall shear rate a generalised-Newtonian
- * liquid gives at a known wall stress, from the flow integral (Macosko 1994, eq. 6.2.12;
- * Bird, Armstrong & Hassager 1987, vol. 1, §4.2):
+ * liquid gives at a known wall stress, from the flow integral (Macosko 1994, ch. 6, from memory;
+ * Bird, Armstrong & Hassager 1987, vol. 1, ch. 4, from memory):
  *
  *   γ̇_a = 4Q/(πR³) = (4/τ_w³) ∫₀^τw τ² γ̇(τ) dτ.
  *

@@ -1,7 +1,7 @@
 /**
  * Linear least squares min ‖A·c − y‖₂ for the small, tall systems of the corrections (polynomials
  * of degree ≤ 3 over a few dozen points), by Householder QR: A = Q·R, then R·c = Qᵀ·y
- * (Golub & Van Loan, Matrix Computations, 4th ed. 2013, Alg. 5.2.1 and §5.3.3).
+ * (Golub & Van Loan, Matrix Computations, 4th ed. 2013, ch. 5, from memory).
  *
  * Written here rather than taken from a matrix library: at this size the arithmetic is a few
  * hundred operations, and ml-matrix (what ml-regression-polynomial solves with) was about 70 KB

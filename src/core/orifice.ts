@@ -2,7 +2,7 @@
  * Orifice-die (zero-length) end correction: a die of (nearly) zero land length measures the
  * entrance pressure ΔP_ent directly; at the same apparent shear rate it is subtracted from a long
  * die's pressure, τ_w = (ΔP_long − ΔP_orifice)·D/(4L) (ISO 11443 permits the method; from
- * memory. Macosko 1994, §6.2; Dealy & Wang 2013, §6.3). The orifice must have the long die's
+ * memory. Macosko 1994, ch. 6, from memory; Dealy & Wang 2013, from memory). The orifice must have the long die's
  * diameter and entry angle; the orifice's pressure is interpolated log–log to the long die's rates
  * (never extrapolated).
  */

@@ -4,7 +4,7 @@
  * With the Barus law η = η_0·exp(β_p·p) and the flow rate held, the local wall stress grows as
  * exp(β_p·p), so along the die dp/dz = −(2/R)·τ_0·exp(β_p·p). Integrating from the exit (p = 0)
  * gives the die's pressure drop (Duvdevani & Klein, SPE J. 23 (1967) 41; Laun, Rheol. Acta 43
- * (2004) 509; Dealy & Wang 2013, §6.7):
+ * (2004) 509; Dealy & Wang 2013, from memory):
  *
  *   ΔP = ΔP_ent − ln(1 − β_p·2τ_0·x)/β_p,   x = L/R (L/H for a slit),
  *

@@ -26,7 +26,7 @@ export const STANDARD_GRAVITY = 9.80665;
 export const DEFAULT_MFR_GEOMETRY = Object.freeze({ dieDiameter: 2.095e-3, dieLength: 8.0e-3, barrelDiameter: 9.55e-3 });
 
 /**
- * Power law η = K·γ̇^(n−1) as a function (Bird, Armstrong & Hassager 1987, vol. 1, §4.1).
+ * Power law η = K·γ̇^(n−1) as a function (Bird, Armstrong & Hassager 1987, vol. 1, ch. 4, from memory).
  * @param consistency K in Pa·s^n (> 0)
  * @param flowIndex n (> 0)
  * @example powerLawViscosity(1e4, 0.4)(10) // 2511.9 Pa·s

@@ -1,10 +1,10 @@
 /**
  * Rabinowitsch (Weissenberg–Rabinowitsch–Mooney) correction of the apparent wall shear rate
- * (Rabinowitsch 1929, Z. Phys. Chem. A145, 1; Macosko 1994, eq. 6.2.15):
+ * (Rabinowitsch 1929, Z. Phys. Chem. A145, 1; Macosko 1994, ch. 6, from memory):
  *
  *   γ̇_w = (γ̇_a / 4)·(3 + d ln γ̇_a / d ln τ_w) = γ̇_a·(3n' + 1)/(4n'),  n' = d ln τ_w / d ln γ̇_a.
  *
- * For a slit the same argument gives γ̇_w = γ̇_a·(2n' + 1)/(3n') (Macosko 1994, §6.3).
+ * For a slit the same argument gives γ̇_w = γ̇_a·(2n' + 1)/(3n') (Macosko 1994, ch. 6, from memory).
  *
  * n' comes from a smoothed ln τ_w vs ln γ̇_a curve differentiated analytically:
  * - "transition" (default): a logistic-slope curve (the log–log Carreau–Yasuda shape with a free

@@ -1,6 +1,6 @@
 /**
- * Mooney wall-slip analysis (Mooney 1931, J. Rheol. 2, 210; Macosko 1994, §6.2.3; Dealy & Wang
- * 2013, §6.4).
+ * Mooney wall-slip analysis (Mooney 1931, J. Rheol. 2, 210; Macosko 1994, ch. 6, from memory; Dealy & Wang
+ * 2013, from memory).
  *
  * A liquid that slips at the wall with velocity v_s(τ_w) adds a plug flow πR²v_s to the flow
  * rate, so at one wall stress

@@ -4,11 +4,11 @@
  *
  * Newtonian flow between parallel plates gives the apparent wall shear rate γ̇_a = 6Q/(W H²)
  * (apparentSlitShearRate, slitFlow.ts);
- * a force balance on the fluid gives τ_w = ΔP·H/(2L) (Macosko 1994, §6.3; ISO 11443). The end
+ * a force balance on the fluid gives τ_w = ΔP·H/(2L) (Macosko 1994, ch. 6, from memory; ISO 11443). The end
  * correction works as Bagley's does for round dies but in L/H: ΔP = ΔP_ent + 2τ_w·(L/H), so the
  * slope of ΔP against L/H is 2τ_w and the round-die code applies with L/H in place of L/R.
  * The slit Rabinowitsch factor is (2n'+1)/(3n') (rabinowitsch.ts, geometry "slit").
- * Edge effects are neglected; some texts multiply τ_w by 1/(1 + H/W) (Macosko 1994, §6.3), and
+ * Edge effects are neglected; some texts multiply τ_w by 1/(1 + H/W) (Macosko 1994, ch. 6, from memory), and
  * this module warns when W/H is below {@link DEFAULT_SLIT_OPTIONS}.minAspectRatio.
  */
 import { Warning, requireNonNegative, requirePositive, warning } from "./errors";

@@ -1,7 +1,7 @@
 /**
  * Forward model of slit-die flow (parallel plates, W ≫ H, edge effects neglected): the apparent
  * wall shear rate γ̇_a = 6Q/(WH²) a generalised-Newtonian liquid gives at a known wall stress,
- * from the plane-Poiseuille flow integral (Macosko 1994, §6.3; ISO 11443 slit dies):
+ * from the plane-Poiseuille flow integral (Macosko 1994, ch. 6, from memory; ISO 11443 slit dies):
  *
  *   γ̇_a = 6Q/(WH²) = (3/τ_w²) ∫₀^τw τ γ̇(τ) dτ,   written over the rate with τ = f(g) = η(g)·g:
  *   γ̇_a = (3/τ_w²) ∫₀^γ̇w f(g) g f'(g) dg.

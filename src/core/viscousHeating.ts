@@ -1,6 +1,6 @@
 /**
- * Viscous heating in the die (Winter, Adv. Heat Transfer 13 (1977) 205; Macosko 1994, §6.2.5;
- * Dealy & Wang 2013, §6.6).
+ * Viscous heating in the die (Winter, Adv. Heat Transfer 13 (1977) 205; Macosko 1994, ch. 6, from memory;
+ * Dealy & Wang 2013, from memory).
  *
  * - Adiabatic temperature rise: all the pressure work heats the melt passing the die,
  *   ΔT_ad = ΔP/(ρ·c_p). It bounds the mean rise from above (the wall conducts heat away).

@@ -1,6 +1,6 @@
 /**
  * Fits several models to one data set and ranks them by AIC (Akaike 1974; Burnham & Anderson,
- * Model Selection and Multimodel Inference (2002), §2.9: ΔAIC_i = AIC_i − min AIC,
+ * Model Selection and Multimodel Inference (2002), ch. 2 (from memory): ΔAIC_i = AIC_i − min AIC,
  * Akaike weight w_i = exp(−ΔAIC_i/2)/Σ exp(−ΔAIC_j/2)).
  */
 import { RheoError } from "../errors";

@@ -1,12 +1,12 @@
 /**
  * Goodness of fit and parameter uncertainty at a least-squares optimum.
  *   covariance  = s²·(JᵀJ)⁻¹ with s² = SSR/(n − p), J = ∂r/∂θ in the ORIGINAL parameters θ
- *                 (Bates & Watts, Nonlinear Regression Analysis (1988), §2.3);
+ *                 (Bates & Watts, Nonlinear Regression Analysis (1988), ch. 2, from memory);
  *   interval    = θ ± t_{(1+level)/2, n−p}·SE;
  *   R²          = 1 − SSR/SST in the residual space (weighted);
  *   RMSE        = √(SSR/n);
  *   AIC         = n·ln(SSR/n) + 2p (least-squares form, constants dropped: Burnham & Anderson,
- *                 Model Selection and Multimodel Inference (2002), §2.2).
+ *                 Model Selection and Multimodel Inference (2002), ch. 2, from memory).
  */
 import { inverseSpd, normalEquations } from "./linearAlgebra";
 import { tQuantile } from "./studentT";

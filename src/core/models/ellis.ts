@@ -1,6 +1,6 @@
 /**
  * Ellis model, stress-based: η = η0/(1 + (τ/τ½)^(α−1)) with τ = η·γ̇ (Ellis 1927, see Bird,
- * Armstrong & Hassager 1987 vol. 1, §4.1 and Matsuhisa & Bird, AIChE J. 11 (1965) 588; from memory).
+ * Armstrong & Hassager 1987 vol. 1, ch. 4 and Matsuhisa & Bird, AIChE J. 11 (1965) 588; from memory).
  *
  * Rheoledger fits η against γ̇ like every other model: η(γ̇) is the root of
  * G(L) = L − ln η0 + ln(1 + exp((α−1)(L + ln γ̇ − ln τ½))) = 0 in L = ln η, found by Newton's
@@ -38,7 +38,7 @@ export const ellis: ModelDefinition = {
   id: "ellis",
   description: "Ellis (stress-based), solved for η(γ̇): plateau, then power law in the stress",
   formula: "η = eta0/(1 + (τ/tauHalf)^(alpha−1)), τ = η·γ̇ (solved for η at each γ̇)",
-  reference: "Bird, Armstrong & Hassager, Dynamics of Polymeric Liquids vol. 1 (1987), §4.1",
+  reference: "Bird, Armstrong & Hassager, Dynamics of Polymeric Liquids vol. 1 (1987), ch. 4 (from memory)",
   parameters: [
     ETA0,
     parameter("tauHalf", "Pa", "shear stress τ½ at which η = η0/2", 0),

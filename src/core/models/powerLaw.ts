@@ -1,6 +1,6 @@
 /**
  * Power law (Ostwald–de Waele): η = K·γ̇^(n−1) (Ostwald 1925; Bird, Armstrong & Hassager 1987,
- * vol. 1, §4.1).
+ * vol. 1, ch. 4, from memory).
  */
 import { lineFit, logPoints } from "./guess";
 import { CONSISTENCY, N_INDEX } from "./parameterSpec";
@@ -11,7 +11,7 @@ export const powerLaw: ModelDefinition = {
   id: "power-law",
   description: "power law (Ostwald–de Waele), no plateau",
   formula: "η = K·γ̇^(n−1)",
-  reference: "Bird, Armstrong & Hassager, Dynamics of Polymeric Liquids vol. 1 (1987), §4.1",
+  reference: "Bird, Armstrong & Hassager, Dynamics of Polymeric Liquids vol. 1 (1987), ch. 4 (from memory)",
   parameters: [CONSISTENCY, N_INDEX],
   needsTemperature: false,
   defaultFixed: {},

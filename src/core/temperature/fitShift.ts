@@ -1,6 +1,6 @@
 /**
  * Shift factors from viscosity curves at several temperatures, by time–temperature
- * superposition: η(γ̇, T) = a_T·η_ref(a_T·γ̇) (Dealy & Wang, Melt Rheology (2013), ch. 4).
+ * superposition: η(γ̇, T) = a_T·η_ref(a_T·γ̇) (Dealy & Wang, Melt Rheology (2013), from memory).
  *
  * Method: one joint least-squares fit in ln η of the shift-law constants and a smooth master
  * curve ln η_ref = P(ln γ̇_r), a polynomial of degree options.polynomialDegree in the reduced

@@ -1,7 +1,7 @@
 /**
  * Master curve and model evaluation at another temperature by time–temperature superposition:
  * reduced rate γ̇_r = a_T·γ̇, reduced viscosity η_r = η/a_T; η(γ̇, T) = a_T·η_ref(a_T·γ̇)
- * (Dealy & Wang, Melt Rheology (2013), ch. 4).
+ * (Dealy & Wang, Melt Rheology (2013), from memory).
  */
 import { RheoError } from "../errors";
 import { evaluateModel, getModel } from "../models";

@@ -1,6 +1,6 @@
 /**
  * Temperature shift factors a_T for time–temperature superposition,
- * η(γ̇, T) = a_T·η_ref(a_T·γ̇) (Dealy & Wang, Melt Rheology (2013), ch. 4; Ferry 1980).
+ * η(γ̇, T) = a_T·η_ref(a_T·γ̇) (Dealy & Wang, Melt Rheology (2013), from memory; Ferry 1980).
  */
 import { RheoError, requireFinite, requirePositive } from "../errors";
 
