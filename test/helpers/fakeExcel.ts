@@ -210,8 +210,8 @@ export class FakeExcel {
     return fn(this.context() as Excel.RequestContext);
   };
 
-  /** Cells written to a sheet: address (A1) → value, from every range whose values were set. */
-  written(sheetName: string, property: "values" | "formulas" = "values"): Map<string, unknown> {
+  /** Cells written to a sheet: address (A1) → value (or formula, or number format), from every range where it was set. */
+  written(sheetName: string, property: "values" | "formulas" | "numberFormat" = "values"): Map<string, unknown> {
     const out = new Map<string, unknown>();
     for (const r of this.sheet(sheetName).ranges) {
       const grid = r.mock[property];
