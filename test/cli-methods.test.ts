@@ -30,7 +30,8 @@ function table(stdout: string, title: string): number[][] {
   const lines = stdout.split("\n");
   lines.forEach((line, i) => {
     if (line.trim() !== title) return;
-    for (let j = i + 3; j < lines.length && (lines[j] as string).trim() !== ""; j++) {
+    // data rows follow the header and its rule, up to a blank line or an indented note
+    for (let j = i + 3; j < lines.length && /^\s*-?[\d.]/.test(lines[j] as string) && !/^ {2}\S/.test(lines[j] as string); j++) {
       rows.push((lines[j] as string).trim().split(/\s+/).map(Number));
     }
   });
@@ -65,14 +66,14 @@ describe("rheoledger reduce with the method flags", () => {
   test("--orifice and --heating: text tables with units", async () => {
     const r = await run(["reduce", "n.csv", "--orifice", "--heating", "density=0.75 g/cm3, cp=2.5 kJ/(kg.K), k=0.2 W/(m.K), b=0.03 1/K"], files);
     expect(r.code).toBe(0);
-    expect(r.stdout).toContain("Viscous heating (b = 0.03 1/K, given)");
+    expect(r.stdout).toContain("b = 0.03 1/K (given).");
     // values, not only headers: the invented data's entrance loss is √(8/3)·μ·γ̇_a (Cogswell's
     // relation for a Trouton liquid, μ = 400 Pa·s), which the Bagley column must show in bar
     const entrance = table(r.stdout, "Entrance pressure: Bagley and orifice die");
     expect(entrance.length).toBe(3 * 4);
     for (const [rate, bagleyBar] of entrance) expectClose(bagleyBar as number, (Math.sqrt(8 / 3) * 400 * (rate as number)) / 1e5, { rel: 2e-3 });
     // adiabatic rise ΔT = ΔP/(ρ·c_p) (Macosko 1994, ch. 6, from memory) of the pressure printed beside it
-    const heating = table(r.stdout, "Viscous heating (b = 0.03 1/K, given)");
+    const heating = table(r.stdout, "Viscous heating");
     expect(heating.length).toBe(3 * 4);
     for (const [, pressureBar, rise] of heating) expectClose(rise as number, ((pressureBar as number) * 1e5) / (750 * 2500), { rel: 3e-3 });
   });
