@@ -10,6 +10,7 @@ import { interpolateLogLog } from "../src/core/interpolate";
 import { barusPressure } from "../src/core/pressureDependence";
 import { reduce } from "../src/core/reduce";
 import { fitFlowCurves } from "../src/core/flowCurveFits";
+import { runReduction } from "../src/core/run";
 import { expectClose } from "./helpers/expectClose";
 
 const RATES = [0.03, 2, 150];
@@ -114,5 +115,9 @@ describe("fitting every group of a reduction", () => {
     // @check flowCurveFits | power-law fit of a reduced Hagen–Poiseuille flow curve of water: K = μ = 1.0016 mPa·s, n = 1 | IAPWS 2008 viscosity of water at 20 °C (1.0016 mPa·s); Hagen–Poiseuille | rel 1e-6 | 2
     expectClose(fit?.result.parameters.K as number, mu, { rel: 1e-6 });
     expectClose(fit?.result.parameters.n as number, 1, { rel: 1e-6 });
+    const run = runReduction(data, {}, { model: "power-law" });
+    // @check run | one run (reduction and the model fit asked for) on water's Hagen–Poiseuille data: K = μ = 1.0016 mPa·s, n = 1 | IAPWS 2008 viscosity of water at 20 °C (1.0016 mPa·s); Hagen–Poiseuille | rel 1e-6 | 2
+    expectClose(run.modelFits?.[0]?.parameters.K as number, mu, { rel: 1e-6 });
+    expectClose(run.modelFits?.[0]?.parameters.n as number, 1, { rel: 1e-6 });
   });
 });

@@ -236,6 +236,8 @@ const csvTextWith = (damageOf: fc.Arbitrary<["cell" | "row" | "column", number, 
 
 /** Flags for `reduce`: valid ones, and at most one that is not (one change at a time). */
 const VALID_FLAGS = fc.constantFrom(["--json"], ["--summary"], ["--method", "global"], ["--method", "local"], ["--method", "difference"], ["--method", "transition"], ["--end-correction", "none"], ["--end-correction", "bagley"], ["--degree", "2"], ["--density", "0.76 g/cm3"]);
+/** Up to `max` valid flags, each flag at most once (a repeated flag is refused). */
+const validFlags = (max: number) => fc.uniqueArray(VALID_FLAGS, { maxLength: max, selector: (f) => f[0] as string });
 const INVALID_FLAG = fc.oneof(
   fc.constantFrom(["--degree", "7"], ["--method", "nope"], ["--window", "2"]),
   fc.tuple(fc.constantFrom(...VALUE_FLAGS), anyText).map(([k, v]) => [`--${k}=${v}`]),
@@ -246,10 +248,10 @@ const INVALID_FLAG = fc.oneof(
  * a damaged file, one invalid flag, or another command.
  */
 const endToEnd = fc.oneof(
-  { weight: 10, arbitrary: fc.tuple(csvTextWith(fc.constant(null)), fc.array(VALID_FLAGS, { maxLength: 3 }), fc.constant("reduce")) },
-  { weight: 4, arbitrary: fc.tuple(csvTextWith(damage.filter((d) => d !== null)), fc.array(VALID_FLAGS, { maxLength: 3 }), fc.constant("reduce")) },
-  { weight: 1, arbitrary: fc.tuple(csvTextWith(fc.constant(null)), fc.tuple(fc.array(VALID_FLAGS, { maxLength: 2 }), INVALID_FLAG).map(([v, bad]) => [...v, bad]), fc.constant("reduce")) },
-  { weight: 1, arbitrary: fc.tuple(csvTextWith(fc.constant(null)), fc.array(VALID_FLAGS, { maxLength: 2 }), fc.constantFrom("plan", "compare")) },
+  { weight: 10, arbitrary: fc.tuple(csvTextWith(fc.constant(null)), validFlags(3), fc.constant("reduce")) },
+  { weight: 4, arbitrary: fc.tuple(csvTextWith(damage.filter((d) => d !== null)), validFlags(3), fc.constant("reduce")) },
+  { weight: 1, arbitrary: fc.tuple(csvTextWith(fc.constant(null)), fc.tuple(validFlags(2), INVALID_FLAG).map(([v, bad]) => [...v, bad]), fc.constant("reduce")) },
+  { weight: 1, arbitrary: fc.tuple(csvTextWith(fc.constant(null)), validFlags(2), fc.constantFrom("plan", "compare")) },
 );
 
 
