@@ -53,6 +53,7 @@ export const EXEMPT_MODULES = {
   "temperature/curves": "input checks, no calculation",
   grouping: "sorting points into temperature and diameter groups, no calculation",
   transducerChoice: "a selection rule (each step within 5–90 % of full scale: common practice, no source); the pressures it ranks are checked against Hagen–Poiseuille through the planner",
+  rowAccount: "counting input rows by the reason they were not used, no calculation",
   parameterComparison: "an interval-overlap rule (common practice, no source); the intervals come from fitModel, checked against scipy",
 };
 

@@ -13,8 +13,8 @@ describe("parseCsv(text)", () => {
       { line: 5, cells: ["3", 'say "hi"'] },
     ]);
   });
-  test("semicolon file implies decimal commas; tab files are detected", () => {
-    expect(parseCsv("a;b\n1,5;2\n")).toMatchObject({ delimiter: ";", decimalComma: true });
+  test("semicolon and tab files are detected (the decimal mark is the number reader's business)", () => {
+    expect(parseCsv("a;b\n1,5;2\n")).toMatchObject({ delimiter: ";" });
     expect(parseCsv("a\tb\n1\t2\n").delimiter).toBe("\t");
   });
 });
@@ -52,14 +52,18 @@ describe("readRawTable(cells)", () => {
     const t = readRawTable([HEADER, [1, 20, 15, 60, 100, 200], [null, "", null, null, null, null], [1, 20, 15, 60, "", 200]]);
     expect(t.measurements).toHaveLength(1);
     expect(t.skippedRows).toEqual([4]);
-    expect(t.warnings[0]).toEqual({ code: "ROW_SKIPPED_BLANK", message: "row 4 skipped: blank pressure.", severity: "info" });
+    expect(t.warnings).toEqual([
+      { code: "ROWS_BLANK", message: "row 3 is blank and skipped.", severity: "info" },
+      { code: "ROW_SKIPPED_BLANK", message: "row 4 skipped: blank pressure.", severity: "info" },
+    ]);
+    expect(t.rows).toEqual({ rowsRead: 3, rowsUsed: 1, rowsSkipped: { blank: 1, incomplete: 1 } });
   });
   test("unknown columns are ignored with a warning", () => {
     const t = readRawTable([[...HEADER, "operator"], [1, 20, 15, 60, 100, 200, "J"]]);
     expect(t.warnings.map((w) => w.code)).toEqual(["COLUMN_IGNORED"]);
   });
-  test("decimal commas on request", () => {
-    expectClose(readRawTable([HEADER, ["1,5", 20, 15, 60, 100, 200]], { decimalComma: true }).measurements[0]!.dieDiameter as number, 1.5e-3, { rel: 1e-15 });
+  test("decimal commas are read wherever they are unambiguous", () => {
+    expectClose(readRawTable([HEADER, ["1,5", 20, 15, 60, 100, 200]]).measurements[0]!.dieDiameter as number, 1.5e-3, { rel: 1e-15 });
   });
 });
 
@@ -76,7 +80,7 @@ describe("readRawTable errors name the column and the row", () => {
     expect(err([HEADER, [1, 20, 15, 60, "n/a", 200]], { rowWord: "line" })).toBe('pressure [bar] (column 5): line 2 is text "n/a", not a number');
   });
   test("boolean cell", () => expect(err([HEADER, [true, 20, 15, 60, 100, 200]])).toBe("die_diameter [mm] (column 1): row 2 is a TRUE/FALSE value, not a number"));
-  test("negative pressure", () => expect(err([HEADER, [1, 20, 15, 60, -3, 200]])).toBe("pressure [bar] (column 5): row 2 must be greater than zero, got -300000"));
+  test("negative pressure, stated in the user's unit", () => expect(err([HEADER, [1, 20, 15, 60, -3, 200]])).toBe("pressure [bar] (column 5): row 2 must be greater than zero, got -3 bar"));
   test("missing column", () => expect(err([HEADER.slice(1), [20, 15, 60, 100, 200]])).toMatch(/^die_diameter: no "die_diameter \[unit\]" column; found: /));
   test("unknown unit", () => expect(err([["die_diameter [furlong]", ...HEADER.slice(1)], [1, 20, 15, 60, 100, 200]])).toMatch(/^column 1: "die_diameter \[furlong\]": unknown length unit "furlong"; accepted: m, cm, mm, um, in$/));
   test("no flow column", () => expect(err([["die_diameter [mm]", "die_length [mm]", "pressure [bar]"], [1, 20, 100]])).toMatch(/^flow_rate: no flow column/));

@@ -24,7 +24,7 @@ const SAME = { rel: 1e-12, abs: 1e-300 };
 
 function coreOf(file: string) {
   const csv = parseCsv(readFileSync(file, "utf8"));
-  const raw = readRawTable(csv.lines.map((l) => l.cells), { rowWord: "line", rowNumbers: csv.lines.map((l) => l.line), headerNumber: csv.lines[0]?.line ?? 1, decimalComma: csv.decimalComma });
+  const raw = readRawTable(csv.lines.map((l) => l.cells), { rowWord: "line", rowNumbers: csv.lines.map((l) => l.line), headerNumber: csv.lines[0]?.line ?? 1, decimalMark: csv.delimiter === "," ? "." : undefined });
   const run = runReduction(raw.measurements, {}, { rank: true }, raw.warnings);
   return { result: run.result, fits: fitFlowCurves(run.result), inputWarnings: raw.warnings, warnings: run.warnings };
 }

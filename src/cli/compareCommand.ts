@@ -17,7 +17,7 @@ import { readParameters } from "../io/planOptions";
 import { lotComparisonTable, lotVerdictTable } from "../io/planTables";
 import { parseArgs, splitQuantity, type FlagSpec } from "./args";
 import { num, table } from "./format";
-import { CliIO, readInputFile } from "./io";
+import { CliIO, readInputText } from "./io";
 import { warningsText } from "./planCommand";
 
 export const COMPARE_FLAGS: Record<string, FlagSpec> = {
@@ -48,11 +48,13 @@ ${Object.entries(COMPARE_FLAGS)
 `;
 
 function readCurve(io: CliIO, file: string, argument: string) {
-  const csv = parseCsv(readInputFile(io, file));
-  return readFlowCurveTable(
+  const input = readInputText(io, file);
+  const csv = parseCsv(input.text, file);
+  const read = readFlowCurveTable(
     csv.lines.map((l) => l.cells),
-    { argument, rowWord: "line", rowNumbers: csv.lines.map((l) => l.line), decimalComma: csv.decimalComma },
+    { argument, rowWord: "line", rowNumbers: csv.lines.map((l) => l.line), decimalMark: csv.delimiter === "," ? "." : undefined },
   );
+  return { ...read, warnings: [...input.warnings, ...read.warnings] };
 }
 
 function numberList(text: string, flag: string): number[] {

@@ -5,18 +5,20 @@
  */
 import { RheoError } from "../core/errors";
 import { parseArgs } from "./args";
-import { CliIO, readInputFile } from "./io";
-import { REDUCE_FLAGS, runReduce } from "./reduceCommand";
-import { writeResultsFile } from "./resultsFile";
+import { safeMessage } from "../io/safeText";
+import type { CliIO } from "./io";
+import { type CommandOutput, REDUCE_FLAGS, reduceRequestFromFlags, runReduce } from "./reduceCommand";
+import { readReduceInput } from "./reduceInput";
 import { runPlanCommand } from "./planCommand";
 import { runCompareCommand } from "./compareCommand";
+import { CLI_VERSION } from "./version";
 
 export type { CliIO } from "./io";
 
 const USAGE = `rheoledger — capillary-rheometer data reduction
 
 Usage:
-  rheoledger reduce FILE.csv [options]
+  rheoledger reduce FILE.csv|FILE.xlsx [options]
   rheoledger plan OPTIONS.json [--json]          plan dies, speeds, pressures, material (plan --help)
   rheoledger compare LOT.csv --reference REF.csv | --model NAME --params k=v,...  (compare --help)
 
@@ -25,16 +27,23 @@ ${Object.entries(REDUCE_FLAGS)
   .map(([k, s]) => `  --${k}${s.value ? " VALUE" : ""}`.padEnd(28) + s.description)
   .join("\n")}
 
-The CSV has one header row of "quantity [unit]" cells: die_diameter, die_length, pressure, and
+  rheoledger --version                           print the version
+
+The CSV (or the sheet) has one header row of "quantity [unit]" cells: die_diameter, die_length, pressure, and
 flow_rate, or piston_speed with barrel_diameter, or mass_rate with density; temperature optional.
 `;
 
 /** Runs the command line; returns the process exit code (0 ok, 1 bad input, 2 usage, 3 lot not passed by `compare`). */
-// `reduce --out FILE.xlsx` returns a Promise (the workbook is written asynchronously); every other path a number.
+// `reduce` on a workbook or with `--out FILE.xlsx` returns a Promise (exceljs reads and writes
+// asynchronously); every other path a number.
 export function main(argv: string[], io: CliIO): number | Promise<number> {
   if (argv.length === 0 || argv[0] === "--help" || argv[0] === "-h" || argv[0] === "help") {
     io.stdout(USAGE);
     return argv.length === 0 ? 2 : 0;
+  }
+  if (argv[0] === "--version" || argv[0] === "-v" || argv[0] === "version") {
+    io.stdout(`rheoledger ${CLI_VERSION}\n`);
+    return 0;
   }
   try {
     const command = argv[0];
@@ -47,20 +56,36 @@ export function main(argv: string[], io: CliIO): number | Promise<number> {
     const args = parseArgs(argv, REDUCE_FLAGS);
     const file = args.positionals[0];
     if (!file || args.positionals.length > 1) {
-      io.stderr(`rheoledger reduce: give exactly one CSV file\n\n${USAGE}`);
+      io.stderr(`rheoledger reduce: give exactly one CSV file or xlsx workbook\n\n${USAGE}`);
       return 2;
     }
-    const out = runReduce(readInputFile(io, file), args);
-    const outPath = args.flags.get("out");
-    if (typeof outPath === "string") return writeResultsFile(out, file, outPath, io, args.flags.has("json"));
-    io.stdout(out.stdout);
-    return 0;
+    const request = reduceRequestFromFlags(args);
+    const started = performance.now();
+    const input = readReduceInput(io, file, args, request.input);
+    if (!(input instanceof Promise)) io.timing?.("read", performance.now() - started);
+    const finish = (out: CommandOutput): number | Promise<number> => {
+      io.timing?.("reduce", out.coreMs);
+      const outPath = args.flags.get("out");
+      // the workbook writer (and exceljs) is loaded only when a workbook is written
+      if (typeof outPath === "string") {
+        return import("./resultsFile").then(({ writeResultsFile }) => writeResultsFile(out, file, outPath, io, args.flags.has("json"))).catch((e: unknown) => failed(e, io));
+      }
+      io.stdout(out.stdout);
+      return 0;
+    };
+    if (input instanceof Promise) return input.then((raw) => finish(runReduce(raw, args, request))).catch((e: unknown) => failed(e, io));
+    return finish(runReduce(input, args, request));
   } catch (e) {
-    if (e instanceof RheoError) {
-      io.stderr(`rheoledger: ${e.message}\n`);
-      return 1;
-    }
-    io.stderr(`rheoledger: internal error: ${(e as Error).stack ?? String(e)}\n`);
-    return 70;
+    return failed(e, io);
   }
+}
+
+/** Prints a failure: a RheoError's message (exit 1), anything else as an internal error (exit 70). */
+function failed(e: unknown, io: CliIO): number {
+  if (e instanceof RheoError) {
+    io.stderr(`rheoledger: ${safeMessage(e.message)}\n`);
+    return 1;
+  }
+  io.stderr(`rheoledger: internal error: ${safeMessage((e as Error).stack ?? String(e))}\n`);
+  return 70;
 }

@@ -1,12 +1,13 @@
 /**
- * `rheoledger reduce FILE.csv [--json]`: reads a raw-data CSV, reduces it with the core and
- * prints readable tables (units shown) or one JSON document in SI units.
+ * `rheoledger reduce FILE [--json]`: reads a raw-data CSV or workbook sheet (reduceInput.ts),
+ * reduces it with the core and prints readable tables (units shown) or one JSON document in SI
+ * units.
  */
 import { RheoError, Warning } from "../core/errors";
 import { groupLabel, type ReductionGroup, type ReductionResult, type ReduceOptions } from "../core/reduce";
 import { runReduction, type ReductionRun } from "../core/run";
-import { parseCsv } from "../io/csv";
-import { readRawTable } from "../io/rawTable";
+import { rowAccountText } from "../core/rowAccount";
+import type { ReduceInput } from "./reduceInput";
 import { CLI_SETTINGS_SOURCE, readReduceSettings, reduceSetting, reduceSettingOfFlag, type ReduceRequest } from "../io/reduceOptions";
 import { reduceSettingFlags } from "../io/reduceSettingWords";
 import { FlagSpec, ParsedArgs } from "./args";
@@ -16,11 +17,12 @@ import { flowCurveExtrasJson, groupExtrasJson, topExtrasJson } from "./methodFla
 import { resultTables } from "../io/resultTables";
 import { shiftSummary, withFitJson } from "./fitReport";
 
-/** Flags of `reduce` that choose what is printed or written (not reduce settings). */
+/** Flags of `reduce` that choose what is read, printed or written (not reduce settings). */
 export const REDUCE_OUTPUT_FLAGS: Record<string, FlagSpec> = {
   json: { value: false, description: "print one JSON document in SI units instead of tables" },
   out: { value: true, description: "also write the results workbook (xlsx: summary, Bagley, flow curve, fits, warnings) to FILE" },
   summary: { value: false, description: "print a short summary (with model fits) instead of the full tables" },
+  sheet: { value: true, description: "the sheet of an .xlsx input to read (default: the first sheet)" },
 };
 
 /** Every flag of `reduce`: the reduce settings (src/io/reduceOptions.ts) and the output flags. */
@@ -35,6 +37,10 @@ export interface CommandOutput {
   request: ReduceRequest;
   /** warnings from reading the file */
   inputWarnings: Warning[];
+  /** the table read, with its row account and description */
+  input: ReduceInput;
+  /** wall time of the core's run (reduction, and fits when asked), ms (for `npm run bench`) */
+  coreMs: number;
 }
 
 /** The reduce settings given as flags, by setting key (output flags left out). */
@@ -62,28 +68,14 @@ export function asFlagError(e: unknown): unknown {
   }
 }
 
-/** Reads CSV text into measurements (errors name the file's line and column). */
-export function readCsvMeasurements(text: string, input: ReduceRequest["input"]) {
-  const csv = parseCsv(text);
-  const cells = csv.lines.map((l) => l.cells);
-  const first = csv.lines[0];
-  if (!first) throw new RheoError("missing", "file", "is empty");
-  return readRawTable(cells, {
-    rowWord: "line",
-    headerNumber: first.line,
-    rowNumbers: csv.lines.map((l) => l.line),
-    decimalComma: csv.decimalComma,
-    barrelDiameter: input.barrelDiameter,
-    density: input.density,
-  });
-}
-
 /** The JSON document of a reduction, SI units (the contract in docs/cli.md). */
-export function reductionJson(result: ReductionResult, warnings: Warning[]) {
+export function reductionJson(result: ReductionResult, warnings: Warning[], input?: ReduceInput) {
   return {
     units: { pressure: "Pa", length: "m", time: "s", temperature: "K", viscosity: "Pa.s", shearRate: "1/s" },
+    ...(input ? { input: { ...input.format, decimalMark: input.decimalMark }, rows: input.rows } : {}),
     groups: result.groups.map((g) => ({
       temperature: g.temperature,
+      ...(g.temperatureSpread !== undefined ? { temperatureSpread: g.temperatureSpread, temperatureReadings: g.temperatureReadings } : {}),
       dieDiameter: g.dieDiameter,
       dies: g.dies.map((d) => ({ dieLength: d.dieLength, lengthOverRadius: d.lengthOverRadius, points: d.points })),
       bagley: g.bagley.map((b) => ({
@@ -115,16 +107,29 @@ export function reductionJson(result: ReductionResult, warnings: Warning[]) {
 function groupHeading(g: ReductionGroup): string {
   const ratio = g.geometry === "slit" ? "L/H" : "L/D";
   const bore = g.geometry === "slit" ? (g.slitHeight as number) : g.dieDiameter;
-  return `== ${groupLabel(g)}; dies: ${g.dies.map((d) => `L ${num(d.dieLength * 1e3)} mm (${ratio} ${num(d.dieLength / bore)})`).join(", ")}`;
+  return `== ${groupLabel(g)}${temperatureNote(g)}; dies: ${g.dies.map((d) => `L ${num(d.dieLength * 1e3)} mm (${ratio} ${num(d.dieLength / bore)})`).join(", ")}`;
+}
+
+/** " (mean of 3 readings, 189.8–190.3 °C)" after a group's label; "" for one repeated reading. */
+function temperatureNote(g: ReductionGroup): string {
+  const r = g.temperatureReadings;
+  if (!r || r.max === r.min) return "";
+  return ` (mean of ${r.count} readings, ${num(r.min - 273.15)}–${num(r.max - 273.15)} °C)`;
+}
+
+/** "Input: data.csv (UTF-8 text, comma-separated); 42 lines read: 42 used." */
+export function inputText(input: ReduceInput): string {
+  return `Input: ${input.description}; ${rowAccountText(input.rows, input.format.kind === "csv" ? "line" : "row")}`;
 }
 
 /**
  * Readable tables of a run (src/io/resultTables.ts): per group a heading and its tables, then the
  * tables across groups; warnings apart ({@link warningsText}).
  */
-export function reductionText(run: ReductionRun): string {
+export function reductionText(run: ReductionRun, input?: ReduceInput): string {
   const tables = resultTables(run).filter((t) => t.id !== "groups" && t.id !== "warnings");
   const out: string[] = [];
+  if (input) out.push(inputText(input), "");
   for (const g of run.result.groups) {
     out.push(groupHeading(g), "");
     for (const t of tables.filter((x) => x.scope === groupLabel(g))) out.push(resultTableText({ ...t, scope: undefined }), "");
@@ -141,22 +146,25 @@ export function warningsText(warnings: Warning[]): string {
   return ["Warnings", ...sorted.map((w) => `  [${w.severity}] [${w.code}] ${w.message}`)].join("\n") + "\n";
 }
 
-/** Runs `reduce` on CSV text already read from the file. */
-export function runReduce(text: string, args: ParsedArgs): CommandOutput {
-  const request = reduceRequestFromFlags(args);
-  const raw = readCsvMeasurements(text, request.input);
+/**
+ * Runs `reduce` on the table read from the input file (reduceInput.ts), with the request read from
+ * the flags ({@link reduceRequestFromFlags}; its input part was used to read the table).
+ */
+export function runReduce(raw: ReduceInput, args: ParsedArgs, request: ReduceRequest = reduceRequestFromFlags(args)): CommandOutput {
   const wantsRanking = args.flags.has("summary") || args.flags.has("out");
   let run: ReductionRun;
+  const started = performance.now();
   try {
     run = runReduction(raw.measurements, request.options, { ...request.fits, rank: wantsRanking }, raw.warnings);
   } catch (e) {
     throw asFlagError(e);
   }
+  const coreMs = performance.now() - started;
   const result = run.result;
   const stdout = args.flags.has("json")
-    ? JSON.stringify(withFitJson(reductionJson(result, run.warnings), run), null, 2) + "\n"
+    ? JSON.stringify(withFitJson(reductionJson(result, run.warnings, raw), run), null, 2) + "\n"
     : args.flags.has("summary")
-      ? reductionSummary(run) + shiftSummary(run)
-      : reductionText(run) + warningsText(run.warnings);
-  return { stdout, run, result, options: request.options, request, inputWarnings: raw.warnings };
+      ? reductionSummary(run, raw.rows) + shiftSummary(run)
+      : reductionText(run, raw) + warningsText(run.warnings);
+  return { stdout, run, result, options: request.options, request, inputWarnings: raw.warnings, input: raw, coreMs };
 }

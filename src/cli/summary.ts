@@ -5,6 +5,7 @@
  */
 import type { ReductionRun } from "../core/run";
 import { groupLabel } from "../core/reduce";
+import { type RowAccount, rowAccountText } from "../core/rowAccount";
 import { num } from "./format";
 
 function span(values: number[], digits = 3): string {
@@ -13,7 +14,7 @@ function span(values: number[], digits = 3): string {
 }
 
 /** The summary text of a run (its ranked fits, when present, name the best model per group). */
-export function reductionSummary(run: ReductionRun): string {
+export function reductionSummary(run: ReductionRun, rows?: RowAccount): string {
   const { result } = run;
   const fits = run.comparisons;
   const out: string[] = [`Reduced ${result.groups.length} group${result.groups.length === 1 ? "" : "s"}:`];
@@ -43,6 +44,7 @@ export function reductionSummary(run: ReductionRun): string {
     }
     out.push(`  ${g.temperature === null ? "no temperature, " : ""}${groupLabel(g)}, ${g.dies.length} dies: ${parts.join("; ")}`);
   });
+  if (rows) out.push(`Input: ${rowAccountText(rows)}`);
   const warnings = run.warnings;
   const codes = [...new Set(warnings.map((w) => w.code))];
   out.push(warnings.length === 0 ? "No warnings." : `${warnings.length} warning${warnings.length === 1 ? "" : "s"} (${codes.join(", ")}); the full list is in the Warnings sheet or without --summary.`);

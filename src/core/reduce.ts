@@ -14,12 +14,13 @@
  * representative rate, uncertainty, heating, extensional viscosity, pressure dependence, melt
  * flow rate) are applied by reduceMethods.ts and add fields; the basic fields never change.
  */
-import { RheoError, Warning, scoped } from "./errors";
+import { RheoError, Warning, scoped, warning } from "./errors";
 import { meltFlowPoint } from "./meltFlowRate";
 import { applyGroupMethods, fittedTemperatureCoefficients, slipAcrossGroups } from "./reduceMethods";
 import { DEFAULT_REDUCE_OPTIONS, Measurement, ReduceOptions, ReductionResult } from "./reduceTypes";
 import { apparentPoint, groupLabel, groupPoints } from "./grouping";
 import { reduceGroup } from "./reduceGroup";
+import { checkPlausible, optionFindings, plausibilityText } from "./plausibility";
 
 export * from "./reduceTypes";
 export { groupLabel } from "./grouping";
@@ -41,7 +42,16 @@ export function reduce(measurements: Measurement[], options: Partial<ReduceOptio
   }
   if (measurements.length === 0) throw new RheoError("missing", "measurements", "no data rows");
   const points = measurements.map(apparentPoint);
-  const reduced = groupPoints(points, opt).map((g) => reduceGroup(g.points, g.temperature, opt, g.slit));
+  const reduced = groupPoints(points, opt).map((g) => {
+    const r = reduceGroup(g.points, g.temperature, opt, g.slit);
+    if (g.temperatureReadings) {
+      const { count, min, max, spread } = g.temperatureReadings;
+      r.group.temperatureSpread = spread;
+      r.group.temperatureReadings = { count, min, max };
+    }
+    r.group.warnings.unshift(...g.warnings);
+    return r;
+  });
   const groups = reduced.map((r) => r.group);
   const fitted = opt.heating && opt.heating.temperatureCoefficient === undefined ? fittedTemperatureCoefficients(groups) : null;
   const warnings: Warning[] = [];
@@ -55,6 +65,7 @@ export function reduce(measurements: Measurement[], options: Partial<ReduceOptio
     const label = groupLabel(group);
     warnings.push(...group.warnings.map((w) => scoped(w, label)));
   }
+  warnings.push(...plausibilityWarnings(opt, groups));
   const result: ReductionResult = { groups, warnings };
   if (opt.slip !== false) {
     const slip = slipAcrossGroups(groups, opt.slip === true ? { rabinowitsch: opt.rabinowitsch } : { rabinowitsch: opt.rabinowitsch, ...opt.slip });
@@ -67,4 +78,28 @@ export function reduce(measurements: Measurement[], options: Partial<ReduceOptio
     warnings.push(...result.meltFlowRate.warnings);
   }
   return result;
+}
+
+/**
+ * IMPLAUSIBLE_VALUE warnings for settings outside their usual range (heating inputs, transducer
+ * full scale, melt-flow density) and for a group whose viscosities fall outside the usual range
+ * (a unit slip in the input somewhere): see plausibility.ts.
+ */
+function plausibilityWarnings(opt: ReduceOptions, groups: ReductionResult["groups"]): Warning[] {
+  const findings = optionFindings({
+    density: opt.heating?.density,
+    heatCapacity: opt.heating?.heatCapacity,
+    thermalConductivity: opt.heating?.conductivity,
+    temperatureCoefficient: opt.heating?.temperatureCoefficient,
+    transducerFullScale: opt.transducer?.fullScale,
+  }).map((text) => warning("IMPLAUSIBLE_VALUE", `Setting ${text}.`, "input"));
+  for (const g of groups) {
+    const etas = g.flowCurve.map((f) => f.viscosityApparent).filter((v) => Number.isFinite(v) && v > 0);
+    if (etas.length === 0) continue;
+    const finding = checkPlausible("viscosity", Math.min(...etas), Math.max(...etas), "Pa.s");
+    if (finding) {
+      findings.push(scoped(warning("IMPLAUSIBLE_VALUE", `apparent viscosity ${plausibilityText("viscosity", finding, "Pa.s")}: look for a unit slip in the input columns (die size, length, speed, pressure).`), groupLabel(g)));
+    }
+  }
+  return findings;
 }

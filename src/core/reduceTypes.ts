@@ -42,7 +42,10 @@ export interface ReduceOptions extends MethodOptions {
   meltFlowRate: { volumeRate?: number; massRate?: number; density?: number; load: number } | null;
   bagley: Partial<BagleyOptions>;
   rabinowitsch: Partial<RabinowitschOptions>;
-  /** temperatures closer than this (K) form one group */
+  /**
+   * K: neighbouring temperature readings closer than this belong to one set-point (one group,
+   * reported at the mean of its readings with their spread; see grouping.ts)
+   */
   temperatureTolerance: number;
   /** diameters closer than this relative difference count as one diameter */
   diameterTolerance: number;
@@ -53,7 +56,7 @@ export const DEFAULT_REDUCE_OPTIONS: Readonly<ReduceOptions> = Object.freeze({
   endCorrection: "bagley",
   bagley: {},
   rabinowitsch: {},
-  temperatureTolerance: 0.5,
+  temperatureTolerance: 1,
   diameterTolerance: 0.005,
   orifice: {},
   meltFlowRate: null,
@@ -95,8 +98,12 @@ export interface FlowCurveRow {
 
 /** The reduction of one temperature and die diameter. */
 export interface ReductionGroup extends GroupMethodResults {
-  /** K, or null when the data carry no temperature */
+  /** K (the mean of the group's readings), or null when the data carry no temperature */
   temperature: number | null;
+  /** K: highest minus lowest temperature reading of the group (absent when the data carry no temperature) */
+  temperatureSpread?: number;
+  /** the group's temperature readings: how many, lowest and highest (K) */
+  temperatureReadings?: { count: number; min: number; max: number };
   /** m (NaN for a slit group: see slitWidth and slitHeight) */
   dieDiameter: number;
   /** "round" or "slit" */

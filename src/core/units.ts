@@ -241,6 +241,17 @@ export function toSI(value: number, unit: string, quantity: Quantity, argument =
 }
 
 /**
+ * The factor and offset that take `unit` to SI (`SI = value·factor + offset`), looked up once
+ * for converting many values; the same arithmetic as {@link toSI}, bit for bit.
+ * @throws RheoError(kind "value") naming `argument` when the unit is unknown
+ * @example unitFactors("temperature", "C") // { factor: 1, offset: 273.15 }
+ */
+export function unitFactors(quantity: Quantity, unit: string, argument = "unit"): { factor: number; offset: number } {
+  const def = lookup(quantity, unit, argument);
+  return { factor: def.factor, offset: def.offset ?? 0 };
+}
+
+/**
  * Converts an SI `value` of `quantity` to `unit`.
  * @example fromSI(373.15, "C", "temperature") // 100
  */

@@ -21,6 +21,13 @@ export const WARNING_CODES = Object.freeze({
   // Reading the input table
   COLUMN_IGNORED: "info",
   ROW_SKIPPED_BLANK: "info",
+  ROWS_BLANK: "info",
+  PREAMBLE_SKIPPED: "info",
+  ROWS_COMMENT: "info",
+  INPUT_ENCODING: "info",
+  IMPLAUSIBLE_VALUE: "serious",
+  TEMPERATURE_SPREAD: "caution",
+  TEMPERATURE_GROUPS_CLOSE: "caution",
   TEMPERATURE_IGNORED: "info",
 
   // End correction

@@ -11,7 +11,8 @@ import { RheoError, warning, type Warning } from "../core/errors";
 import { isUnitOf, toSI, acceptedUnits } from "../core/units";
 import type { FlowCurveTable } from "../core/lotComparison";
 import { normaliseColumnName } from "./headers";
-import { readNumberCell } from "./rawTable";
+import { type DecimalMark, TableNumberReader } from "./numberText";
+import { excerpt } from "./safeText";
 
 const RATE_NAMES = ["shear_rate", "shear_rate_wall"];
 
@@ -21,7 +22,8 @@ export interface FlowCurveReadOptions {
   rowWord: "line" | "row";
   /** 1-based number of each row (header first), for messages */
   rowNumbers?: number[];
-  decimalComma?: boolean;
+  /** the decimal mark assumed when no text number shows it (a comma-delimited file: ".") */
+  decimalMark?: DecimalMark;
 }
 
 /**
@@ -57,17 +59,40 @@ export function readFlowCurveTable(cells: unknown[][], o: FlowCurveReadOptions):
   if (!rate || !visc) {
     throw new RheoError("missing", o.argument, `needs a "shear_rate [1/s]" and a "viscosity [Pa.s]" column in its header (${place(0)})`);
   }
+  const columns = [rate, visc];
+  const numbers = new TableNumberReader({
+    describe: (c, k) => ({ column: `${o.argument} ${excerpt((columns[c] as { header: string }).header)}`, row: place(k) }),
+    fallback: o.decimalMark,
+  });
+  const read = (cell: unknown, c: number, k: number): number | null => {
+    if (cell === null || cell === undefined) return null;
+    if (typeof cell === "number") {
+      if (Number.isFinite(cell)) return cell;
+      throw new RheoError("value", `${o.argument} ${excerpt((columns[c] as { header: string }).header)}`, `${place(k)} is not a finite number (${String(cell)})`);
+    }
+    if (typeof cell === "string") {
+      const t = cell.trim();
+      return t === "" ? null : numbers.read(t, c, k, raw.length + c);
+    }
+    throw new RheoError("value", `${o.argument} ${excerpt((columns[c] as { header: string }).header)}`, `${place(k)} is not a number`);
+  };
+  // values as written, two per row (rate, viscosity); corrected once the decimal mark is known
+  const raw: number[] = []; // the key of a pending cell is its index here
+  cells.slice(1).forEach((row, i) => {
+    const k = i + 1;
+    const r = read(row[rate!.index], 0, k);
+    const v = read(row[visc!.index], 1, k);
+    if (r === null && v === null) return;
+    if (r === null || v === null) throw new RheoError("missing", o.argument, `${place(k)} has ${r === null ? "no shear rate" : "no viscosity"}`);
+    raw.push(r, v);
+  });
+  for (const c of numbers.finish()) raw[c.key] = c.comma;
   const shearRate: number[] = [];
   const viscosity: number[] = [];
-  cells.slice(1).forEach((row, k) => {
-    const where = place(k + 1);
-    const r = readNumberCell(row[rate!.index], `${o.argument} ${rate!.header}`, where, o.decimalComma ?? false);
-    const v = readNumberCell(row[visc!.index], `${o.argument} ${visc!.header}`, where, o.decimalComma ?? false);
-    if (r === null && v === null) return;
-    if (r === null || v === null) throw new RheoError("missing", o.argument, `${where} has ${r === null ? "no shear rate" : "no viscosity"}`);
-    shearRate.push(toSI(r, rate!.unit, "shearRate"));
-    viscosity.push(toSI(v, visc!.unit, "viscosity"));
-  });
+  for (let i = 0; i < raw.length; i += 2) {
+    shearRate.push(toSI(raw[i] as number, rate!.unit, "shearRate"));
+    viscosity.push(toSI(raw[i + 1] as number, visc!.unit, "viscosity"));
+  }
   if (shearRate.length === 0) throw new RheoError("missing", o.argument, "has no data rows");
   return { table: { shearRate, viscosity }, warnings };
 }

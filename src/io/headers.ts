@@ -61,3 +61,31 @@ export function readHeader(header: string, index: number): ColumnInfo {
   }
   return { index, header, name, unit, problem: null };
 }
+
+/** Rows searched for the header row below a title or notes. */
+export const HEADER_SEARCH_ROWS = 50;
+
+/**
+ * Which row holds the column headers: the first of the first {@link HEADER_SEARCH_ROWS} rows in
+ * which two or more cells name a known quantity ("pressure [bar]", "die_length (mm)"); rows above
+ * it are a title or notes. -1 when no row qualifies (the caller then reads its first row as the
+ * header, so that its problems are reported).
+ * @example findHeaderRow([["Run 7"], [], ["die_diameter [mm]", "pressure [bar]"]]) // 2
+ */
+export function findHeaderRow(rows: readonly (readonly unknown[])[]): number {
+  const n = Math.min(rows.length, HEADER_SEARCH_ROWS);
+  for (let r = 0; r < n; r++) {
+    let known = 0;
+    for (const cell of rows[r] ?? []) {
+      if (typeof cell !== "string" || cell.length > 200) continue;
+      if (knownColumnName(cell) && ++known >= 2) return r;
+    }
+  }
+  return -1;
+}
+
+/** True when a header cell names a known quantity (its unit not checked). */
+export function knownColumnName(header: string): boolean {
+  const match = /^\s*([^[(]+?)\s*(?:[[(].*)?$/.exec(header);
+  return match !== null && normaliseColumnName(match[1] as string) in COLUMN_QUANTITIES;
+}

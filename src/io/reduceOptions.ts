@@ -52,6 +52,7 @@ const RABINOWITSCH_METHODS: readonly RabinowitschMethod[] = ["transition", "loca
 export const REDUCE_SETTINGS: readonly ReduceSettingSpec[] = Object.freeze<ReduceSettingSpec[]>([
   { key: "barrelDiameter", flag: "barrel-diameter", kind: { type: "quantity", quantity: "length", positive: true }, unit: "mm", section: "input" },
   { key: "density", flag: "density", kind: { type: "quantity", quantity: "density", positive: true }, unit: "g/cm³", section: "input" },
+  { key: "temperatureTolerance", flag: "temperature-tolerance", kind: { type: "quantity", quantity: "temperatureDifference", positive: false }, unit: "K", section: "input" },
   { key: "endCorrection", flag: "end-correction", kind: { type: "choice", choices: ["bagley", "orifice", "none"] }, section: "reduction" },
   { key: "orifice", flag: "orifice", kind: { type: "switch" }, section: "reduction" },
   { key: "orificeMaxLengthOverDiameter", flag: "orifice-max-ld", kind: { type: "number", positive: true }, section: "reduction" },
@@ -356,6 +357,11 @@ function buildRequest(
   if (barrel !== undefined) input.barrelDiameter = barrel;
   const density = get<number>("density");
   if (density !== undefined) input.density = density;
+  const tolerance = get<number>("temperatureTolerance");
+  if (tolerance !== undefined) {
+    if (!(tolerance >= 0)) fail(new RheoError("domain", nameOfKey("temperatureTolerance"), `must not be negative, got ${tolerance} K`));
+    else o.temperatureTolerance = tolerance;
+  }
   for (const [key, option] of [["slip", "slip"], ["representativeRate", "representativeRate"], ["extensional", "extensional"], ["pressureDependence", "pressureDependence"]] as const) {
     if (get<boolean>(key)) o[option] = true;
   }

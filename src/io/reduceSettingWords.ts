@@ -10,6 +10,7 @@ import { DEFAULT_UNCERTAINTY_OPTIONS } from "../core/uncertainty";
 import { MODEL_IDS } from "../core/models";
 import { DEFAULT_FLOW_CURVE_MODELS } from "../core/flowCurveFits";
 import { REDUCE_SETTINGS } from "./reduceOptions";
+import { DEFAULT_REDUCE_OPTIONS } from "../core/reduceTypes";
 
 /** Label, help and per-choice help of one setting. */
 export interface ReduceSettingWords {
@@ -29,6 +30,10 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
   density: {
     label: "Melt density",
     help: 'melt density when the data have no density column, e.g. "0.76 g/cm3" (mass rate → flow rate; MFR)',
+  },
+  temperatureTolerance: {
+    label: "Temperature tolerance",
+    help: `temperature readings closer than this form one set-point, reported at their mean with their spread, e.g. "2 K" (default ${DEFAULT_REDUCE_OPTIONS.temperatureTolerance} K)`,
   },
   endCorrection: {
     label: "End correction",

@@ -15,6 +15,13 @@ export interface WarningText {
 export const WARNING_CATALOG: Readonly<Record<WarningCode, WarningText>> = Object.freeze({
   COLUMN_IGNORED: { title: "Column not used", description: "A column whose header is not a known quantity was left out of the calculation." },
   ROW_SKIPPED_BLANK: { title: "Blank row skipped", description: "A data row with blank cells in required columns was skipped; the row number is given." },
+  ROWS_BLANK: { title: "Blank rows skipped", description: "Rows (lines) below the header with no value in any column used were skipped; they are listed and counted." },
+  PREAMBLE_SKIPPED: { title: "Title rows skipped", description: "Rows above the header row (a title, notes) were skipped; the header is the first row naming two known quantities." },
+  ROWS_COMMENT: { title: "Comment lines skipped", description: "Lines starting with # below the header were skipped as comments; they are listed and counted." },
+  INPUT_ENCODING: { title: "File read in a legacy encoding", description: "The file is not UTF-8 and was read in the encoding named (Windows-1252 or UTF-16); check that units and labels read right." },
+  IMPLAUSIBLE_VALUE: { title: "Value outside the usual range", description: "A value lies outside the usual range of its quantity in capillary rheometry (docs/input.md): often a unit slip, and the unit that would fit is suggested." },
+  TEMPERATURE_SPREAD: { title: "Temperature readings spread", description: "The readings of one temperature set-point spread more than the tolerance; they were kept together at their mean, and the die whose series drifted is named." },
+  TEMPERATURE_GROUPS_CLOSE: { title: "Set-points close together", description: "Two temperature groups lie closer than set-points usually do; if they are one set-point, give a larger temperature tolerance." },
   TEMPERATURE_IGNORED: { title: "Temperature not used by the model", description: "An isothermal model was fitted; the temperature column played no part in it." },
   BAGLEY_FEW_DIES: { title: "Few dies for the Bagley correction", description: "Fewer than three die lengths: a straight Bagley line cannot be checked for curvature." },
   BAGLEY_LOW_R2: { title: "Bagley lines not straight", description: "R² of a Bagley line below the limit: check the data, or pressure dependence of viscosity." },

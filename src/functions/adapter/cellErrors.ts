@@ -78,13 +78,16 @@ export function isCellError(value: unknown): value is CellErrorValue {
  */
 export function guard(what: string, body: () => unknown[][]): unknown[][] {
   try {
-    return body().map((row) =>
-      row.map((cell) =>
-        typeof cell === "number" && !Number.isFinite(cell)
-          ? cellError("#NUM!", `${what}: the result is not a finite number (${String(cell)})`)
-          : cell,
-      ),
-    );
+    // the body's grid is its own: non-finite numbers are replaced in place (no copy per call)
+    const grid = body();
+    for (let r = 0; r < grid.length; r++) {
+      const row = grid[r] as unknown[];
+      for (let c = 0; c < row.length; c++) {
+        const cell = row[c];
+        if (typeof cell === "number" && !Number.isFinite(cell)) row[c] = cellError("#NUM!", `${what}: the result is not a finite number (${String(cell)})`);
+      }
+    }
+    return grid;
   } catch (thrown) {
     return [[toCellError(thrown)]];
   }

@@ -49,7 +49,7 @@ export function mapRows(
   args: DataArg[],
   compute: (...values: number[]) => number,
   output?: { quantity: Quantity; unit: string },
-  rename: Record<string, string> = {},
+  rename: Readonly<Record<string, string>> = NO_RENAME,
 ): unknown[][] {
   const single = singleCellResult(args, compute, output);
   if (single !== undefined) return single;
@@ -68,6 +68,8 @@ export function mapRows(
   return spill(rows, output ? values.map(unitScale(output.quantity, output.unit, "unit").fromSI) : values);
 }
 
+const NO_RENAME: Readonly<Record<string, string>> = Object.freeze({});
+
 /** The number in a 1×1 range, or undefined for anything else (blank, text, a longer range...). */
 function singleNumber(range: unknown): number | undefined {
   if (!Array.isArray(range) || range.length !== 1) return undefined;
@@ -82,12 +84,39 @@ function singleNumber(range: unknown): number | undefined {
  * single cell holding a finite number (Excel batches thousands of these). Gives exactly what the
  * general path gives ([[value]]); returns undefined, to take the general path, for any other
  * input or when `compute` throws (the general path then builds the positioned error message).
+ * Up to four arguments are passed without building an array (no allocation but the result).
  */
 function singleCellResult(
   args: DataArg[],
   compute: (...values: number[]) => number,
   output?: { quantity: Quantity; unit: string },
 ): unknown[][] | undefined {
+  const n = args.length;
+  if (n > 4) return singleCellResultMany(args, compute, output);
+  let v0 = 0;
+  let v1 = 0;
+  let v2 = 0;
+  let v3 = 0;
+  for (let i = 0; i < n; i++) {
+    const a = args[i] as DataArg;
+    const v = singleNumber(a.range);
+    if (v === undefined) return undefined;
+    const x = a.quantity !== undefined && a.unit !== undefined ? unitScale(a.quantity, a.unit, a.argument).toSI(v) : v;
+    if (i === 0) v0 = x;
+    else if (i === 1) v1 = x;
+    else if (i === 2) v2 = x;
+    else v3 = x;
+  }
+  let result: number;
+  try {
+    result = n === 1 ? compute(v0) : n === 2 ? compute(v0, v1) : n === 3 ? compute(v0, v1, v2) : compute(v0, v1, v2, v3);
+  } catch {
+    return undefined;
+  }
+  return [[output ? unitScale(output.quantity, output.unit, "unit").fromSI(result) : result]];
+}
+
+function singleCellResultMany(args: DataArg[], compute: (...values: number[]) => number, output?: { quantity: Quantity; unit: string }): unknown[][] | undefined {
   const values: number[] = [];
   for (const a of args) {
     const v = singleNumber(a.range);

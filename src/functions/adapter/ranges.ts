@@ -8,10 +8,13 @@
  * - paired ranges have equal lengths, else a #VALUE! naming both;
  * - blank cells (null, undefined, "" or only spaces) mark a row to skip; a row is skipped when
  *   any paired cell of it is blank, and column results keep that row empty so they stay aligned;
- * - numbers stored as text ("12.5", " 1e3 ") are read as numbers; other text, logical values and
- *   error values are refused with a #VALUE! naming the argument and the row.
+ * - numbers stored as text ("12.5", " 1e3 ", "1,5", "1.234,5") are read as numbers by the one
+ *   number reader (src/io/numberText.ts); a text with two readings ("1,000": 1 or 1000?), other
+ *   text, logical values and error values are refused with a #VALUE! naming the argument and the row.
  */
 import { RheoError } from "../../core/errors";
+import { ambiguityText, readAlone } from "../../io/numberText";
+import { excerpt } from "../../io/safeText";
 
 /** How a range runs: down a column, across a row, or a single cell. */
 export type Orientation = "column" | "row" | "single";
@@ -22,9 +25,6 @@ export interface Vector {
   orientation: Orientation;
   values: (number | null)[];
 }
-
-/** Matches the decimal notations Excel and JavaScript share: 12, -1.5, .5, 3e-4. */
-const NUMBER_TEXT = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
 /** "row 4" down a column, "column 4" across a row: where the user finds the cell in the range. */
 export function position(orientation: Orientation, index: number): string {
@@ -53,8 +53,10 @@ export function readNumber(cell: unknown, argument: string, where: string): numb
   }
   if (typeof cell === "string") {
     const text = cell.trim();
-    if (NUMBER_TEXT.test(text)) return Number(text);
-    throw new RheoError("value", argument, `${where} is text "${cell}"`);
+    const r = readAlone(text);
+    if (typeof r === "number") return r;
+    if (r !== null) throw new RheoError("value", argument, `${where} ${ambiguityText(text, r.point, r.comma)}; write it without a thousands separator`, undefined, "AMBIGUOUS_NUMBER");
+    throw new RheoError("value", argument, `${where} is text "${excerpt(cell)}"`);
   }
   if (typeof cell === "boolean") {
     throw new RheoError("value", argument, `${where} is the logical value ${cell ? "TRUE" : "FALSE"}, not a number`);

@@ -15,15 +15,39 @@ export interface UnitScale {
   fromSI(value: number): number;
 }
 
-/** Entries kept before a cache is emptied (unit texts are few; this only bounds memory). */
+/** Entries kept per quantity before its cache is emptied (unit texts are few; this only bounds memory). */
 const MAX_ENTRIES = 256;
-const scales = new Map<string, UnitScale>();
-const known = new Map<string, boolean>();
+/** Per quantity, per unit text: no key strings built per call (a per-row formula calls this for every cell). */
+const scales = new Map<Quantity, Map<string, UnitScale>>();
+const known = new Map<Quantity, Map<string, boolean>>();
+/**
+ * The last few (quantity, unit) pairs asked for, scanned by identity before any keyed lookup: a
+ * per-row formula asks for the same three or four pairs for every cell, and a short scan of string
+ * comparisons costs a fraction of a Map or property lookup keyed by a varying string.
+ */
+const RECENT = 8;
+const recentQuantity: (Quantity | undefined)[] = new Array(RECENT).fill(undefined);
+const recentUnit: (string | undefined)[] = new Array(RECENT).fill(undefined);
+const recentScale: (UnitScale | undefined)[] = new Array(RECENT).fill(undefined);
+let recentNext = 0;
 
-function remember<T>(cache: Map<string, T>, key: string, value: T): T {
-  if (cache.size >= MAX_ENTRIES) cache.clear();
-  cache.set(key, value);
-  return value;
+function remember(quantity: Quantity, unit: string, scale: UnitScale): void {
+  recentQuantity[recentNext] = quantity;
+  recentUnit[recentNext] = unit;
+  recentScale[recentNext] = scale;
+  recentNext = (recentNext + 1) % RECENT;
+}
+
+function recent(quantity: Quantity, unit: string): UnitScale | undefined {
+  for (let i = 0; i < RECENT; i++) if (recentUnit[i] === unit && recentQuantity[i] === quantity) return recentScale[i];
+  return undefined;
+}
+
+function cacheOf<T>(caches: Map<Quantity, Map<string, T>>, quantity: Quantity): Map<string, T> {
+  let cache = caches.get(quantity);
+  if (!cache) caches.set(quantity, (cache = new Map()));
+  else if (cache.size >= MAX_ENTRIES) cache.clear();
+  return cache;
 }
 
 /**
@@ -31,20 +55,29 @@ function remember<T>(cache: Map<string, T>, key: string, value: T): T {
  * @throws RheoError("value") naming `argument` for an unknown unit, as toSI does (not cached).
  */
 export function unitScale(quantity: Quantity, unit: string, argument: string): UnitScale {
-  const key = `${quantity}\u0000${unit}`;
-  const cached = scales.get(key);
-  if (cached) return cached;
+  const seen = recent(quantity, unit);
+  if (seen !== undefined) return seen;
+  const cached = scales.get(quantity)?.get(unit);
+  if (cached !== undefined) {
+    remember(quantity, unit, cached);
+    return cached;
+  }
   const factor = toSI(1, unit, quantity, argument);
   const scale: UnitScale =
     toSI(0, unit, quantity, argument) === 0
       ? { toSI: (v) => v * factor + 0, fromSI: (v) => v / factor }
       : { toSI: (v) => toSI(v, unit, quantity, argument), fromSI: (v) => fromSI(v, unit, quantity, argument) };
-  return remember(scales, key, scale);
+  cacheOf(scales, quantity).set(unit, scale);
+  remember(quantity, unit, scale);
+  return scale;
 }
 
 /** isUnitOf(quantity, unit), remembered. */
 export function isKnownUnit(quantity: Quantity, unit: string): boolean {
-  const key = `${quantity}\u0000${unit}`;
-  const cached = known.get(key);
-  return cached !== undefined ? cached : remember(known, key, isUnitOf(quantity, unit));
+  if (recent(quantity, unit) !== undefined) return true;
+  const cached = known.get(quantity)?.get(unit);
+  if (cached !== undefined) return cached;
+  const answer = isUnitOf(quantity, unit);
+  cacheOf(known, quantity).set(unit, answer);
+  return answer;
 }

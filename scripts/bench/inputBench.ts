@@ -1,0 +1,203 @@
+/**
+ * The input side of `npm run bench` (scripts/bench.ts calls {@link inputBench}):
+ *
+ *   5. CLI cold start: `node bin/rheoledger.js reduce TINY.csv` against a bare `node -e 0`, the
+ *      two interleaved in one run (wall time, medians); goal ≤ 1.5×.
+ *   6. A 40,000-row file (4 dies × 10,000 piston speeds) reduced by the CLI against the in-process
+ *      core time of the same reduction (reduce() on the measurements); goal ≤ 2×.
+ *   7. RHEO.WALLSTRESSAPP filled down 10,000 rows (per-row calls, 1×1 ranges as Excel passes them)
+ *      against a plain loop over the same arithmetic (unit factors and the core function);
+ *      CPU time of this process, so that other processes on a shared machine count less; goal ≤ 10×.
+ *   8. A large CSV (200 MB by default, `--big` for 1 GB; far more rows than the limit) through the
+ *      CLI: the time to its message and the process's peak memory (info: no goal but "a message,
+ *      never a crash").
+ *
+ * Files are generated under .cache/ (invented data from a power law with a fixed seed) and left
+ * there for a rerun; the large file only with --big-file or --big.
+ */
+import { spawnSync } from "node:child_process";
+import { existsSync, mkdirSync, openSync, closeSync, statSync, writeSync } from "node:fs";
+import path from "node:path";
+import { performance } from "node:perf_hooks";
+import { type Measurement, reduce } from "../../src/core/reduce";
+import { apparentWallShearStress } from "../../src/core/capillary";
+import { unitFactors } from "../../src/core/units";
+import { seededRandom } from "../../src/core/random";
+import { wallStressApp } from "../../src/functions/functions";
+
+export const INPUT_TARGETS = Object.freeze({ coldStartRatio: 1.5, cli40kOverCore: 2, perRowOverPlain: 10 });
+
+export interface BenchLine {
+  what: string;
+  measured: string;
+  target: string;
+  verdict: "PASS" | "MISS" | "";
+}
+
+const ROOT = process.cwd();
+const CACHE = path.join(ROOT, ".cache");
+const BIN = path.join(ROOT, "bin", "rheoledger.js");
+
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? (s[m] as number) : ((s[m - 1] as number) + (s[m] as number)) / 2;
+};
+const msText = (v: number) => (v < 1 ? `${(v * 1000).toFixed(0)} µs` : `${v.toFixed(v < 10 ? 2 : 1)} ms`);
+const wall = (args: string[]): number => {
+  const t0 = performance.now();
+  const r = spawnSync(process.execPath, args, { stdio: ["ignore", "ignore", "pipe"], maxBuffer: 1 << 30 });
+  const t = performance.now() - t0;
+  if (r.status !== 0) throw new Error(`bench: node ${args.join(" ")} failed: ${String(r.stderr).slice(0, 300)}`);
+  return t;
+};
+
+/** A power-law melt on 1 mm dies, 15 mm barrel (invented): rows of D, L [mm], speed [mm/min], pressure [bar]. */
+function runRows(dies: number[], speeds: number[]): string[] {
+  const random = seededRandom(4040);
+  const rows: string[] = [];
+  for (const L of dies) {
+    for (const v of speeds) {
+      const q = ((v * 1e-3) / 60) * ((Math.PI * 0.015 ** 2) / 4);
+      const rate = (32 * q) / (Math.PI * 1e-9);
+      const tau = 8000 * (rate * 1.375) ** 0.4;
+      const p = (2 * tau * ((2 * L) / 1 + 3) * (1 + 0.002 * (random() - 0.5))) / 1e5;
+      rows.push(`1,${L},${Number(v.toPrecision(8))},${Number(p.toPrecision(7))}`);
+    }
+  }
+  return rows;
+}
+
+const HEADER = "die_diameter [mm],die_length [mm],barrel_diameter [mm],piston_speed [mm/min],pressure [bar]";
+const withBarrel = (row: string) => row.replace(/^([^,]*,[^,]*),/, "$1,15,");
+
+function writeFile(file: string, lines: string[]): void {
+  const fd = openSync(file, "w");
+  try {
+    writeSync(fd, HEADER + "\n");
+    for (let i = 0; i < lines.length; i += 10000) writeSync(fd, lines.slice(i, i + 10000).map(withBarrel).join("\n") + "\n");
+  } finally {
+    closeSync(fd);
+  }
+}
+
+function measurementsOf(lines: string[]): Measurement[] {
+  return lines.map((l) => {
+    const [D, L, v, p] = l.split(",").map(Number) as [number, number, number, number];
+    return { dieDiameter: D * 1e-3, dieLength: L * 1e-3, flowRate: ((v * 1e-3) / 60) * ((Math.PI * 0.015 ** 2) / 4), pressure: p * 1e5 };
+  });
+}
+
+/** CPU milliseconds of one call of `fn` (median of `repeats` samples after a warm-up). */
+function cpu(fn: () => number, repeats: number, warmup: number): number {
+  let sink = 0;
+  for (let i = 0; i < warmup; i++) sink += fn();
+  const samples: number[] = [];
+  for (let r = 0; r < repeats; r++) {
+    const t0 = process.cpuUsage();
+    sink += fn();
+    const d = process.cpuUsage(t0);
+    samples.push((d.user + d.system) / 1000);
+  }
+  if (sink === 42) process.stdout.write("");
+  return median(samples);
+}
+
+/** Runs the input benchmarks (see the module comment). */
+export function inputBench(options: { quick: boolean; bigFile: boolean; hugeFile: boolean }): { lines: BenchLine[]; notes: string[] } {
+  const lines: BenchLine[] = [];
+  const notes: string[] = [];
+  mkdirSync(CACHE, { recursive: true });
+  const reps = (n: number) => (options.quick ? Math.max(5, Math.round(n / 4)) : n);
+
+  // 5. cold start
+  const tiny = path.join(CACHE, "bench-tiny.csv");
+  writeFile(tiny, runRows([10, 20], [1, 10]));
+  wall([BIN, "--version"]); // builds dist/cli.cjs when stale, outside the timing
+  const bare: number[] = [];
+  const cli: number[] = [];
+  for (let i = 0; i < reps(21); i++) {
+    bare.push(wall(["-e", "0"]));
+    cli.push(wall([BIN, "reduce", tiny]));
+  }
+  const startRatio = median(cli) / median(bare);
+  lines.push({ what: "CLI cold start, tiny file ÷ bare node -e 0", measured: `${startRatio.toFixed(2)}× (${msText(median(cli))} vs ${msText(median(bare))})`, target: `≤ ${INPUT_TARGETS.coldStartRatio}×`, verdict: startRatio <= INPUT_TARGETS.coldStartRatio ? "PASS" : "MISS" });
+
+  // 6. 40,000 rows through the CLI and through the core
+  const speeds = Array.from({ length: 10000 }, (_, i) => 0.5 * Math.pow(400, i / 9999));
+  const big = runRows([5, 10, 20, 30], speeds);
+  const file40k = path.join(CACHE, "bench-40k.csv");
+  writeFile(file40k, big);
+  // the core time is the reduce() call inside each CLI run (RHEOLEDGER_TIMING), so both sides run
+  // as cold as a command line does; a warm in-process reduce() is shown beside it
+  const measurements = measurementsOf(big);
+  const warm: number[] = [];
+  reduce(measurements);
+  for (let i = 0; i < reps(7); i++) {
+    const t0 = performance.now();
+    reduce(measurements);
+    warm.push(performance.now() - t0);
+  }
+  const cliTimes: number[] = [];
+  const coreTimes: number[] = [];
+  const readTimes: number[] = [];
+  for (let i = 0; i < reps(7); i++) {
+    const t0 = performance.now();
+    const r = spawnSync(process.execPath, [BIN, "reduce", file40k, "--json"], { encoding: "utf8", maxBuffer: 1 << 30, env: { ...process.env, RHEOLEDGER_TIMING: "1" } });
+    cliTimes.push(performance.now() - t0);
+    if (r.status !== 0) throw new Error(`bench: the CLI failed on the 40,000-row file: ${r.stderr.slice(0, 300)}`);
+    coreTimes.push(Number(/timing reduce ([\d.]+)/.exec(r.stderr)?.[1]));
+    readTimes.push(Number(/timing read ([\d.]+)/.exec(r.stderr)?.[1]));
+  }
+  const ratio40k = median(cliTimes) / median(coreTimes);
+  lines.push({ what: "CLI reduce, 40,000-row file ÷ its reduce() call", measured: `${ratio40k.toFixed(2)}× (${msText(median(cliTimes))} vs ${msText(median(coreTimes))})`, target: `≤ ${INPUT_TARGETS.cli40kOverCore}×`, verdict: ratio40k <= INPUT_TARGETS.cli40kOverCore ? "PASS" : "MISS" });
+  notes.push(
+    `40,000-row file (${(statSync(file40k).size / 1e6).toFixed(1)} MB, 4 dies × 10,000 piston speeds): the CLI run ${msText(median(cliTimes))} = reading the file ${msText(median(readTimes))}, ` +
+      `the core's reduce() ${msText(median(coreTimes))} (cold, as in every CLI run; warm in-process ${msText(median(warm))}), the rest starting Node and printing the JSON document.`,
+  );
+
+  // 7. per-row worksheet function against a plain loop
+  const random = seededRandom(10000);
+  const pressures = Array.from({ length: 10000 }, () => 20 + 400 * random());
+  const bar = unitFactors("pressure", "bar").factor;
+  const mm = unitFactors("length", "mm").factor;
+  const perRow = () => {
+    let t = 0;
+    for (let i = 0; i < pressures.length; i++) t += (wallStressApp([[pressures[i]]], [[1]], [[20]])[0] as unknown[])[0] as number;
+    return t;
+  };
+  const plain = () => {
+    let t = 0;
+    for (let i = 0; i < pressures.length; i++) t += apparentWallShearStress((pressures[i] as number) * bar, 1 * mm, 20 * mm);
+    return t;
+  };
+  const rowCpu = cpu(perRow, reps(21), 30);
+  const plainCpu = cpu(plain, reps(21), 300);
+  const rowRatio = rowCpu / plainCpu;
+  lines.push({ what: "RHEO.WALLSTRESSAPP per-row ÷ plain loop (CPU)", measured: `${rowRatio.toFixed(0)}× (${msText(rowCpu)} vs ${msText(plainCpu)} per 10,000 rows)`, target: `≤ ${INPUT_TARGETS.perRowOverPlain}×`, verdict: rowRatio <= INPUT_TARGETS.perRowOverPlain ? "PASS" : "MISS" });
+
+  // 8. a large file ends in a message
+  if (options.bigFile || options.hugeFile) {
+    const bytes = options.hugeFile ? 1e9 : 2e8;
+    const file = path.join(CACHE, `bench-${options.hugeFile ? "1GB" : "200MB"}.csv`);
+    if (!existsSync(file) || statSync(file).size < bytes) {
+      const block = runRows([10, 20, 30], speeds).map(withBarrel).join("\n") + "\n";
+      const fd = openSync(file, "w");
+      try {
+        writeSync(fd, HEADER + "\n");
+        for (let written = 0; written < bytes; written += block.length) writeSync(fd, block);
+      } finally {
+        closeSync(fd);
+      }
+    }
+    const probe = "process.on('exit',()=>process.stderr.write('\\nmaxRSS '+process.resourceUsage().maxRSS+'\\n'));";
+    const t0 = performance.now();
+    const r = spawnSync(process.execPath, ["-e", `${probe}require(${JSON.stringify(BIN)})`, BIN, "reduce", file], { encoding: "utf8", maxBuffer: 1 << 26 });
+    const seconds = (performance.now() - t0) / 1000;
+    const rss = Number(/maxRSS (\d+)/.exec(r.stderr)?.[1] ?? NaN) / 1024;
+    const message = r.stderr.split("\n").find((l) => l.startsWith("rheoledger:")) ?? "(no message)";
+    lines.push({ what: `CLI on a ${(statSync(file).size / 1e6).toFixed(0)} MB CSV (info)`, measured: `${seconds.toFixed(1)} s, ${rss.toFixed(0)} MB peak`, target: "a message, exit 1", verdict: r.status === 1 && /more than .* data lines/.test(message) ? "PASS" : "MISS" });
+    notes.push(`large file: exit ${r.status}, "${message.slice(0, 160)}"`);
+  }
+  return { lines, notes };
+}
