@@ -74,6 +74,7 @@ describe("rheoledger reduce: input formats", () => {
     const evil = new TextEncoder().encode("die_diameter [mm],die_length [mm],\u001b]0;owned\u0007\u001b[2Jflow [x],pressure [bar]\n1,10,1,100\n");
     const r = await run(["reduce", "evil.csv"], { "evil.csv": evil });
     expect(r.code).toBe(1);
+    // eslint-disable-next-line no-control-regex
     expect(r.stderr + r.stdout).not.toMatch(/[\u0000-\u0009\u000b-\u001f\u007f-\u009f]/);
   });
 });

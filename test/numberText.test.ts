@@ -130,6 +130,7 @@ describe("TableNumberReader", () => {
     const r = new TableNumberReader({ describe: place });
     const e = thrown(() => r.read("\u001b[2J" + "x".repeat(5000), 3, 9, 0));
     expect(e.code).toBe("NOT_A_NUMBER");
+    // eslint-disable-next-line no-control-regex
     expect(e.message).not.toMatch(/\u001b/);
     expect(e.message.length).toBeLessThan(120);
   });

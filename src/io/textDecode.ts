@@ -98,7 +98,11 @@ export function sniffFile(head: Uint8Array): FileKind | { kind: "zip" } {
     // UTF-16 without a byte-order mark: every other byte zero in ASCII text
     let evenZeros = 0;
     let oddZeros = 0;
-    for (let i = 0; i < sample.length; i++) if (sample[i] === 0) (i % 2 === 0 ? evenZeros++ : oddZeros++);
+    for (let i = 0; i < sample.length; i++) {
+      if (sample[i] !== 0) continue;
+      if (i % 2 === 0) evenZeros++;
+      else oddZeros++;
+    }
     const half = sample.length / 2;
     if (oddZeros > 0.4 * half && evenZeros < 0.05 * half) return { kind: "text", encoding: "utf-16le", bomLength: 0 };
     if (evenZeros > 0.4 * half && oddZeros < 0.05 * half) return { kind: "text", encoding: "utf-16be", bomLength: 0 };
