@@ -26,6 +26,9 @@
  *   4. Minified sizes of dist/functions.js and dist/taskpane.js from a production build (run
  *      first when dist/ is missing or older than the sources). 1 KB = 1024 bytes, as the
  *      webpack budget in webpack.config.js counts.
+ *   5. Accuracy, not speed: the worst-point wall-rate error of every Rabinowitsch smoother on
+ *      exact data and under 1 % pressure noise (scripts/benchSmoothers.ts; 200 draws, 50 with
+ *      --quick), against the goals of issue 12.
  */
 import { spawnSync } from "node:child_process";
 import { existsSync, readFileSync, readdirSync, statSync, writeFileSync } from "node:fs";
@@ -40,6 +43,7 @@ import { type Measurement, reduce } from "../src/core/reduce";
 import { wallRateFromApparentRate } from "../src/core/forwardFlow";
 import { wallStressApp } from "../src/functions/functions";
 import { inputBench } from "./bench/inputBench";
+import { smootherBenchmark, smootherTables } from "./benchSmoothers";
 
 /** The issue's targets. */
 export const BENCH_TARGETS = Object.freeze({
@@ -360,11 +364,16 @@ function main(): void {
   }
   notes.push(`bundles: ${note}.`);
 
+  // 5. smoother accuracy (a second table)
+  const draws = QUICK ? 50 : 200;
+  const smoothers = smootherTables(smootherBenchmark(draws), draws);
+
   const date = new Date().toISOString().slice(0, 10);
   const where = machine();
   console.log(`Rheoledger bench, ${date}: ${where}${QUICK ? " (--quick)" : ""}\n`);
   console.log(plainTable(lines));
   console.log("\n" + notes.map((n) => `- ${n}`).join("\n"));
+  console.log(`\n${smoothers.note}\n\n${smoothers.plain}`);
   if (sink === 42) console.log(""); // use the sink
 
   if (flags.has("--write-docs")) {
@@ -378,6 +387,10 @@ function main(): void {
       markdownTable(lines),
       "",
       ...notes.map((n) => `- ${n}`),
+      "",
+      smoothers.note,
+      "",
+      smoothers.markdown,
       "",
     ].join("\n");
     writeReadme(block);

@@ -2,6 +2,8 @@ import { DEFAULT_RABINOWITSCH_OPTIONS, rabinowitschCorrection, rabinowitschFacto
 import { apparentRateFromWallRate } from "../src/core/forwardFlow";
 import { gaussian, seededRandom } from "../src/core/random";
 import { expectClose } from "./helpers/expectClose";
+import { reduce, type FlowCurveRow } from "../src/core/reduce";
+import { BENCH_MELTS, capillaryRun, logRates, trueCurve, worstWallRateError } from "./helpers/capillaryRun";
 
 /** Carreau viscosity η0[1 + (λγ̇)²]^((n−1)/2) (Carreau 1972, Trans. Soc. Rheol. 16, 99). */
 const carreau = (eta0: number, lambda: number, n: number) => (g: number) => eta0 * Math.pow(1 + (lambda * g) ** 2, (n - 1) / 2);
@@ -45,14 +47,17 @@ describe("exact references for every method", () => {
   ];
   const rates = [3, 10, 30, 100, 300, 1000, 3000, 10000];
   for (const m of methods) {
+    // The transition curve meets a power law only in its limit (knee far outside the range): its
+    // solver stops at a relative cost change of 1e-10, about 1e-5 in the slope.
+    const tol = m.method === "transition" ? 1e-4 : 1e-9;
     test(`${JSON.stringify(m)}: Newtonian gives γ̇_w = γ̇_a (Hagen–Poiseuille)`, () => {
       const r = rabinowitschCorrection(rates, rates.map((g) => 1000 * g), m);
-      r.nPrime.forEach((n) => expectClose(n, 1, { rel: 1e-9 }));
-      r.shearRateWall.forEach((g, i) => expectClose(g as number, rates[i] as number, { rel: 1e-9 }));
+      r.nPrime.forEach((n) => expectClose(n, 1, { rel: tol }));
+      r.shearRateWall.forEach((g, i) => expectClose(g as number, rates[i] as number, { rel: tol }));
     });
     test(`${JSON.stringify(m)}: power law n = 0.4 gives the factor (3n+1)/(4n) = 1.375 (Macosko 1994, ch. 6, from memory)`, () => {
       const r = rabinowitschCorrection(rates, rates.map((g) => 2e4 * g ** 0.4), m);
-      r.shearRateWall.forEach((g, i) => expectClose(g as number, (rates[i] as number) * 1.375, { rel: 1e-9 }));
+      r.shearRateWall.forEach((g, i) => expectClose(g as number, (rates[i] as number) * 1.375, { rel: tol }));
     });
   }
 });
@@ -60,9 +65,9 @@ describe("exact references for every method", () => {
 describe("shear-thinning melt over 2.5 decades (measured choice of the default method)", () => {
   const { wall, apparent, stress } = exactFlowCurve();
 
-  test("the default (transition) is within 1 % of the true wall rate on exact data", () => {
+  test("the default (transition) is within 0.3 % of the true wall rate on exact data", () => {
     expect(DEFAULT_RABINOWITSCH_OPTIONS.method).toBe("transition");
-    expect(worstError(wall, rabinowitschCorrection(apparent, stress).shearRateWall)).toBeLessThan(0.01);
+    expect(worstError(wall, rabinowitschCorrection(apparent, stress).shearRateWall)).toBeLessThan(0.003);
   });
 
   test("a global quadratic loses more than 2 % at the ends of the same range (why it is not the default)", () => {
@@ -98,6 +103,42 @@ describe("shear-thinning melt over 2.5 decades (measured choice of the default m
     expect(worstError(w, rabinowitschCorrection(a, tau).shearRateWall)).toBeLessThan(0.05);
     expect(worstError(w, rabinowitschCorrection(a, tau, { method: "local" }).shearRateWall)).toBeGreaterThan(0.2);
   });
+});
+
+/**
+ * The benchmark of issue 12 (full figures: `npm run bench`): 4 dies × 10 rates over 20–5000 1/s
+ * through the whole reduction (Bagley, then Rabinowitsch), pressures exact or with 1 % relative
+ * noise; the error is the worst point's |γ̇_w/γ̇_w,true − 1| (true wall rates from the exact flow
+ * integral, helpers/capillaryRun.ts). Here 25 fixed seeds instead of the bench's 200 draws.
+ */
+describe("benchmark melts: worst-point wall-rate error of every method", () => {
+  const methods: Record<string, Partial<RabinowitschOptions>> = {
+    default: {},
+    "global cubic": { method: "global", degree: 3 },
+    "global quadratic": { method: "global", degree: 2 },
+    "local quadratic": { method: "local" },
+    difference: { method: "difference" },
+  };
+  for (const [melt, eta] of Object.entries(BENCH_MELTS)) {
+    const curve = trueCurve(eta, logRates(20, 5000, 10));
+    const worst = (o: Partial<RabinowitschOptions>, noise: number, seed: number) =>
+      worstWallRateError(curve, (reduce(capillaryRun(curve, { noise, seed }), { rabinowitsch: o }).groups[0] as { flowCurve: FlowCurveRow[] }).flowCurve);
+    const medians = Object.fromEntries(
+      Object.entries(methods).map(([name, o]) => {
+        const errors = Array.from({ length: 25 }, (_, k) => worst(o, 0.01, k + 1)).sort((a, b) => a - b);
+        return [name, errors[12] as number];
+      }),
+    );
+    test(`${melt}: exact data, the default within 0.3 % (measured ${melt === "Cross" ? "0.026" : "0.014"} %)`, () => {
+      expect(worst({}, 0, 1)).toBeLessThan(0.003);
+    });
+    test(`${melt}: 1 % noise, seeds 1–25: the default's median worst point within 2.5 % and below every alternative's`, () => {
+      // measured: Carreau–Yasuda 1.68 % (cubic 2.81, local 2.71, difference 4.06, quadratic 7.42);
+      // Cross 1.19 % (cubic 2.44, local 2.12, difference 3.41, quadratic 13.6)
+      expect(medians.default).toBeLessThan(0.025);
+      for (const [name, m] of Object.entries(medians)) if (name !== "default") expect(medians.default as number).toBeLessThan(m as number);
+    });
+  }
 });
 
 describe("warnings", () => {

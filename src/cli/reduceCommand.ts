@@ -6,7 +6,7 @@
 import { RheoError, Warning } from "../core/errors";
 import { groupLabel, type ReductionGroup, type ReductionResult, type ReduceOptions } from "../core/reduce";
 import { runReduction, type ReductionRun } from "../core/run";
-import { rowAccountText } from "../core/rowAccount";
+import { rowAccountText, withReduction } from "../core/rowAccount";
 import type { ReduceInput } from "./reduceInput";
 import { CLI_SETTINGS_SOURCE, readReduceSettings, reduceSetting, reduceSettingOfFlag, type ReduceRequest } from "../io/reduceOptions";
 import { reduceSettingFlags } from "../io/reduceSettingWords";
@@ -72,12 +72,13 @@ export function asFlagError(e: unknown): unknown {
 export function reductionJson(result: ReductionResult, warnings: Warning[], input?: ReduceInput) {
   return {
     units: { pressure: "Pa", length: "m", time: "s", temperature: "K", viscosity: "Pa.s", shearRate: "1/s" },
-    ...(input ? { input: { ...input.format, decimalMark: input.decimalMark }, rows: input.rows } : {}),
+    ...(input ? { input: { ...input.format, decimalMark: input.decimalMark } } : {}),
+    rows: input ? withReduction(input.rows, result.rows) : result.rows,
     groups: result.groups.map((g) => ({
       temperature: g.temperature,
       ...(g.temperatureSpread !== undefined ? { temperatureSpread: g.temperatureSpread, temperatureReadings: g.temperatureReadings } : {}),
       dieDiameter: g.dieDiameter,
-      dies: g.dies.map((d) => ({ dieLength: d.dieLength, lengthOverRadius: d.lengthOverRadius, points: d.points })),
+      dies: g.dies.map((d) => ({ dieLength: d.dieLength, lengthOverRadius: d.lengthOverRadius, points: d.points, steps: d.steps })),
       bagley: g.bagley.map((b) => ({
         shearRateApparent: b.shearRateApparent,
         wallShearStress: b.wallShearStress,
@@ -85,6 +86,8 @@ export function reductionJson(result: ReductionResult, warnings: Warning[], inpu
         endCorrection: b.endCorrection,
         r2: b.r2,
         diesUsed: b.diesUsed,
+        interpolated: b.points.filter((p) => p.interpolated).length,
+        curvature: b.curvature,
       })),
       flowCurve: g.flowCurve.map((f, i) => ({
         shearRateApparent: f.shearRateApparent,
@@ -96,6 +99,10 @@ export function reductionJson(result: ReductionResult, warnings: Warning[], inpu
         ...flowCurveExtrasJson(g, i),
       })),
       ...groupExtrasJson(g),
+      smoother: g.smoother,
+      stability: g.stability,
+      flagged: g.flagged,
+      rows: g.rows,
       warnings: g.warnings,
     })),
     ...topExtrasJson(result),
@@ -117,9 +124,13 @@ function temperatureNote(g: ReductionGroup): string {
   return ` (mean of ${r.count} readings, ${num(r.min - 273.15)}–${num(r.max - 273.15)} °C)`;
 }
 
-/** "Input: data.csv (UTF-8 text, comma-separated); 42 lines read: 42 used." */
-export function inputText(input: ReduceInput): string {
-  return `Input: ${input.description}; ${rowAccountText(input.rows, input.format.kind === "csv" ? "line" : "row")}`;
+/**
+ * "Input: data.csv (UTF-8 text, comma-separated); 42 lines read: 40 used, 2 merged as a repeated
+ * reading." The reader's account with the reduction's skips (when a result is given).
+ */
+export function inputText(input: ReduceInput, result?: ReductionResult): string {
+  const rows = result ? withReduction(input.rows, result.rows) : input.rows;
+  return `Input: ${input.description}; ${rowAccountText(rows, input.format.kind === "csv" ? "line" : "row")}`;
 }
 
 /**
@@ -129,7 +140,7 @@ export function inputText(input: ReduceInput): string {
 export function reductionText(run: ReductionRun, input?: ReduceInput): string {
   const tables = resultTables(run).filter((t) => t.id !== "groups" && t.id !== "warnings");
   const out: string[] = [];
-  if (input) out.push(inputText(input), "");
+  if (input) out.push(inputText(input, run.result), "");
   for (const g of run.result.groups) {
     out.push(groupHeading(g), "");
     for (const t of tables.filter((x) => x.scope === groupLabel(g))) out.push(resultTableText({ ...t, scope: undefined }), "");
@@ -164,7 +175,7 @@ export function runReduce(raw: ReduceInput, args: ParsedArgs, request: ReduceReq
   const stdout = args.flags.has("json")
     ? JSON.stringify(withFitJson(reductionJson(result, run.warnings, raw), run), null, 2) + "\n"
     : args.flags.has("summary")
-      ? reductionSummary(run, raw.rows) + shiftSummary(run)
+      ? reductionSummary(run, withReduction(raw.rows, result.rows)) + shiftSummary(run)
       : reductionText(run, raw) + warningsText(run.warnings);
   return { stdout, run, result, options: request.options, request, inputWarnings: raw.warnings, input: raw, coreMs };
 }

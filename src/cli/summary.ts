@@ -25,7 +25,7 @@ export function reductionSummary(run: ReductionRun, rows?: RowAccount): string {
       `${g.flowCurve.length} points`,
       `true wall rate ${span(rates)} 1/s`,
       `viscosity ${span(etas)} Pa.s`,
-      `n' ${span(g.flowCurve.map((f) => f.nPrime), 2)}`,
+      `n' ${span(g.flowCurve.map((f) => f.nPrime), 2)} (${g.smoother.curve})`,
     ];
     if (g.bagley.length > 0) parts.push(`Bagley e ${span(g.bagley.map((b) => b.endCorrection), 2)}`);
     // The lowest AIC whose parameters are all determined by the data; a lower-AIC model with a
@@ -44,7 +44,7 @@ export function reductionSummary(run: ReductionRun, rows?: RowAccount): string {
     }
     out.push(`  ${g.temperature === null ? "no temperature, " : ""}${groupLabel(g)}, ${g.dies.length} dies: ${parts.join("; ")}`);
   });
-  if (rows) out.push(`Input: ${rowAccountText(rows)}`);
+  out.push(`${rows ? "Input" : "Rows"}: ${rowAccountText(rows ?? result.rows)}`);
   const warnings = run.warnings;
   const codes = [...new Set(warnings.map((w) => w.code))];
   out.push(warnings.length === 0 ? "No warnings." : `${warnings.length} warning${warnings.length === 1 ? "" : "s"} (${codes.join(", ")}); the full list is in the Warnings sheet or without --summary.`);

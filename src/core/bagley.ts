@@ -4,12 +4,20 @@
  * At one apparent wall shear rate, dies of one diameter and several lengths give
  * ΔP = 2τ_w (L/R + e): a straight line in L/R whose slope is 2τ_w, whose intercept is the
  * entrance (plus exit) pressure ΔP_ent, and which crosses ΔP = 0 at L/R = −e, e = ΔP_ent/slope.
- * When the dies were not run at identical rates, each die's ln ΔP vs ln γ̇_a is interpolated to
- * common rates first (Macosko 1994, ch. 6, from memory; Dealy & Wang 2013, from memory).
+ * The lines are drawn at one ladder of rates per group (rateLadder.ts: the longest die's rates,
+ * extended by the shorter dies' beyond its range); a die not run at a ladder rate has its
+ * ln ΔP vs ln γ̇_a interpolated there (Macosko 1994, ch. 6, from memory; Dealy & Wang 2013,
+ * from memory), never
+ * extrapolated beyond its range. Repeated readings of a die are compared and merged first
+ * (speedSteps.ts). The lines are then checked for curvature and for an irregular e against the
+ * scatter of the readings (bagleyChecks.ts); R² is reported but no longer judged: a curved line
+ * can have R² above 0.99 and still bias τ_w by ten per cent.
  */
 import { RheoError, Warning, warning } from "./errors";
 import { fitLine } from "./regression";
-import { geometricMean, interpolateLogLog } from "./interpolate";
+import { DEFAULT_REPEAT_OPTIONS, RepeatOptions, repeatWarnings, speedSteps } from "./speedSteps";
+import { LadderDie, pressureOnLadder, rateLadder } from "./rateLadder";
+import { BagleyCheckOptions, bagleyLineChecks } from "./bagleyChecks";
 
 /** One measured point of one die, SI. */
 export interface BagleyPoint {
@@ -33,7 +41,7 @@ export interface BagleyRow {
   entrancePressure: number;
   /** e = intercept/slope, in die radii */
   endCorrection: number;
-  /** coefficient of determination of the line */
+  /** coefficient of determination of the line (reported, not judged) */
   r2: number;
   /** slope 2τ_w, Pa */
   slope: number;
@@ -42,27 +50,40 @@ export interface BagleyRow {
   interceptStandardError: number;
   /** number of dies on the line */
   diesUsed: number;
-  /** the (L/R, ΔP) points the line was fitted to; `interpolated` marks a value brought to this rate */
-  points: { die: string; lengthOverRadius: number; pressure: number; interpolated: boolean }[];
+  /**
+   * relative change of the local slope dΔP/d(L/R) between the shortest and the longest die
+   * (positive: the line bends upwards), from a weighted quadratic; null with fewer than three dies,
+   * before the checks ran, or for a line a dense ladder's checks skipped
+   */
+  curvature: number | null;
+  /**
+   * the (L/R, ΔP) points the line was fitted to; `interpolated` marks a value brought to this rate,
+   * `extrapolated` one continued beyond its die's measured range (by at most the edge tolerance)
+   */
+  points: { die: string; lengthOverRadius: number; pressure: number; interpolated: boolean; extrapolated?: boolean }[];
 }
 
 /** Options of {@link bagleyCorrection}. */
 export interface BagleyOptions {
-  /** dies' rates closer than this relative difference count as the same rate */
-  rateTolerance: number;
-  /** warn when R² of a line is below this (common practice, no source) */
-  minR2: number;
-  /** warn when the end corrections' relative spread (max−min)/|median| exceeds this (common practice) */
-  maxEndCorrectionSpread: number;
+  /** which readings of one die share a speed, and when a repeat has drifted (speedSteps.ts) */
+  repeats: Partial<RepeatOptions>;
+  /**
+   * a die's pressure may be continued beyond its measured range by at most this relative rate: the
+   * spread of measured speeds about one set-point and of die bores of one nominal size (common
+   * practice, no source); further out a die is left off the line
+   */
+  edgeTolerance: number;
+  /** limits of the curvature and e-scatter checks */
+  checks: Partial<BagleyCheckOptions>;
   /** minimum number of dies for a line */
   minDies: number;
 }
 
 /** Defaults of {@link BagleyOptions}. */
 export const DEFAULT_BAGLEY_OPTIONS: Readonly<BagleyOptions> = Object.freeze({
-  rateTolerance: 0.02,
-  minR2: 0.99,
-  maxEndCorrectionSpread: 1.0,
+  repeats: {},
+  edgeTolerance: 0.03,
+  checks: {},
   minDies: 2,
 });
 
@@ -72,23 +93,26 @@ export interface BagleyResult {
   warnings: Warning[];
 }
 
+/** One die's steps (ascending rate) for {@link bagleyLines}. */
+export interface BagleyDie extends LadderDie {
+  die: string;
+  lengthOverRadius: number;
+}
+
+/** Result of {@link bagleyLines}: the lines, and per line which steps of which die it used. */
+export interface BagleyLines extends BagleyResult {
+  /** per row, the steps used: die index (into the input) and step indices */
+  rowSteps: { die: number; steps: number[] }[][];
+  /** ladder rates left without a line: fewer than minDies dies reach them */
+  dropped: number[];
+  /** ladder rates whose line does not rise with L/R */
+  nonRising: number[];
+}
+
 interface DieSeries {
   die: string;
   lengthOverRadius: number;
-  rates: number[];
-  pressures: number[];
-}
-
-/** Clusters sorted rates whose neighbours lie within the tolerance; returns the geometric means. */
-function commonRates(allRates: number[], tolerance: number): number[] {
-  const sorted = [...allRates].sort((a, b) => a - b);
-  const clusters: number[][] = [];
-  for (const r of sorted) {
-    const current = clusters[clusters.length - 1];
-    if (current && r <= (current[0] as number) * (1 + tolerance)) current.push(r);
-    else clusters.push([r]);
-  }
-  return clusters.map(geometricMean);
+  readings: { rate: number; pressure: number; row: number }[];
 }
 
 function groupByDie(points: BagleyPoint[]): DieSeries[] {
@@ -106,89 +130,107 @@ function groupByDie(points: BagleyPoint[]): DieSeries[] {
     }
     let s = byDie.get(p.die);
     if (!s) {
-      s = { die: p.die, lengthOverRadius: p.lengthOverRadius, rates: [], pressures: [] };
+      s = { die: p.die, lengthOverRadius: p.lengthOverRadius, readings: [] };
       byDie.set(p.die, s);
     } else if (Math.abs(s.lengthOverRadius - p.lengthOverRadius) > 1e-9 * s.lengthOverRadius) {
       throw new RheoError("value", "die", `"${p.die}" appears with two different L/R values`, row);
     }
-    s.rates.push(p.shearRateApparent);
-    s.pressures.push(p.pressure);
+    s.readings.push({ rate: p.shearRateApparent, pressure: p.pressure, row });
   });
   return [...byDie.values()].sort((a, b) => a.lengthOverRadius - b.lengthOverRadius);
 }
 
-/** Pressure of a die at `rate`: the measured value within tolerance, else log–log interpolation. */
-function pressureAt(series: DieSeries, rate: number, tolerance: number) {
-  let best = -1;
-  let bestGap = Infinity;
-  series.rates.forEach((r, i) => {
-    const gap = Math.abs(r - rate) / rate;
-    if (gap < bestGap) {
-      bestGap = gap;
-      best = i;
-    }
-  });
-  if (best >= 0 && bestGap <= tolerance) return { pressure: series.pressures[best] as number, interpolated: false };
-  const p = interpolateLogLog(series.rates, series.pressures, rate);
-  return p === undefined ? undefined : { pressure: p, interpolated: true };
-}
-
 /**
- * Bagley end correction over dies of one diameter (and one temperature).
+ * Bagley end correction over dies of one diameter (and one temperature), from raw points.
  *
- * For each common apparent rate, fits ΔP = slope·(L/R) + ΔP_ent by least squares
- * (regression.ts) and reports τ_w = slope/2, ΔP_ent, e = ΔP_ent/slope and R².
- * Rates where fewer than `minDies` dies have a value (measured, or interpolated inside the die's
- * measured range; never extrapolated) are left out with a warning.
+ * Each die's readings become speed steps (repeats within the stability threshold averaged, a
+ * drifted repeat left out, the first reading kept; speedSteps.ts); then {@link bagleyLines} and
+ * bagleyLineChecks (bagleyChecks.ts). reduce() also lists every repeat in its stability table.
  *
- * Warning codes: BAGLEY_FEW_DIES, BAGLEY_LOW_R2, BAGLEY_NEGATIVE_END_CORRECTION,
- * BAGLEY_END_CORRECTION_SCATTER, BAGLEY_RATES_INTERPOLATED, BAGLEY_RATE_DROPPED,
- * BAGLEY_NONPOSITIVE_SLOPE.
- *
- * @throws RheoError("missing") with fewer than two dies; ("domain") for non-positive input.
+ * @throws RheoError("missing") with fewer than two dies or no rate reached by two; ("domain") for
+ *   non-positive input.
  * @example bagleyCorrection(points).rows[0].endCorrection
  */
 export function bagleyCorrection(points: BagleyPoint[], options: Partial<BagleyOptions> = {}): BagleyResult {
-  const opt: BagleyOptions = { ...DEFAULT_BAGLEY_OPTIONS, ...options };
-  const dies = groupByDie(points);
-  if (dies.length < 2) {
-    throw new RheoError(
-      "missing",
-      "dieLength",
-      `the Bagley correction needs dies of at least two lengths at one diameter, got ${dies.length}`,
-    );
+  const opt = resolve(options);
+  const series = groupByDie(points);
+  const repeatOptions = { ...DEFAULT_REPEAT_OPTIONS, ...opt.repeats };
+  const stepped = series.map((s) => ({ die: s.die, readings: s.readings, ladder: speedSteps(s.readings, repeatOptions) }));
+  const dies: BagleyDie[] = stepped.map((s, i) => ({
+    die: s.die,
+    lengthOverRadius: (series[i] as DieSeries).lengthOverRadius,
+    rates: s.ladder.steps.map((t) => t.rate),
+    pressures: s.ladder.steps.map((t) => t.pressure),
+  }));
+  const lines = bagleyLines(dies, opt);
+  const checked = bagleyLineChecks(lines.rows, dies, opt.checks);
+  return { rows: lines.rows, warnings: [...repeatWarnings(stepped, repeatOptions.stabilityThreshold), ...lines.warnings, ...checked] };
+}
+
+function resolve(options: Partial<BagleyOptions>): BagleyOptions {
+  return { ...DEFAULT_BAGLEY_OPTIONS, ...options };
+}
+
+/**
+ * The Bagley lines of dies already reduced to speed steps: one line per ladder rate
+ * (rateLadder.ts), fitted ΔP = slope·(L/R) + ΔP_ent by least squares (regression.ts), with
+ * τ_w = slope/2, ΔP_ent, e = ΔP_ent/slope and R². Ladder rates reached by fewer than `minDies`
+ * dies are left out with a warning. The checks are separate (bagleyLineChecks in bagleyChecks.ts)
+ * so a caller can drop lines first.
+ *
+ * Warning codes: BAGLEY_FEW_DIES, BAGLEY_RATES_INTERPOLATED, BAGLEY_LINE_PARTIAL,
+ * BAGLEY_RATE_DROPPED, BAGLEY_NONPOSITIVE_SLOPE, BAGLEY_NEGATIVE_END_CORRECTION.
+ * @param dies steps in ascending rate per die (any order of dies)
+ * @throws RheoError("missing") with fewer than two dies or no line at all
+ */
+export function bagleyLines(dies: readonly BagleyDie[], options: Partial<BagleyOptions> = {}): BagleyLines {
+  const opt = resolve(options);
+  const withSteps = dies.map((d, i) => ({ d, i })).filter(({ d }) => d.rates.length > 0);
+  if (withSteps.length < 2) {
+    throw new RheoError("missing", "dieLength", `the Bagley correction needs dies of at least two lengths at one diameter, got ${withSteps.length}`);
   }
   const warnings: Warning[] = [];
-  if (dies.length < 3) {
-    warnings.push(
-      warning("BAGLEY_FEW_DIES", `Only ${dies.length} die lengths: the straightness of the Bagley lines cannot be checked; three or more are recommended.`),
-    );
+  if (withSteps.length < 3) {
+    warnings.push(warning("BAGLEY_FEW_DIES", `Only ${withSteps.length} die lengths: the straightness of the Bagley lines cannot be checked; three or more are recommended.`));
   }
-  const rates = commonRates(dies.flatMap((d) => d.rates), opt.rateTolerance);
+  // Longest die first (ties: more steps), then the others from long to short.
+  const byLength = [...withSteps].sort((a, b) => b.d.lengthOverRadius - a.d.lengthOverRadius || b.d.rates.length - a.d.rates.length);
+  const ladder = rateLadder(dies, (byLength[0] as { i: number }).i, byLength.slice(1).map((e) => e.i), opt.edgeTolerance);
   const rows: BagleyRow[] = [];
-  let interpolatedCount = 0;
+  const rowSteps: { die: number; steps: number[] }[][] = [];
   const dropped: number[] = [];
-  for (const rate of rates) {
+  const nonRising: number[] = [];
+  let interpolated = 0;
+  let extrapolated = 0;
+  const partial = new Map<string, number>();
+  for (const rate of ladder) {
     const linePoints: BagleyRow["points"] = [];
-    for (const d of dies) {
-      const at = pressureAt(d, rate, opt.rateTolerance);
-      if (at) linePoints.push({ die: d.die, lengthOverRadius: d.lengthOverRadius, ...at });
+    const used: { die: number; steps: number[] }[] = [];
+    for (const { d, i } of withSteps) {
+      const at = pressureOnLadder(d, rate, opt.edgeTolerance);
+      if (!at) {
+        partial.set(d.die, (partial.get(d.die) ?? 0) + 1);
+        continue;
+      }
+      const point: BagleyRow["points"][number] = { die: d.die, lengthOverRadius: d.lengthOverRadius, pressure: at.pressure, interpolated: at.interpolated };
+      if (at.extrapolated) point.extrapolated = true;
+      linePoints.push(point);
+      used.push({ die: i, steps: at.steps });
     }
     if (linePoints.length < Math.max(2, opt.minDies)) {
       dropped.push(rate);
       continue;
     }
-    interpolatedCount += linePoints.filter((p) => p.interpolated).length;
     const line = fitLine(
       linePoints.map((p) => p.lengthOverRadius),
       linePoints.map((p) => p.pressure),
     );
     if (!(line.slope > 0)) {
-      warnings.push(
-        warning("BAGLEY_NONPOSITIVE_SLOPE", `At ${fmt(rate)} 1/s the pressure does not rise with die length (slope ${fmt(line.slope)} Pa); this rate is left out.`),
-      );
+      nonRising.push(rate);
       continue;
     }
+    interpolated += linePoints.filter((p) => p.interpolated).length;
+    extrapolated += linePoints.filter((p) => p.extrapolated).length;
     rows.push({
       shearRateApparent: rate,
       wallShearStress: line.slope / 2,
@@ -199,51 +241,49 @@ export function bagleyCorrection(points: BagleyPoint[], options: Partial<BagleyO
       slopeStandardError: line.slopeStandardError,
       interceptStandardError: line.interceptStandardError,
       diesUsed: linePoints.length,
+      curvature: null,
       points: linePoints,
     });
+    rowSteps.push(used);
   }
   if (rows.length === 0) {
     throw new RheoError("missing", "shearRateApparent", "no apparent rate is covered by two or more dies; check that the dies were run over overlapping rates");
   }
+  if (nonRising.length > 0) {
+    warnings.push(warning("BAGLEY_NONPOSITIVE_SLOPE", `At ${list(nonRising)} 1/s the pressure does not rise with die length; ${nonRising.length === 1 ? "this rate is" : "these rates are"} left out.`));
+  }
   if (dropped.length > 0) {
-    warnings.push(
-      warning("BAGLEY_RATE_DROPPED", `${dropped.length} rate(s) reached by fewer than two dies were left out (${dropped.map(fmt).join(", ")} 1/s).`),
-    );
+    warnings.push(warning("BAGLEY_RATE_DROPPED", `${dropped.length} rate(s) reached by fewer than two dies were left out (${list(dropped)} 1/s).`));
   }
-  if (interpolatedCount > 0) {
-    warnings.push(
-      warning("BAGLEY_RATES_INTERPOLATED", `The dies were not run at identical rates: ${interpolatedCount} pressure(s) were interpolated (log–log) to common rates.`),
-    );
+  if (interpolated > 0) {
+    const beyond = extrapolated > 0 ? `; ${extrapolated} of them lie beyond their die's measured rates by at most ${pct(opt.edgeTolerance)} and were continued from its end interval` : "";
+    warnings.push(warning("BAGLEY_RATES_INTERPOLATED", `The dies were not run at identical rates: ${interpolated} pressure(s) were interpolated (log–log) to the rates of the longest die${beyond}.`));
   }
-  const lowR2 = rows.filter((r) => r.diesUsed >= 3 && r.r2 < opt.minR2);
-  if (lowR2.length > 0) {
+  const partialLines = [...partial.entries()].filter(([, count]) => count > 0 && count < ladder.length);
+  if (partialLines.length > 0) {
     warnings.push(
-      warning("BAGLEY_LOW_R2", `Bagley lines are not straight (R² < ${opt.minR2}) at ${lowR2.map((r) => fmt(r.shearRateApparent)).join(", ")} 1/s: check the data, or pressure dependence of viscosity.`),
+      warning(
+        "BAGLEY_LINE_PARTIAL",
+        `Some Bagley lines lack a die whose measured rates do not reach them (never extrapolated): ${partialLines.map(([die, count]) => `${die} at ${count} rate(s)`).join(", ")}.`,
+      ),
     );
   }
   const negative = rows.filter((r) => r.endCorrection < 0);
   if (negative.length > 0) {
     warnings.push(
-      warning("BAGLEY_NEGATIVE_END_CORRECTION", `Negative end correction at ${negative.map((r) => fmt(r.shearRateApparent)).join(", ")} 1/s: physically the entrance loss is positive; suspect slip, pressure readings or die dimensions.`),
+      warning("BAGLEY_NEGATIVE_END_CORRECTION", `Negative end correction at ${list(negative.map((r) => r.shearRateApparent))} 1/s: physically the entrance loss is positive; suspect slip, pressure readings or die dimensions.`),
     );
   }
-  const spread = endCorrectionSpread(rows.map((r) => r.endCorrection));
-  if (rows.length >= 3 && spread > opt.maxEndCorrectionSpread) {
-    warnings.push(
-      warning("BAGLEY_END_CORRECTION_SCATTER", `The end correction e scatters widely between rates (spread ${(spread * 100).toFixed(0)} % of its median): the lines' zero crossings disagree.`),
-    );
-  }
-  return { rows, warnings };
+  return { rows, warnings, rowSteps, dropped, nonRising };
 }
 
-/** (max − min)/|median| of the end corrections; Infinity when the median is 0. */
-export function endCorrectionSpread(values: number[]): number {
-  if (values.length === 0) return 0;
-  const sorted = [...values].sort((a, b) => a - b);
-  const mid = sorted.length >> 1;
-  const median = sorted.length % 2 ? (sorted[mid] as number) : ((sorted[mid - 1] as number) + (sorted[mid] as number)) / 2;
-  const range = (sorted[sorted.length - 1] as number) - (sorted[0] as number);
-  return median === 0 ? (range === 0 ? 0 : Infinity) : range / Math.abs(median);
+function list(rates: number[]): string {
+  const shown = rates.slice(0, 8).map(fmt).join(", ");
+  return rates.length > 8 ? `${shown} and ${rates.length - 8} more` : shown;
+}
+
+function pct(x: number, digits = 0): string {
+  return `${(x * 100).toFixed(digits)} %`;
 }
 
 function fmt(x: number): string {

@@ -21,6 +21,7 @@ import { DEFAULT_REDUCE_OPTIONS, Measurement, ReduceOptions, ReductionResult } f
 import { apparentPoint, groupLabel, groupPoints } from "./grouping";
 import { reduceGroup } from "./reduceGroup";
 import { checkPlausible, optionFindings, plausibilityText } from "./plausibility";
+import { addRowAccounts } from "./rowAccount";
 
 export * from "./reduceTypes";
 export { groupLabel } from "./grouping";
@@ -66,7 +67,7 @@ export function reduce(measurements: Measurement[], options: Partial<ReduceOptio
     warnings.push(...group.warnings.map((w) => scoped(w, label)));
   }
   warnings.push(...plausibilityWarnings(opt, groups));
-  const result: ReductionResult = { groups, warnings };
+  const result: ReductionResult = { groups, rows: addRowAccounts(groups.map((g) => g.rows)), warnings };
   if (opt.slip !== false) {
     const slip = slipAcrossGroups(groups, opt.slip === true ? { rabinowitsch: opt.rabinowitsch } : { rabinowitsch: opt.rabinowitsch, ...opt.slip });
     result.slip = slip.rows;

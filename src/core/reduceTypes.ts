@@ -4,7 +4,10 @@
  */
 import { Warning } from "./errors";
 import { BagleyOptions, BagleyRow } from "./bagley";
-import { RabinowitschOptions } from "./rabinowitsch";
+import { RabinowitschOptions, SmootherRecord } from "./rabinowitsch";
+import { RepeatOptions } from "./speedSteps";
+import { InstabilityOptions } from "./flowInstability";
+import { RowAccount } from "./rowAccount";
 import { OrificeOptions } from "./orifice";
 import { MeltFlowResult } from "./meltFlowRate";
 import { DEFAULT_METHOD_OPTIONS, GroupMethodResults, MethodOptions, SlipResultRow } from "./reduceMethods";
@@ -42,6 +45,10 @@ export interface ReduceOptions extends MethodOptions {
   meltFlowRate: { volumeRate?: number; massRate?: number; density?: number; load: number } | null;
   bagley: Partial<BagleyOptions>;
   rabinowitsch: Partial<RabinowitschOptions>;
+  /** which readings of a die share a speed, and the stability threshold of repeats (speedSteps.ts) */
+  repeats: Partial<RepeatOptions>;
+  /** the flow-instability test (flowInstability.ts) */
+  instability: Partial<InstabilityOptions>;
   /**
    * K: neighbouring temperature readings closer than this belong to one set-point (one group,
    * reported at the mean of its readings with their spread; see grouping.ts)
@@ -56,6 +63,8 @@ export const DEFAULT_REDUCE_OPTIONS: Readonly<ReduceOptions> = Object.freeze({
   endCorrection: "bagley",
   bagley: {},
   rabinowitsch: {},
+  repeats: {},
+  instability: {},
   temperatureTolerance: 1,
   diameterTolerance: 0.005,
   orifice: {},
@@ -111,14 +120,60 @@ export interface ReductionGroup extends GroupMethodResults {
   /** slit W and H, m (slit groups only) */
   slitWidth?: number;
   slitHeight?: number;
-  /** lengthOverRadius is L/R for round dies and L/H for slits; orifice marks an orifice die */
-  dies: { dieLength: number; lengthOverRadius: number; label: string; points: number; orifice?: boolean }[];
+  /**
+   * lengthOverRadius is L/R for round dies and L/H for slits; points counts the die's readings,
+   * steps its distinct speeds (repeats merged); orifice marks an orifice die
+   */
+  dies: { dieLength: number; lengthOverRadius: number; label: string; points: number; steps: number; orifice?: boolean }[];
   /** both entrance-pressure estimates side by side, when the group has an orifice die */
   entrancePressures?: EntrancePressureRow[];
   points: PointRow[];
   bagley: BagleyRow[];
   flowCurve: FlowCurveRow[];
+  /** every repeated reading compared with the first at its speed (empty without repeats) */
+  stability: StabilityRow[];
+  /** readings and corrected points set aside above a flow instability */
+  flagged: FlaggedPoint[];
+  /** the curve that gave n' (Rabinowitsch) */
+  smoother: SmootherRecord;
+  /** what became of every row of the group */
+  rows: RowAccount;
   warnings: Warning[];
+}
+
+/** A repeated reading compared with the first reading at its speed (one die). */
+export interface StabilityRow {
+  /** the die's label, "L=20 mm" */
+  die: string;
+  dieLength: number;
+  /** γ̇_a of the first reading, 1/s */
+  shearRateApparent: number;
+  /** Q of the first reading, m³/s */
+  flowRate: number;
+  firstRow: number;
+  /** Pa */
+  firstPressure: number;
+  repeatRow: number;
+  /** Pa */
+  repeatPressure: number;
+  /** (repeat − first)/first */
+  change: number;
+  /** "mean": averaged into the step; "first": drifted, the first reading alone was used */
+  used: "mean" | "first";
+}
+
+/** A reading or corrected point set aside above a flow instability. */
+export interface FlaggedPoint {
+  /** the die ("L=20 mm"), or "flow curve" for an end-corrected point */
+  source: string;
+  /** γ̇_a, 1/s */
+  shearRateApparent: number;
+  /** the die's pressure, Pa (null for a flow-curve point) */
+  pressure: number | null;
+  /** Pa: apparent for a die reading, end-corrected for a flow-curve point */
+  wallShearStress: number;
+  /** the warning code that explains it */
+  reason: "FLOW_INSTABILITY";
 }
 
 /** The Bagley and orifice estimates of the entrance pressure at one apparent rate, Pa. */
@@ -139,6 +194,8 @@ export interface ReductionResult {
   slip?: SlipResultRow[];
   /** the melt-flow-rate point (option `meltFlowRate`) */
   meltFlowRate?: MeltFlowResult;
+  /** what became of every row, over all groups */
+  rows: RowAccount;
   /** every group's warnings, each prefixed with its group */
   warnings: Warning[];
 }

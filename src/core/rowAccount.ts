@@ -15,7 +15,31 @@ export const ROW_SKIP_REASONS = Object.freeze({
   incomplete: "a needed cell blank",
   repeat: "merged as a repeated reading",
   outsideRange: "outside the range used",
+  // the reduction's reasons (src/core/reduceGroup.ts); each is explained by the warning in REDUCTION_SKIP_WARNINGS
+  duplicate: "exact duplicate",
+  drifted: "drifted repeat",
+  instability: "above a flow instability",
+  oneDie: "at a rate only one die reached",
+  nonRising: "on a Bagley line that does not rise",
+  notNeeded: "not needed by any line or point",
+  noEndCorrection: "shorter die without end correction",
+  orificeOutside: "outside the orifice die's rates",
+  orificeTooHigh: "orifice pressure at or above the long die's",
 } satisfies Record<string, string>);
+
+/** The warning that lists the rows of each reason the reduction uses. */
+export const REDUCTION_SKIP_WARNINGS = Object.freeze({
+  repeat: "REPEATS_AVERAGED",
+  duplicate: "DUPLICATE_ROWS",
+  drifted: "REPEAT_DRIFT",
+  instability: "FLOW_INSTABILITY",
+  oneDie: "BAGLEY_RATE_DROPPED",
+  nonRising: "BAGLEY_NONPOSITIVE_SLOPE",
+  notNeeded: "READINGS_NOT_USED",
+  noEndCorrection: "END_CORRECTION_NONE",
+  orificeOutside: "ORIFICE_RATE_OUTSIDE",
+  orificeTooHigh: "ORIFICE_PRESSURE_TOO_HIGH",
+} satisfies Partial<Record<keyof typeof ROW_SKIP_REASONS, string>>);
 
 export type RowSkipReason = keyof typeof ROW_SKIP_REASONS | (string & {});
 
@@ -43,6 +67,44 @@ export function skipRows(account: RowAccount, reason: RowSkipReason, count: numb
   if (count > account.rowsUsed) throw new Error(`skipRows: ${count} rows to skip but only ${account.rowsUsed} used`);
   account.rowsUsed -= count;
   account.rowsSkipped[reason] = (account.rowsSkipped[reason] ?? 0) + count;
+}
+
+/** What the reduction did with one row: used, or skipped for a reason ("repeat": averaged into another reading). */
+export type RowFate = "used" | { skipped: keyof typeof REDUCTION_SKIP_WARNINGS };
+
+/**
+ * The account of the rows a reduction was handed, from each row's fate.
+ * @example tallyRows(["used", { skipped: "drifted" }]) // { rowsRead: 2, rowsUsed: 1, rowsSkipped: { drifted: 1 } }
+ */
+export function tallyRows(fates: readonly RowFate[]): RowAccount {
+  const account: RowAccount = { rowsRead: fates.length, rowsUsed: 0, rowsSkipped: {} };
+  for (const f of fates) {
+    if (f === "used") account.rowsUsed++;
+    else account.rowsSkipped[f.skipped] = (account.rowsSkipped[f.skipped] ?? 0) + 1;
+  }
+  return account;
+}
+
+/** The sum of several accounts (a run's groups). */
+export function addRowAccounts(accounts: readonly RowAccount[]): RowAccount {
+  const total = emptyRowAccount();
+  for (const a of accounts) {
+    total.rowsRead += a.rowsRead;
+    total.rowsUsed += a.rowsUsed;
+    for (const [reason, n] of Object.entries(a.rowsSkipped)) total.rowsSkipped[reason] = (total.rowsSkipped[reason] ?? 0) + n;
+  }
+  return total;
+}
+
+/**
+ * The reader's account with the reduction's skips moved out of "used" (a copy): the run's whole
+ * account, rowsRead = rowsUsed + Σ rowsSkipped over the file's rows.
+ * @param input the reader's account; reduction the reduction's (its rowsRead = the rows the reader used)
+ */
+export function withReduction(input: RowAccount, reduction: RowAccount): RowAccount {
+  const out: RowAccount = { rowsRead: input.rowsRead, rowsUsed: input.rowsUsed, rowsSkipped: { ...input.rowsSkipped } };
+  for (const [reason, n] of Object.entries(reduction.rowsSkipped)) skipRows(out, reason, n);
+  return out;
 }
 
 /** Total rows skipped. */

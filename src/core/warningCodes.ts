@@ -30,11 +30,22 @@ export const WARNING_CODES = Object.freeze({
   TEMPERATURE_GROUPS_CLOSE: "caution",
   TEMPERATURE_IGNORED: "info",
 
+  // Repeated readings and flow instabilities
+  DUPLICATE_ROWS: "caution",
+  REPEATS_AVERAGED: "info",
+  REPEAT_DRIFT: "caution",
+  READINGS_NOT_USED: "caution",
+  FLOW_INSTABILITY: "caution",
+  MELT_FRACTURE_STRESS: "info",
+
   // End correction
   BAGLEY_FEW_DIES: "caution",
   BAGLEY_LOW_R2: "caution",
   BAGLEY_NEGATIVE_END_CORRECTION: "serious",
   BAGLEY_END_CORRECTION_SCATTER: "caution",
+  BAGLEY_CURVED: "caution",
+  BAGLEY_CHECKS_LIMITED: "info",
+  BAGLEY_LINE_PARTIAL: "info",
   BAGLEY_RATES_INTERPOLATED: "info",
   BAGLEY_RATE_DROPPED: "caution",
   BAGLEY_NONPOSITIVE_SLOPE: "serious",

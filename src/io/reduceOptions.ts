@@ -16,6 +16,7 @@ import { acceptedUnits, isUnitOf, quantitiesOfUnit, toSI, type Quantity, QUANTIT
 import { DEFAULT_REDUCE_OPTIONS, type ReduceOptions } from "../core/reduce";
 import { DEFAULT_RABINOWITSCH_OPTIONS, type RabinowitschMethod } from "../core/rabinowitsch";
 import { DEFAULT_ORIFICE_OPTIONS } from "../core/orifice";
+import { DEFAULT_REPEAT_OPTIONS } from "../core/speedSteps";
 import { getModel, type ModelId } from "../core/models";
 import type { FitRequest } from "../core/run";
 import { excerpt, readNumberText, readQuantityText } from "./numberText";
@@ -59,6 +60,7 @@ export const REDUCE_SETTINGS: readonly ReduceSettingSpec[] = Object.freeze<Reduc
   { key: "rabinowitschMethod", flag: "method", kind: { type: "choice", choices: RABINOWITSCH_METHODS }, section: "reduction" },
   { key: "rabinowitschDegree", flag: "degree", kind: { type: "count", min: 1, max: 3 }, section: "reduction" },
   { key: "rabinowitschWindow", flag: "window", kind: { type: "count", min: 3, max: 99 }, section: "reduction" },
+  { key: "stabilityThreshold", flag: "stability-threshold", kind: { type: "quantity", quantity: "ratio", positive: true }, unit: "%", section: "reduction" },
   { key: "transducer", flag: "transducer", kind: { type: "spec" }, section: "checks" },
   { key: "transducerFullScale", flag: null, kind: { type: "quantity", quantity: "pressure", positive: true }, unit: "bar", section: "checks" },
   { key: "transducerAccuracy", flag: null, kind: { type: "quantity", quantity: "ratio", positive: true }, unit: "%", section: "checks" },
@@ -353,6 +355,11 @@ function buildRequest(
     fail(new RheoError("value", nameOfKey("rabinowitschWindow"), `must hold at least degree + 2 = ${(degree ?? DEFAULT_RABINOWITSCH_OPTIONS.degree) + 2} points so the local fit is smoothed, got ${window}`));
   }
   o.rabinowitsch = rab;
+  const stability = get<number>("stabilityThreshold");
+  if (stability !== undefined) {
+    if (!(stability < 1)) fail(new RheoError("domain", nameOfKey("stabilityThreshold"), `must be below 100 %, got ${stability * 100} %`));
+    else o.repeats = { stabilityThreshold: stability };
+  }
   const barrel = get<number>("barrelDiameter");
   if (barrel !== undefined) input.barrelDiameter = barrel;
   const density = get<number>("density");
@@ -457,6 +464,7 @@ export const REDUCE_SETTING_DEFAULTS: Readonly<Record<string, string | boolean>>
   rabinowitschDegree: String(DEFAULT_RABINOWITSCH_OPTIONS.degree),
   rabinowitschWindow: String(DEFAULT_RABINOWITSCH_OPTIONS.window),
   orificeMaxLengthOverDiameter: String(DEFAULT_ORIFICE_OPTIONS.maxLengthOverDiameter),
+  stabilityThreshold: String(DEFAULT_REPEAT_OPTIONS.stabilityThreshold * 100),
   transducerAccuracy: "0.25",
   shift: "none",
 });

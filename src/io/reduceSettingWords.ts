@@ -6,6 +6,7 @@
  */
 import { DEFAULT_ORIFICE_OPTIONS } from "../core/orifice";
 import { DEFAULT_RABINOWITSCH_OPTIONS } from "../core/rabinowitsch";
+import { DEFAULT_REPEAT_OPTIONS } from "../core/speedSteps";
 import { DEFAULT_UNCERTAINTY_OPTIONS } from "../core/uncertainty";
 import { MODEL_IDS } from "../core/models";
 import { DEFAULT_FLOW_CURVE_MODELS } from "../core/flowCurveFits";
@@ -56,7 +57,7 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
     label: "Rabinowitsch slope method",
     help: "Rabinowitsch slope method: transition (default), local, global, difference",
     choiceHelp: {
-      transition: "Smooth S-shaped curve through log stress vs log rate, differentiated exactly; the most accurate on melt data (default).",
+      transition: "The S-shaped curve of a melt (Carreau–Yasuda in log stress vs log rate), or of a paste, differentiated exactly; kept under noise, the most accurate on melt data (default).",
       local: "A low-order polynomial over a few neighbouring points at each rate; follows local bends.",
       global: "One polynomial of degree 1–3 through all points; simple, but biased at the ends of the range.",
       difference: "Slopes between neighbouring points; no smoothing, so noise shows through. For comparison.",
@@ -69,6 +70,10 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
   rabinowitschWindow: {
     label: "Points per local fit",
     help: `points per local fit (odd, at least 3; default ${DEFAULT_RABINOWITSCH_OPTIONS.window})`,
+  },
+  stabilityThreshold: {
+    label: "Repeat stability limit",
+    help: `a speed run again (the stability check) whose pressure differs from the first reading by more than this has drifted: the first reading alone is used (default ${DEFAULT_REPEAT_OPTIONS.stabilityThreshold * 100} %)`,
   },
   transducer: {
     label: "Pressure transducer",

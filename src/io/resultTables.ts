@@ -14,6 +14,7 @@ import type { Warning } from "../core/errors";
 import { groupLabel, type ReductionGroup } from "../core/reduce";
 import type { ReductionRun } from "../core/run";
 import { getModel } from "../core/models";
+import { ROW_SKIP_REASONS, type RowAccount } from "../core/rowAccount";
 import { displayUnit, modelName, parameterSymbol } from "./displayNames";
 
 /** One cell: a number in the column's unit, text, a flag, or null for an empty cell. */
@@ -84,6 +85,7 @@ function groupsTable(run: ReductionRun): ResultTable {
       etas.length ? Math.max(...etas) : null,
       best ? modelName(best.model) : null,
       run.warnings.filter((w) => w.scope === groupLabel(g)).length,
+      g.smoother.curve,
     ];
   });
   return {
@@ -101,9 +103,13 @@ function groupsTable(run: ReductionRun): ResultTable {
       num("viscosityMax", "Viscosity, highest", "Pa·s"),
       text("bestModel", "Lowest-AIC model"),
       num("warnings", "Warnings", ""),
+      text("smoother", "Rabinowitsch smoother"),
     ],
     rows,
-    notes: run.result.groups.some((g) => g.geometry === "slit") ? ["Slit groups have no die diameter; their label gives width × height."] : undefined,
+    notes: [
+      ...(run.result.groups.some((g) => g.geometry === "slit") ? ["Slit groups have no die diameter; their label gives width × height."] : []),
+      "Rabinowitsch smoother: the curve that gave n′ — transition (n′ → 1 at low rates, the Carreau–Yasuda shape), transition-free (free low-rate slope), or the polynomial or method used.",
+    ],
     keyColumns: ["group", "points", "viscosityMin", "viscosityMax"],
   };
 }
@@ -259,6 +265,58 @@ function meltFlowTable(run: ReductionRun): ResultTable | null {
   };
 }
 
+function stabilityTable(g: ReductionGroup): ResultTable | null {
+  if (g.stability.length === 0) return null;
+  return {
+    id: "stability",
+    title: "Repeated readings (stability check)",
+    scope: groupLabel(g),
+    columns: [
+      text("die", "Die"),
+      num("shearRateApparent", "Apparent shear rate", "1/s"),
+      num("firstRow", "First row", ""),
+      num("firstPressure", "First reading", "bar"),
+      num("repeatRow", "Repeat row", ""),
+      num("repeatPressure", "Repeat", "bar"),
+      num("change", "Change", "%", 3),
+      text("used", "Used"),
+    ],
+    rows: g.stability.map((r) => [r.die, r.shearRateApparent, r.firstRow, v(r.firstPressure, BAR), r.repeatRow, v(r.repeatPressure, BAR), v(r.change, 100), r.used === "mean" ? "mean of both" : "first reading only"]),
+    notes: ["A repeat within the stability limit is averaged with the first reading; beyond it the melt has changed and the first reading alone is used (warning REPEAT_DRIFT)."],
+    keyColumns: ["die", "shearRateApparent", "change", "used"],
+  };
+}
+
+function flaggedTable(g: ReductionGroup): ResultTable | null {
+  if (g.flagged.length === 0) return null;
+  return {
+    id: "flagged",
+    title: "Set aside above a flow instability",
+    scope: groupLabel(g),
+    columns: [text("source", "Die or curve"), num("shearRateApparent", "Apparent shear rate", "1/s"), num("pressure", "Pressure", "bar"), num("wallShearStress", "Wall shear stress", "kPa"), text("reason", "Why")],
+    rows: g.flagged.map((f) => [f.source, f.shearRateApparent, v(f.pressure, BAR), v(f.wallShearStress, KPA), f.reason]),
+    notes: ["Die readings show their apparent wall stress; flow-curve points their end-corrected stress. None of them entered the end correction or the Rabinowitsch smoothing (warning FLOW_INSTABILITY)."],
+  };
+}
+
+function rowsTable(run: ReductionRun): ResultTable {
+  const left = (a: RowAccount) =>
+    Object.entries(a.rowsSkipped)
+      .filter(([reason, n]) => reason !== "repeat" && n > 0)
+      .map(([reason, n]) => `${n} ${(ROW_SKIP_REASONS as Record<string, string>)[reason] ?? reason}`)
+      .join(", ") || null;
+  const row = (label: string, a: RowAccount): ResultCell[] => [label, a.rowsRead, a.rowsUsed, a.rowsSkipped.repeat ?? 0, left(a)];
+  const rows: ResultCell[][] = run.result.groups.map((g) => row(groupLabel(g), g.rows));
+  if (run.result.groups.length > 1) rows.push(row("all groups", run.result.rows));
+  return {
+    id: "rows",
+    title: "What the reduction did with every row",
+    columns: [text("group", "Group"), num("rowsRead", "Rows", ""), num("rowsUsed", "Used", ""), num("merged", "Merged repeats", ""), text("left", "Left out")],
+    rows,
+    notes: ["Rows = used + merged + left out. Each reason is explained by a warning that lists the rows. Rows the file reader skipped (blank, comment) are in the input line."],
+  };
+}
+
 function fitParameterTable(run: ReductionRun): ResultTable | null {
   const rows: ResultCell[][] = [];
   run.result.groups.forEach((g, i) => {
@@ -359,8 +417,8 @@ export function warningsTable(warnings: readonly Warning[]): ResultTable {
 export function resultTables(run: ReductionRun): ResultTable[] {
   const tables: (ResultTable | null)[] = [groupsTable(run)];
   for (const g of run.result.groups) {
-    tables.push(bagleyTable(g), flowCurveTable(g), entrancePressureTable(g), extensionalTable(g), heatingTable(g), pressureDependenceTable(g));
+    tables.push(bagleyTable(g), flowCurveTable(g), entrancePressureTable(g), extensionalTable(g), heatingTable(g), pressureDependenceTable(g), stabilityTable(g), flaggedTable(g));
   }
-  tables.push(slipTable(run), meltFlowTable(run), fitRankingTable(run), fitParameterTable(run), shiftTable(run), warningsTable(run.warnings));
+  tables.push(slipTable(run), meltFlowTable(run), fitRankingTable(run), fitParameterTable(run), shiftTable(run), rowsTable(run), warningsTable(run.warnings));
   return tables.filter((t): t is ResultTable => t !== null);
 }
