@@ -27,10 +27,10 @@ async function reduceJson(file: string, extra: string[] = []) {
 /** True viscosity (Pa·s) at a true wall rate: the generating Carreau–Yasuda law (Yasuda, Armstrong & Cohen 1981). */
 const trueViscosity = carreauYasuda(TRUTH.melt.eta0, TRUTH.melt.lambda, TRUTH.melt.a, TRUTH.melt.n);
 
-/** read = used + merged + Σ excluded, for a group and the run. */
-function expectAccounted(rows: { read: number; used: number; merged: number; excluded: Record<string, number> }, read: number) {
-  expect(rows.read).toBe(read);
-  expect(rows.used + rows.merged + Object.values(rows.excluded).reduce((s, n) => s + n, 0)).toBe(read);
+/** rowsRead = rowsUsed + Σ rowsSkipped (core/rowAccount.ts). */
+function expectAccounted(rows: { rowsRead: number; rowsUsed: number; rowsSkipped: Record<string, number> }, read: number) {
+  expect(rows.rowsRead).toBe(read);
+  expect(rows.rowsUsed + Object.values(rows.rowsSkipped).reduce((s, n) => s + n, 0)).toBe(read);
 }
 
 describe("lab-repeats.csv: the first speed repeated at the end of each die, one copied row", () => {
@@ -60,11 +60,12 @@ describe("lab-repeats.csv: the first speed repeated at the end of each die, one 
     expect(doc.warnings.find((w: { code: string }) => w.code === "DUPLICATE_ROWS").message).toContain("rows 17 and 18 (L=20 mm)");
   });
 
-  test("every row is accounted: 31 read = 27 used + 2 merged + 1 duplicate + 1 drifted", () => {
+  test("every row is accounted: 31 read = 27 used + 2 merged repeats + 1 duplicate + 1 drifted", () => {
     const g = doc.groups[0];
     // 3 dies × 9 speeds + 3 repeats + 1 copy = 31 rows; 27 steps used; 2 repeats averaged; 1 duplicate; 1 drifted
     expectAccounted(g.rows, 31);
-    expect(g.rows).toEqual({ read: 31, used: 27, merged: 2, excluded: { DUPLICATE_ROWS: 1, REPEAT_DRIFT: 1 } });
+    expect(g.rows).toEqual({ rowsRead: 31, rowsUsed: 27, rowsSkipped: { repeat: 2, duplicate: 1, drifted: 1 } });
+    // the file's account: the reader's rows with the reduction's skips moved out of "used"
     expect(doc.rows).toEqual(g.rows);
     expect(g.dies.map((d: { points: number; steps: number }) => [d.points, d.steps])).toEqual([[10, 9], [11, 9], [10, 9]]);
   });
@@ -101,7 +102,7 @@ describe("lab-spurt.csv: pressures 15 % low from the eighth speed up (the trial 
     expect(g.flagged).toHaveLength(9);
     expect(g.flagged.every((f: { reason: string }) => f.reason === "FLOW_INSTABILITY")).toBe(true);
     expect(g.flowCurve.map((f: { shearRateApparent: number }) => f.shearRateApparent)).toEqual([18, 36, 75, 150, 300, 600, 1200]);
-    expect(g.rows).toEqual({ read: 30, used: 21, merged: 0, excluded: { FLOW_INSTABILITY: 9 } });
+    expect(g.rows).toEqual({ rowsRead: 30, rowsUsed: 21, rowsSkipped: { instability: 9 } });
   });
 
   test("below the break the viscosity follows the generating law within 1.5 % (smoothed across the break it was 22 % low and 14 % high)", () => {
@@ -124,7 +125,7 @@ describe("lab-jittered.csv: measured speeds within ±1.5 % of the set-points", (
       expect(b.diesUsed).toBe(3);
       expect(b.interpolated).toBe(2);
     });
-    expect(g.rows).toEqual({ read: 27, used: 27, merged: 0, excluded: {} });
+    expect(g.rows).toEqual({ rowsRead: 27, rowsUsed: 27, rowsSkipped: {} });
   });
 
   test("the viscosity follows the generating law within 1.5 %", () => {
@@ -143,7 +144,7 @@ describe("nothing dropped silently (issue 20)", () => {
     const result = reduce(run);
     const g = result.groups[0] as (typeof result.groups)[number];
     expect(g.flowCurve).toHaveLength(5000);
-    expect(g.rows).toEqual({ read: 15000, used: 15000, merged: 0, excluded: {} });
+    expect(g.rows).toEqual({ rowsRead: 15000, rowsUsed: 15000, rowsSkipped: {} });
     g.flowCurve.forEach((f, i) => expectClose(f.shearRateWall as number, wall[i] as number, { rel: 0.003 }));
   });
 
@@ -153,7 +154,7 @@ describe("nothing dropped silently (issue 20)", () => {
     const repeats = [0, 8, 16, 24].map((i) => ({ ...(base[i] as Measurement), pressure: (base[i] as Measurement).pressure * 1.004, row: 100 + i }));
     const result = reduce([...base, ...repeats]);
     const g = result.groups[0] as (typeof result.groups)[number];
-    expect(g.rows).toEqual({ read: 36, used: 32, merged: 4, excluded: {} });
+    expect(g.rows).toEqual({ rowsRead: 36, rowsUsed: 32, rowsSkipped: { repeat: 4 } });
     expect(g.stability.map((s) => s.used)).toEqual(["mean", "mean", "mean", "mean"]);
     expect(g.flowCurve).toHaveLength(8);
   });
@@ -164,7 +165,7 @@ describe("the stability limit is a setting; the new results are tables on every 
     const doc = await reduceJson("test/fixtures/lab-repeats.csv", ["--stability-threshold", "10 %"]);
     const g = doc.groups[0];
     expect(g.stability.map((s: { used: string }) => s.used)).toEqual(["mean", "mean", "mean"]);
-    expect(g.rows).toEqual({ read: 31, used: 27, merged: 3, excluded: { DUPLICATE_ROWS: 1 } });
+    expect(g.rows).toEqual({ rowsRead: 31, rowsUsed: 27, rowsSkipped: { repeat: 3, duplicate: 1 } });
     expect(doc.warnings.map((w: { code: string }) => w.code)).not.toContain("REPEAT_DRIFT");
   });
 
@@ -181,14 +182,15 @@ describe("the stability limit is a setting; the new results are tables on every 
     await main(["reduce", "test/fixtures/lab-repeats.csv"], io);
     expect(text).toContain("Repeated readings (stability check)");
     expect(text).toMatch(/L=30 mm\s+18\s+24\s+36\.12\s+33\s+33\.86\s+-6\.26\s+first reading only/);
-    expect(text).toContain("What became of every row");
+    expect(text).toContain("What the reduction did with every row");
+    expect(text).toContain("31 lines read: 27 used, 2 merged as a repeated reading, 1 exact duplicate, 1 drifted repeat.");
     text = "";
     await main(["reduce", "test/fixtures/lab-spurt.csv"], io);
     expect(text).toContain("Set aside above a flow instability");
     text = "";
     await main(["reduce", "test/fixtures/lab-spurt.csv", "--summary"], io);
     expect(text).toContain("(transition)");
-    expect(text).toContain("Rows: 30 read, 21 used, 0 merged repeats, left out: 9 FLOW_INSTABILITY.");
+    expect(text).toContain("Input: 30 rows read: 21 used, 9 above a flow instability.");
   });
 
   test("JSON: smoother per group names the curve and why", async () => {
