@@ -51,7 +51,7 @@ export const BENCH_TARGETS = Object.freeze({
   scipyRatio: 3,
   reductionMs: 2,
   column10kMs: 20,
-  functionsBundleBytes: 185 * 1024,
+  functionsBundleBytes: 208 * 1024,
   taskpaneBundleBytes: 400 * 1024,
 });
 
