@@ -19,7 +19,7 @@
  * λ = 0.8 s, n = 0.35; 10 rates over 10–3000 1/s, flow integral by quadrature), the worst
  * wall-rate errors were: transition 0.01 %, local quadratic 1.7 %, global cubic 1.9 %, global
  * quadratic 3.2 %, finite difference 1.6 %; with 1 % stress noise (200 draws) the rms errors were
- * 0.98 %, 1.5 %, 1.3 %, 1.2 % and 2.0 %. On the benchmark melts of `npm run bench` (4 dies × 10
+ * 1.05 %, 1.5 %, 1.3 %, 1.2 % and 2.0 %. On the benchmark melts of `npm run bench` (4 dies × 10
  * rates through the whole reduction, 1 % pressure noise) the default has the lowest median
  * worst-point error of all methods. test/rabinowitsch.test.ts keeps these figures honest.
  */

@@ -28,8 +28,13 @@ import { fitLine, fitPolynomial, polynomialSlope, polynomialValue } from "./regr
 /** Bounds on (n₁, n₂, a, x₀); a ≤ 2 keeps the step no sharper than a Carreau knee (a = 2). */
 const MIN = [0.01, 0.01, 0.3, -50];
 const MAX = [1.5, 1.5, 2, 50];
-/** Slopes are wanted to ~1e-4: a relative cost change of 1e-10 is ample. */
+/** Slopes are wanted to ~1e-4: a relative cost change of 1e-10 is ample for a melt. */
 const SOLVER = { functionTolerance: 1e-10, stepTolerance: 1e-10, gradientTolerance: 1e-10 };
+/**
+ * A paste's fit is compared with a quadratic by AICc, whose ln(SSR) rewards a fit run to its end
+ * on clean data: the former, stricter settings.
+ */
+const PASTE_SOLVER = { functionTolerance: 1e-12, stepTolerance: 1e-12, gradientTolerance: 1e-12 };
 
 function unbounded(p: number, i: number): number {
   const lo = MIN[i] as number;
@@ -43,7 +48,7 @@ function unbounded(p: number, i: number): number {
  * fitted ones. The bounded parameters are p = lo + (hi − lo)·σ(u), fitted in u; residuals and the
  * analytic Jacobian are written in place (no allocation per evaluation).
  */
-function fitCurve(t: number[], y: number[], start: number[], free: boolean[], maxIterations: number): { p: number[]; ssr: number; k: number } {
+function fitCurve(t: number[], y: number[], start: number[], free: boolean[], maxIterations: number, tolerances: typeof SOLVER): { p: number[]; ssr: number; k: number } {
   const m = t.length;
   const column = new Int32Array(5).fill(-1);
   let k = 0;
@@ -101,7 +106,7 @@ function fitCurve(t: number[], y: number[], start: number[], free: boolean[], ma
       },
     },
     startU,
-    { ...SOLVER, maxIterations },
+    { ...tolerances, maxIterations },
   );
   toParams(result.u);
   return { p: Array.from(p), ssr: 2 * result.cost, k };
@@ -140,11 +145,11 @@ interface ShapeFit {
 }
 
 /** Best fit of the curve from the given starts (a₀, x₀), or from full parameter vectors; `newtonian` holds n₁ = 1. */
-function fitShape(t: number[], y: number[], newtonian: boolean, starts: number[][], maxIterations = 100): ShapeFit | undefined {
+function fitShape(t: number[], y: number[], newtonian: boolean, starts: number[][], maxIterations = 100, tolerances = SOLVER): ShapeFit | undefined {
   const free = [true, !newtonian, true, true, true];
   let best: ShapeFit | undefined;
   for (const start of starts) {
-    const fit = fitCurve(t, y, start, free, maxIterations);
+    const fit = fitCurve(t, y, start, free, maxIterations, tolerances);
     if (Number.isFinite(fit.ssr) && (!best || fit.ssr < best.ssr)) best = { p: fit.p, ssr: fit.ssr, k: fit.k };
   }
   return best;
@@ -191,7 +196,7 @@ export function transitionSlopes(x: number[], y: number[]): { slopes: number[]; 
   // n₁ free: refined from the melt shape (a short run: a flat valley means n₁ is not determined),
   // and from the data's own low-rate slope when n′ rises with rate (a paste)
   const rising = fitLine(ft.slice(0, 3), fy.slice(0, 3)).slope < fitLine(ft.slice(-3), fy.slice(-3)).slope;
-  const paste = best(melt ? fitShape(ft, fy, false, [melt.p], 40) : undefined, rising || !melt ? fitShape(ft, fy, false, [startFrom(ft, fy, null, 1, 0)]) : undefined);
+  const paste = best(melt ? fitShape(ft, fy, false, [melt.p], 40) : undefined, rising || !melt ? fitShape(ft, fy, false, [startFrom(ft, fy, null, 1, 0)], 200, PASTE_SOLVER) : undefined);
   const useFree = paste && (!melt || aicc(paste.ssr, m, paste.k) < aicc(melt.ssr, m, melt.k));
   const chosen = useFree ? paste : melt;
   if (rising && chosen) {
