@@ -7,7 +7,7 @@ import { RheoError } from "../core/errors";
 import { parseArgs } from "./args";
 import { CliIO, readInputFile } from "./io";
 import { REDUCE_FLAGS, runReduce } from "./reduceCommand";
-import { writeResultsFile } from "./resultsFile";
+import { planOutputs, writeReduceOutputs } from "./reduceOutputs";
 import { runPlanCommand } from "./planCommand";
 import { runCompareCommand } from "./compareCommand";
 
@@ -30,7 +30,7 @@ flow_rate, or piston_speed with barrel_diameter, or mass_rate with density; temp
 `;
 
 /** Runs the command line; returns the process exit code (0 ok, 1 bad input, 2 usage, 3 lot not passed by `compare`). */
-// `reduce --out FILE.xlsx` returns a Promise (the workbook is written asynchronously); every other path a number.
+// `reduce --out`/`--report` return a Promise (the files are written asynchronously); every other path a number.
 export function main(argv: string[], io: CliIO): number | Promise<number> {
   if (argv.length === 0 || argv[0] === "--help" || argv[0] === "-h" || argv[0] === "help") {
     io.stdout(USAGE);
@@ -50,9 +50,15 @@ export function main(argv: string[], io: CliIO): number | Promise<number> {
       io.stderr(`rheoledger reduce: give exactly one CSV file\n\n${USAGE}`);
       return 2;
     }
-    const out = runReduce(readInputFile(io, file), args);
-    const outPath = args.flags.get("out");
-    if (typeof outPath === "string") return writeResultsFile(out, file, outPath, io, args.flags.has("json"));
+    const text = readInputFile(io, file);
+    // output paths and --meta are checked before the reduction: a refused file costs no work
+    const plan = planOutputs(args, file, io);
+    if ("usage" in plan) {
+      io.stderr(`rheoledger: ${plan.usage}\n`);
+      return 2;
+    }
+    const out = runReduce(text, args);
+    if (plan.out !== undefined || plan.report !== undefined) return writeReduceOutputs(out, { file, text, args, argv, io, plan });
     io.stdout(out.stdout);
     return 0;
   } catch (e) {

@@ -6,7 +6,7 @@ import { RheoError, Warning } from "../core/errors";
 import { groupLabel, type ReductionGroup, type ReductionResult, type ReduceOptions } from "../core/reduce";
 import { runReduction, type ReductionRun } from "../core/run";
 import { parseCsv } from "../io/csv";
-import { readRawTable } from "../io/rawTable";
+import { readRawTable, type RawTable } from "../io/rawTable";
 import { CLI_SETTINGS_SOURCE, readReduceSettings, reduceSetting, reduceSettingOfFlag, type ReduceRequest } from "../io/reduceOptions";
 import { reduceSettingFlags } from "../io/reduceSettingWords";
 import { FlagSpec, ParsedArgs } from "./args";
@@ -19,7 +19,10 @@ import { shiftSummary, withFitJson } from "./fitReport";
 /** Flags of `reduce` that choose what is printed or written (not reduce settings). */
 export const REDUCE_OUTPUT_FLAGS: Record<string, FlagSpec> = {
   json: { value: false, description: "print one JSON document in SI units instead of tables" },
-  out: { value: true, description: "also write the results workbook (xlsx: summary, Bagley, flow curve, fits, warnings) to FILE" },
+  out: { value: true, description: "also write the results workbook (xlsx: every table, charts, method record) to FILE.xlsx" },
+  report: { value: true, description: "also write a self-contained HTML report (tables, charts, method record; prints to PDF) to FILE.html" },
+  meta: { value: true, description: "JSON file of test-report items for the method record (material, conditioning, preheatTime, dieEntryAngle, ...; docs/workbooks.md)" },
+  force: { value: false, description: "replace an existing --out or --report file (never an input file, never through a link)" },
   summary: { value: false, description: "print a short summary (with model fits) instead of the full tables" },
 };
 
@@ -35,6 +38,8 @@ export interface CommandOutput {
   request: ReduceRequest;
   /** warnings from reading the file */
   inputWarnings: Warning[];
+  /** the input table as read (its columns, rows used and skipped) */
+  raw: RawTable;
 }
 
 /** The reduce settings given as flags, by setting key (output flags left out). */
@@ -145,7 +150,7 @@ export function warningsText(warnings: Warning[]): string {
 export function runReduce(text: string, args: ParsedArgs): CommandOutput {
   const request = reduceRequestFromFlags(args);
   const raw = readCsvMeasurements(text, request.input);
-  const wantsRanking = args.flags.has("summary") || args.flags.has("out");
+  const wantsRanking = args.flags.has("summary") || args.flags.has("out") || args.flags.has("report");
   let run: ReductionRun;
   try {
     run = runReduction(raw.measurements, request.options, { ...request.fits, rank: wantsRanking }, raw.warnings);
@@ -158,5 +163,5 @@ export function runReduce(text: string, args: ParsedArgs): CommandOutput {
     : args.flags.has("summary")
       ? reductionSummary(run) + shiftSummary(run)
       : reductionText(run) + warningsText(run.warnings);
-  return { stdout, run, result, options: request.options, request, inputWarnings: raw.warnings };
+  return { stdout, run, result, options: request.options, request, inputWarnings: raw.warnings, raw };
 }
