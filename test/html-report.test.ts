@@ -58,8 +58,8 @@ describe("reduce --report report.html (every option on)", () => {
 
   it("holds the summary, every result table, the warnings and the method record, text escaped", () => {
     const tables = [...r.html.matchAll(/<table data-table="([^"]+)"/g)].map((m) => m[1]);
-    expect(tables[0]).toBe("summary");
-    for (const id of ["bagley", "flowCurve", "viscosityModel", "fits", "shift", "shiftFactors", "master", "extensional", "heating", "pressureDependence", "meltFlowRate", "warnings", "methodRun", "settings", "equations", "reportItems", "methodWarnings"]) expect(tables).toContain(id);
+    expect(tables[0]).toBe("groups");
+    for (const id of ["bagley", "bagleyPoints", "flowCurve", "rabinowitsch", "viscosityModel", "fitRanking", "fitParameters", "shift", "shiftConstants", "master", "extensional", "heating", "pressureDependence", "meltFlowRate", "warnings", "methodRun", "settings", "equations", "reportItems", "methodWarnings"]) expect(tables).toContain(id);
     // one flow-curve table per group, one row per point of the JSON
     const flow = [...r.html.matchAll(/<table data-table="flowCurve">(.*?)<\/table>/gs)].map((m) => (m[1]?.match(/<tr>/g) ?? []).length - 1);
     expect(flow).toEqual(doc.groups.map((g) => g.flowCurve.length));

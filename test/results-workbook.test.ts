@@ -22,6 +22,7 @@ import { CREAM_YIELD } from "../scripts/demo/creamYield";
 import { expectClose } from "./helpers/expectClose";
 import { SHEET_SPECS, compareSheet } from "./helpers/resultsJson";
 import { EVERY_OPTION, FORMULA_LIKE, newtonianCsv } from "./helpers/resultsCases";
+import { modelName, parameterSymbol } from "../src/io/displayNames";
 import pkg from "../package.json";
 
 const ROOT = path.join(__dirname, "..");
@@ -100,24 +101,29 @@ describe("reduce --out with every option on (film grade: shift, representative r
     expect(doc.groups).toHaveLength(3);
   });
 
-  it("holds every result: Summary first, Charts second, a sheet per result table, Method last", () => {
+  it("holds every result: the groups first, Charts second, a sheet per result table, Method last", () => {
     expect(run.wb.worksheets.map((w) => w.name)).toEqual([
-      "Summary", "Charts", "Bagley end correction", "Bagley plot data", "Flow curve", "Viscosity and model", "Rabinowitsch correction", "Model fits", "Temperature shift", "Shift factors",
-      "Master curve at 210 °C", "Extensional viscosity", "Viscous heating", "Pressure dependence", "Melt-flow-rate point", "Warnings", "Method",
+      "Groups reduced", "Charts", "Bagley end correction", "Bagley plot data", "Flow curve", "Rabinowitsch correction", "Viscosity and model", "Extensional viscosity", "Viscous heating", "Pressure dependence",
+      "Melt-flow-rate point", "Model fits, ranking by AIC", "Model fits, parameters", "Temperature shift", "Temperature shift, constants", "Master curve at 210 °C", "Warnings", "Method",
     ]);
   });
 
-  it("every table sheet: a bold title row, one header row with a unit on every number column, frozen, filtered", () => {
-    for (const ws of run.wb.worksheets.filter((w) => !["Charts", "Method"].includes(w.name))) {
+  it("every table sheet: a bold title row, one header row, frozen, filtered; units in one spelling each", () => {
+    const units = new Set<string>();
+    for (const ws of run.wb.worksheets.filter((w) => !["Charts", "Chart data", "Method"].includes(w.name))) {
       expect(ws.getCell(1, 1).font?.bold).toBe(true);
       expect(ws.views[0]).toMatchObject({ state: "frozen", ySplit: 2 });
       expect(ws.autoFilter).toBeDefined();
-      const header = sheetRows(run.wb, ws.name)[1] as unknown[];
-      header.forEach((h, c) => {
-        const numbers = sheetRows(run.wb, ws.name).slice(2).filter((r) => typeof r[c] === "number").length;
-        if (numbers > 0 && h !== null) expect(`${ws.name}: ${String(h)}`).toMatch(/ \[[^\]]+\]$/);
-      });
+      for (const h of sheetRows(run.wb, ws.name)[1] ?? []) {
+        expect(typeof h).toBe("string");
+        const unit = / \[([^\]]+)\]$/.exec(String(h))?.[1];
+        if (unit) units.add(unit);
+      }
     }
+    // one spelling per unit: never "Pa.s", "Pa s", "C", "1/sec", "mm3/s"
+    expect([...units].sort()).toEqual(["%", "1/GPa", "1/s", "K", "Pa·s", "bar", "kPa", "mm", "mm³/s", "°C"]);
+    const flow = sheetRows(run.wb, "Flow curve")[1];
+    expect(flow?.slice(0, 7)).toEqual(["Group", "Apparent shear rate [1/s]", "Wall shear stress [kPa]", "n′", "True wall shear rate [1/s]", "Viscosity [Pa·s]", "Apparent viscosity [Pa·s]"]);
   });
 
   it("the numbers equal the JSON document of the same run, in the units of their headers", () => {
@@ -131,43 +137,52 @@ describe("reduce --out with every option on (film grade: shift, representative r
   });
 
   it("fit parameters with intervals (--model) and the ranked comparison (--compare) equal the JSON", () => {
-    const rows = sheetRows(run.wb, "Model fits").slice(2).filter((r) => typeof r[0] === "string" && typeof r[9] === "string");
+    const rows = sheetRows(run.wb, "Model fits, parameters").slice(2);
+    const ranking = sheetRows(run.wb, "Model fits, ranking by AIC").slice(2);
     doc.groups.forEach((g, i) => {
-      const scope = sheetRows(run.wb, "Summary")[2 + i]?.[0] as string;
-      const fit = g.fit as { parameters: Record<string, number>; confidenceIntervals: Record<string, [number, number]> };
+      const scope = sheetRows(run.wb, "Groups reduced")[2 + i]?.[0] as string;
+      const fit = g.fit as { model: string; parameters: Record<string, number>; confidenceIntervals: Record<string, [number, number]> };
       for (const [name, value] of Object.entries(fit.parameters)) {
-        const r = rows.find((x) => x[0] === scope && x[1] === "--model" && x[9] === name) as unknown[];
-        expectClose(r[11] as number, value, SAME, `${scope} --model ${name}`);
+        const r = rows.find((x) => x[0] === scope && x[1] === modelName(fit.model) && x[2] === null && x[3] === parameterSymbol(name)) as unknown[];
+        expectClose(r[5] as number, value, SAME, `${scope} --model ${name}`);
         const ci = fit.confidenceIntervals[name];
         if (ci) {
-          expectClose(r[13] as number, ci[0], SAME, `${scope} ${name} low`);
-          expectClose(r[14] as number, ci[1], SAME, `${scope} ${name} high`);
+          expectClose(r[7] as number, ci[0], SAME, `${scope} ${name} low`);
+          expectClose(r[8] as number, ci[1], SAME, `${scope} ${name} high`);
         }
       }
-      for (const ranked of (g.compare as { ranked: { model: string; aic: number; parameters: Record<string, number> }[] }).ranked) {
+      (g.compare as { ranked: { model: string; aic: number; parameters: Record<string, number> }[] }).ranked.forEach((ranked, k) => {
         for (const [name, value] of Object.entries(ranked.parameters)) {
-          const r = rows.find((x) => x[0] === scope && String(x[1]).startsWith("--compare") && x[2] === ranked.model && x[9] === name) as unknown[];
-          expectClose(r[11] as number, value, SAME, `${scope} --compare ${ranked.model} ${name}`);
-          expectClose(r[3] as number, ranked.aic, SAME, `${scope} AIC ${ranked.model}`);
+          const r = rows.find((x) => x[0] === scope && x[1] === modelName(ranked.model) && x[2] === k + 1 && x[3] === parameterSymbol(name)) as unknown[];
+          expectClose(r[5] as number, value, SAME, `${scope} --compare ${ranked.model} ${name}`);
         }
-      }
+        const line = ranking.find((x) => x[0] === scope && x[1] === k + 1) as unknown[];
+        expect(line[2]).toBe(modelName(ranked.model));
+        expectClose(line[3] as number, ranked.aic, SAME, `${scope} AIC ${ranked.model}`);
+      });
     });
   });
 
-  it("the shift sheet holds Ea (kJ/mol) with its standard error and the reference temperature; the master curve aT·rate and η/aT", () => {
+  it("the shift constants sheet holds Ea (kJ/mol) with its standard error and the reference temperature; the master curve aT·rate and η/aT", () => {
     const shift = doc.shift as { activationEnergy: number; activationEnergyStandardError: number; referenceTemperature: number; factors: { temperature: number; aT: number }[] };
-    const rows = sheetRows(run.wb, "Temperature shift");
-    expect(rows[1]).toEqual(["Constant", "Value [-]", "Standard error [-]", "Unit"]);
+    const rows = sheetRows(run.wb, "Temperature shift, constants");
+    expect(rows[1]).toEqual(["Constant", "Value", "Standard error", "Unit"]);
+    expect(rows[2]?.[0]).toBe("Activation energy Ea");
     expectClose(rows[2]?.[1] as number, shift.activationEnergy / 1e3, SAME, "Ea");
     expectClose(rows[2]?.[2] as number, shift.activationEnergyStandardError / 1e3, SAME, "SE of Ea");
     expect(rows[2]?.[3]).toBe("kJ/mol");
     expectClose(rows[3]?.[1] as number, shift.referenceTemperature - 273.15, SAME, "Tref");
     const master = sheetRows(run.wb, "Master curve at 210 °C").slice(2);
-    expect(master).toHaveLength(27);
+    const points = doc.groups.reduce((n, g) => n + (g.flowCurve as unknown[]).length, 0);
+    expect(master).toHaveLength(points);
+    const flow = sheetRows(run.wb, "Flow curve").slice(2);
     for (const r of master) {
       const aT = shift.factors.find((f) => Math.abs(f.temperature - 273.15 - (r[0] as number)) < 1e-9)?.aT as number;
-      expectClose(r[3] as number, aT * (r[1] as number), SAME, "aT·rate");
-      expectClose(r[4] as number, (r[2] as number) / aT, SAME, "η/aT");
+      expectClose(r[1] as number, aT, SAME, "aT");
+      // each reduced point is a measured point of the flow curve at that temperature
+      const measured = flow.find((f) => String(f[0]).startsWith(`${r[0]} °C`) && Math.abs((f[4] as number) * aT - (r[2] as number)) <= 1e-12 * (r[2] as number));
+      if (!measured) throw new Error(`master point ${String(r[2])} at ${String(r[0])} °C is no measured point`);
+      expectClose(r[3] as number, (measured[5] as number) / aT, { rel: 1e-12, abs: 0 }, "η/aT");
     }
   });
 
@@ -178,7 +193,7 @@ describe("reduce --out with every option on (film grade: shift, representative r
     expect(ws.getCell(3, 4).numFmt).toBe("0.000");
     expect(ws.getCell(3, 6).numFmt).toBe("0");
     expect(ws.getCell(3, 2).numFmt).toBe("0"); // 18 1/s: a whole number
-    expect((run.wb.getWorksheet("Bagley end correction") as ExcelJS.Worksheet).getCell(3, 7).numFmt).toBe("0.00000");
+    expect((run.wb.getWorksheet("Bagley end correction") as ExcelJS.Worksheet).getCell(3, 6).numFmt).toBe("0.000000"); // R², 6 figures
     for (let c = 1; c <= ws.columnCount; c++) {
       const width = ws.getColumn(c).width as number;
       expect(width).toBeGreaterThanOrEqual(8);
@@ -195,17 +210,22 @@ describe("reduce --out with every option on (film grade: shift, representative r
     expect(record.Program).toBe(`Rheoledger ${pkg.version} (command line)`);
     expect(String(record["Date and time (UTC)"])).toMatch(new RegExp(`^${new Date().toISOString().slice(0, 4)}-\\d\\d-\\d\\d \\d\\d:\\d\\d:\\d\\d UTC$`));
     expect(String(record.Command)).toContain('--tref "210 C"');
-    const settings = Object.fromEntries(methodBlock(run.wb, "Settings").slice(1).map((r) => [r[0], r[1]]));
-    expect(settings.endCorrection).toBe("bagley");
-    expect(settings["rabinowitsch.method"]).toBe("transition");
+    const settings = Object.fromEntries(methodBlock(run.wb, "Settings").slice(1).map((r) => [r[0], [r[1], r[2]]]));
+    expect(settings["End correction"]).toEqual(["bagley", "default"]);
+    expect(settings["Rabinowitsch slope method"]).toEqual(["transition", "default"]);
+    expect(settings["Temperature shift"]).toEqual(["arrhenius", "--shift"]);
+    expect(settings["Reference temperature"]).toEqual(["210 C", "--tref"]);
+    expect(settings["Wall slip (Mooney)"]).toEqual(["off", "default"]);
     const steps = methodBlock(run.wb, "Equations").slice(1).map((r) => r[0]);
     expect(steps).toEqual(expect.arrayContaining(["Bagley end correction", "Rabinowitsch correction", "Extensional viscosity", "Viscous heating", "Pressure dependence", "Temperature shift", "Model cross"]));
     // the same warnings as the Warnings sheet, most serious first, each with its severity; the JSON's among them
     const warnings = methodBlock(run.wb, "Warnings").slice(1);
     const sheet = sheetRows(run.wb, "Warnings").slice(2).filter((r) => r[0] !== null && !String(r[0]).startsWith("Note"));
-    expect(warnings.map((w) => w[1]).sort()).toEqual(sheet.map((w) => w[0]).sort());
+    expect(warnings.map((w) => w[1]).sort()).toEqual(sheet.map((w) => w[1]).sort());
     expect(warnings.map((w) => ["serious", "caution", "info"].indexOf(w[0] as string))).toEqual([...warnings.map((w) => ["serious", "caution", "info"].indexOf(w[0] as string))].sort());
-    for (const w of JSON.parse(run.stdout).warnings as { code: string; message: string }[]) expect(sheet.some((r) => r[0] === w.code && r[3] === w.message)).toBe(true);
+    const json = JSON.parse(run.stdout).warnings as { code: string; message: string }[];
+    expect(sheet.length).toBe(json.length + sheet.filter((r) => r[1] === "RESULT_NOT_FINITE").length);
+    for (const w of json) expect(sheet.some((r) => r[1] === w.code && r[3] === w.message)).toBe(true);
     const items = Object.fromEntries(methodBlock(run.wb, "Test report items").slice(1).map((r) => [r[3], r]));
     expect(items.material?.slice(1, 3)).toEqual(["invented film grade QF-207, lot 7", "metadata"]);
     expect(items.testTemperatures?.slice(1, 3)).toEqual(["190, 210, 230 °C", "data"]);
@@ -296,15 +316,13 @@ describe("a singular fit (an ideal Newtonian liquid fitted with Carreau and Cros
     }
   });
 
-  it("writes the undetermined standard errors as empty cells with a note, a RESULT_NOT_FINITE warning, and no NaN in the file", async () => {
-    const fits = sheetRows(run.wb, "Model fits");
-    const carreau = fits.slice(2).filter((r) => r[2] === "carreau" && r[15] === false);
+  it("writes the undetermined standard errors and intervals as empty cells, warns SINGULAR_COVARIANCE, and has no NaN in the file", async () => {
+    const fits = sheetRows(run.wb, "Model fits, parameters");
+    const carreau = fits.slice(2).filter((r) => r[1] === "Carreau" && r[9] === false);
     expect(carreau.length).toBeGreaterThan(0);
-    for (const r of carreau) expect(r[12]).toBeNull();
-    expect(fits.flat().some((v) => typeof v === "string" && /"Standard error" is empty in rows? [\d, –]+ of this table: the value was not a finite number/.test(v))).toBe(true);
-    const warnings = sheetRows(run.wb, "Warnings").slice(2).map((r) => r[0]);
-    expect(warnings).toEqual(expect.arrayContaining(["SINGULAR_COVARIANCE", "RESULT_NOT_FINITE"]));
-    expect(run.stderr).toContain("rheoledger: warning [RESULT_NOT_FINITE] Model fits:");
+    for (const r of carreau) expect(r.slice(6, 9)).toEqual([null, null, null]);
+    const warnings = sheetRows(run.wb, "Warnings").slice(2).map((r) => r[1]);
+    expect(warnings).toContain("SINGULAR_COVARIANCE");
     for (const x of await sheetXml(run.zip)) expect(x).not.toMatch(/<v>(NaN|-?Infinity)<\/v>/);
   });
 });
@@ -333,7 +351,7 @@ describe("resultsWorkbookBytes(content) on hand-made tables", () => {
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.load(Buffer.from(bytes) as unknown as ArrayBuffer);
     const names = wb.worksheets.map((w) => w.name);
-    expect(names).toEqual(["A very long title- with -bracke", "Charts", "A very long title- with -brac 2", "Chart data"]);
+    expect(names).toEqual(["A very long title, with -bracke", "Charts", "A very long title, with -brac 2", "Chart data"]);
     const data = sheetRows(wb, "Chart data");
     expect(data[0]?.[0]).toBe("Flow curve: a");
     expect(data.slice(2, 4).map((r) => [r[0], r[1]])).toEqual([[1, 10], [3, 30]]);
@@ -345,9 +363,9 @@ describe("results workbook of the invented yield-stress cream", () => {
     const run = await runOut(path.join(ROOT, "workbooks/demo-cream-yield.csv"), ["--summary"]);
     expect(run.code).toBe(0);
     expect(run.stdout).toContain("best fit herschel-bulkley");
-    expect(sheetRows(run.wb, "Summary")[2]?.[11]).toBe("herschel-bulkley");
-    const rows = sheetRows(run.wb, "Model fits").filter((r) => r[2] === "herschel-bulkley" && r[4] === 0);
-    const value = (name: string) => rows.find((r) => r[9] === name)?.[11] as number;
+    expect(sheetRows(run.wb, "Groups reduced")[2]?.[9]).toBe("Herschel–Bulkley");
+    const rows = sheetRows(run.wb, "Model fits, parameters").filter((r) => r[1] === "Herschel–Bulkley" && r[2] === 1);
+    const value = (name: string) => rows.find((r) => r[3] === parameterSymbol(name))?.[5] as number;
     // tolerances: 0.8 % pressure noise through Bagley and Rabinowitsch (measured: 3 %, 6 %, 2 %)
     expectClose(value("tauY"), CREAM_YIELD.tauY, { rel: 0.1 }, "tauY");
     expectClose(value("K"), CREAM_YIELD.K, { rel: 0.1 }, "K");

@@ -195,7 +195,8 @@ maybe("second readers: openpyxl and LibreOffice open every workbook the project 
   it("LibreOffice shows every number with its column's significant figures (the number formats render as the report writes them)", () => {
     const raw = sheet(xlsx("every"), "Flow curve").values;
     const shown = loSheet("shown", xlsx("every"), "Flow curve");
-    const digits: Record<string, number> = { "n′ [-]": 3, "Representative vs Rabinowitsch [%]": 2, "± wall shear stress (k = 2) [kPa]": 2, "± true wall shear rate (k = 2) [1/s]": 2, "± viscosity (k = 2) [Pa·s]": 2 };
+    // the figures each column asks for (src/io/resultTables.ts): 4 unless listed
+    const digits: Record<string, number> = { "n′": 3, "Representative vs Rabinowitsch [%]": 3, "± wall shear stress (k = 2) [kPa]": 2, "± true wall rate (k = 2) [1/s]": 2, "± viscosity (k = 2) [Pa·s]": 2 };
     let n = 0;
     raw.slice(2).forEach((r, i) => r.forEach((v, j) => {
       if (typeof v !== "number") return;

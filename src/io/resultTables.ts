@@ -425,7 +425,11 @@ function masterTable(run: ReductionRun): ResultTable | null {
     id: "master",
     title: `Master curve at ${Number((m.referenceTemperature - 273.15).toPrecision(5))} °C`,
     columns: [num("temperature", "Measured at", "°C"), num("aT", "aT", "", 4), num("reducedShearRate", "aT × shear rate", "1/s"), num("reducedViscosity", "Viscosity / aT", "Pa·s")],
-    rows: m.shearRate.map((rate, k) => [celsius(m.temperature[k] as number), v(m.aT[k]), v(rate), v(m.viscosity[k])]),
+    // by measured temperature, then rate: each temperature's points together
+    rows: m.shearRate
+      .map((rate, k) => ({ k, rate, t: m.temperature[k] as number }))
+      .sort((a, b) => a.t - b.t || a.rate - b.rate)
+      .map(({ k, rate, t }) => [celsius(t), v(m.aT[k]), v(rate), v(m.viscosity[k])]),
     chart: { kind: "master", x: "reducedShearRate", y: ["reducedViscosity"], logX: true, logY: true, seriesBy: "temperature" },
   };
 }

@@ -47,7 +47,7 @@ const SEVERITY_FILL: Record<string, ExcelJS.Fill> = {
 
 /** A sheet name Excel accepts (≤ 31 characters, none of []:*?/\), unique among `taken`. */
 export function sheetName(title: string, taken: Set<string>): string {
-  const base = (xmlSafeText(title).split(" (")[0] as string).replace(/[[\]:*?/\\]/g, "-").replace(/^'+|'+$/g, "").trim().slice(0, 31) || "Sheet";
+  const base = (xmlSafeText(title).split(" (")[0] as string).replace(/: /g, ", ").replace(/[[\]:*?/\\]/g, "-").replace(/^'+|'+$/g, "").trim().slice(0, 31) || "Sheet";
   let name = base;
   for (let k = 2; [...taken].some((t) => t.toLowerCase() === name.toLowerCase()); k++) name = `${base.slice(0, 31 - String(k).length - 1)} ${k}`;
   taken.add(name);

@@ -33,14 +33,14 @@ export const SHEET_SPECS: SheetSpec[] = [
     rows: each("flowCurve"),
     columns: {
       "Apparent shear rate": "shearRateApparent", "Wall shear stress": "wallShearStress", "n′": "nPrime", "True wall shear rate": "shearRateWall", Viscosity: "viscosity", "Apparent viscosity": "viscosityApparent",
-      "Representative shear rate": "shearRateRepresentative", "Representative viscosity": "viscosityRepresentative", "Representative vs Rabinowitsch": "representativeDeviation",
-      "± wall shear stress (k = 2)": "wallShearStressUncertainty", "± true wall shear rate (k = 2)": "shearRateWallUncertainty", "± viscosity (k = 2)": "viscosityUncertainty",
+      "Representative rate": "shearRateRepresentative", "Representative viscosity": "viscosityRepresentative", "Representative vs Rabinowitsch": "representativeDeviation",
+      "± wall shear stress (k = 2)": "wallShearStressUncertainty", "± true wall rate (k = 2)": "shearRateWallUncertainty", "± viscosity (k = 2)": "viscosityUncertainty",
     },
   },
   {
     sheet: "Bagley end correction",
     rows: each("bagley"),
-    columns: { "Apparent shear rate": "shearRateApparent", "Wall shear stress": "wallShearStress", "Entrance pressure": "entrancePressure", "End correction e": "endCorrection", "R²": "r2", "Dies used": "diesUsed" },
+    columns: { "Apparent shear rate": "shearRateApparent", "Wall shear stress": "wallShearStress", "Entrance pressure": "entrancePressure", "End correction e": "endCorrection", "R²": "r2", Dies: "diesUsed" },
   },
   {
     sheet: "Extensional viscosity",
@@ -50,7 +50,7 @@ export const SHEET_SPECS: SheetSpec[] = [
   {
     sheet: "Viscous heating",
     rows: (doc) => groups(doc).flatMap((g) => ((g.heating as { rows: Row[] } | undefined)?.rows ?? [])),
-    columns: { "Apparent shear rate": "shearRateApparent", "Die pressure": "pressure", "Adiabatic rise": "adiabaticTemperatureRise", "Nahme–Griffith number": "nahmeNumber" },
+    columns: { "Apparent shear rate": "shearRateApparent", Pressure: "pressure", "Adiabatic rise": "adiabaticTemperatureRise", "Nahme–Griffith number": "nahmeNumber" },
   },
   {
     sheet: "Pressure dependence",
@@ -58,26 +58,27 @@ export const SHEET_SPECS: SheetSpec[] = [
     columns: { "Apparent shear rate": "shearRateApparent", β: "pressureCoefficient", "Wall shear stress at p = 0": "wallShearStressAtZeroPressure", "Entrance pressure": "entrancePressure", "ln viscosity rise": "logViscosityRise", Dies: "diesUsed" },
   },
   {
-    sheet: "Shift factors",
+    sheet: "Temperature shift",
     rows: (doc) => ((doc.shift as { factors: Row[] } | undefined)?.factors ?? []),
-    columns: { Temperature: "temperature", aT: "aT" },
+    columns: { Temperature: "temperature", "Shift factor aT": "aT" },
   },
   {
     sheet: "Wall slip",
     rows: (doc) => (doc.slip as Row[] | undefined) ?? [],
-    columns: { Temperature: "temperature", "Wall shear stress": "wallShearStress", "Slip velocity": "slipVelocity", "Std. error of slip velocity": "slipVelocityStandardError", "Slip-corrected apparent rate": "shearRateApparentCorrected", "n′": "nPrime", "True wall shear rate": "shearRateWall", Viscosity: "viscosity", "R²": "r2" },
+    columns: { Temperature: "temperature", "Wall shear stress": "wallShearStress", "Slip velocity": "slipVelocity", "± slip velocity (1 s.e.)": "slipVelocityStandardError", "Slip-corrected apparent rate": "shearRateApparentCorrected", "True wall shear rate": "shearRateWall", Viscosity: "viscosity", "R²": "r2" },
   },
   {
     sheet: "Melt-flow-rate point",
     rows: (doc) => (doc.meltFlowRate ? [doc.meltFlowRate as Row] : []),
-    columns: { "Flow rate": "flowRate", Pressure: "pressure", "Apparent shear rate": "shearRateApparent", "Apparent wall shear stress": "wallShearStressApparent", "Apparent viscosity": "viscosityApparent" },
+    columns: { "Flow rate": "flowRate", Pressure: "pressure", "Apparent shear rate": "shearRateApparent", "Apparent wall stress": "wallShearStressApparent", "Apparent viscosity": "viscosityApparent" },
   },
 ];
 
-/** "Viscosity [Pa·s]" → ["Viscosity", "Pa·s"]. */
+/** "Viscosity [Pa·s]" → ["Viscosity", "Pa·s"]; a header without a unit is dimensionless: "R²" → ["R²", "-"]. */
 function splitHeader(h: unknown): [string, string] | null {
-  const m = /^(.*) \[([^\]]*)\]$/.exec(String(h ?? ""));
-  return m ? [m[1] as string, m[2] as string] : null;
+  if (h === null || h === undefined || h === "") return null;
+  const m = /^(.*) \[([^\]]*)\]$/.exec(String(h));
+  return m ? [m[1] as string, m[2] as string] : [String(h), "-"];
 }
 
 /** A cell as a number (LibreOffice's CSV gives text), null when empty. */
