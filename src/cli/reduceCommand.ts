@@ -13,7 +13,7 @@ import { FlagSpec, ParsedArgs } from "./args";
 import { num, resultTableText } from "./format";
 import { reductionSummary } from "./summary";
 import { flowCurveExtrasJson, groupExtrasJson, topExtrasJson } from "./methodFlags";
-import { resultTables } from "../io/resultTables";
+import { CHART_DATA_TABLES, resultTables } from "../io/resultTables";
 import { shiftSummary, withFitJson } from "./fitReport";
 
 /** Flags of `reduce` that choose what is printed or written (not reduce settings). */
@@ -128,7 +128,7 @@ function groupHeading(g: ReductionGroup): string {
  * tables across groups; warnings apart ({@link warningsText}).
  */
 export function reductionText(run: ReductionRun): string {
-  const tables = resultTables(run).filter((t) => t.id !== "groups" && t.id !== "warnings");
+  const tables = resultTables(run).filter((t) => t.id !== "groups" && t.id !== "warnings" && !CHART_DATA_TABLES.has(t.id));
   const out: string[] = [];
   for (const g of run.result.groups) {
     out.push(groupHeading(g), "");

@@ -49,6 +49,13 @@ export interface ResultTable {
   chart?: { kind: "bagley" | "flowCurve" | "viscosity" | "nPrime" | "master"; x: string; y: string[]; logX?: boolean; logY?: boolean; seriesBy?: string };
 }
 
+/**
+ * Tables that mostly carry the points of a chart (the Bagley plot's points and lines, the n′ curve,
+ * the master curve): the workbook and the report show them with their charts; terminal text leaves
+ * them out (their numbers are in the other tables or the input).
+ */
+export const CHART_DATA_TABLES: ReadonlySet<string> = new Set(["bagleyPoints", "rabinowitsch", "master"]);
+
 /** A header with its unit the way every surface prints it: "Wall shear stress [kPa]". */
 export function headerWithUnit(c: Pick<ResultColumn, "header" | "unit">): string {
   return c.unit === "" ? c.header : `${c.header} [${c.unit}]`;
@@ -199,7 +206,8 @@ function rabinowitschTable(g: ReductionGroup): ResultTable {
 
 /** Measured viscosity beside the lowest-AIC model of the group's ranking, at the measured rates. */
 function viscosityModelTable(run: ReductionRun, g: ReductionGroup, i: number): ResultTable | null {
-  const best = run.comparisons?.[i]?.ranked[0];
+  if (!run.comparisons) return null;
+  const best = run.comparisons[i]?.ranked[0];
   const points = g.flowCurve.filter((f) => f.shearRateWall !== null && f.viscosity !== null) as { shearRateWall: number; viscosity: number }[];
   if (points.length === 0) return null;
   const model = best ? evaluateModel(best.model, best.result.parameters, points.map((p) => p.shearRateWall)) : null;
