@@ -186,6 +186,27 @@ describe("reduce --out with every option on (film grade: shift, representative r
     }
   });
 
+  it("Bagley plot data: each line passes through ΔP = 2τ_w·L/R + ΔP_ent (Bagley 1957) and reaches zero at L/R = −e; the Rabinowitsch factor is (3n′ + 1)/(4n′)", () => {
+    const lines = sheetRows(run.wb, "Bagley end correction").slice(2);
+    const points = sheetRows(run.wb, "Bagley plot data").slice(2).filter((r) => typeof r[1] === "number");
+    expect(points).toHaveLength(lines.length * 4); // per rate: the zero-pressure point and three dies
+    for (const p of points) {
+      const line = lines.find((l) => l[0] === p[0] && l[1] === p[1]) as unknown[];
+      const [tau, entrance, e] = [line[2] as number, line[3] as number, line[4] as number];
+      // kPa and bar: ΔP [bar] = (2·τ_w[kPa]·1e3·L/R)/1e5 + ΔP_ent [bar]
+      expectClose(p[5] as number, (2 * tau * 1e3 * (p[3] as number)) / 1e5 + entrance, { rel: 1e-9, abs: 1e-9 }, `line at ${String(p[1])} 1/s, L/R ${String(p[3])}`);
+      if (p[2] === "line at zero pressure") {
+        expectClose(p[3] as number, -e, SAME, "L/R = −e");
+        expect(p[4]).toBeNull();
+      } else expect(typeof p[4]).toBe("number");
+    }
+    for (const r of sheetRows(run.wb, "Rabinowitsch correction").slice(2).filter((x) => typeof x[1] === "number")) {
+      const n = r[2] as number;
+      expectClose(r[3] as number, (3 * n + 1) / (4 * n), SAME, "factor");
+      expectClose(r[4] as number, (r[3] as number) * (r[1] as number), { rel: 1e-12, abs: 0 }, "true rate = factor × apparent rate");
+    }
+  });
+
   it("shows each number with its column's significant figures (4 by default; n′ 3; R² 5) and fits the widths", () => {
     const ws = run.wb.getWorksheet("Flow curve") as ExcelJS.Worksheet;
     // row 3: 190 °C, 18 1/s; wall shear stress 32.2875 kPa → "32.29"; n′ 0.4233 → "0.423"; η 1337.99 → "1338"
