@@ -26,7 +26,8 @@ import { CREAM_YIELD, creamViscosity } from "../scripts/demo/creamYield";
 import { FILM_GRADE, filmGradeViscosity } from "../scripts/demo/filmGrade";
 import { PASTE_SLIP, pasteSlipRows, pasteSlipVelocity, pasteViscosity } from "../scripts/demo/pasteSlip";
 import { expectClose } from "./helpers/expectClose";
-import { BOOLEAN_LITERALS, RHEO_FUNCTIONS, clearArraySizes, declareArraySize, implementationOf, registerRheoFunctions } from "./helpers/hyperformulaRheo";
+import { BOOLEAN_LITERALS, RHEO_FUNCTIONS, clearArraySizes, declareArraySize, excelFormulaText, implementationOf, registerRheoFunctions } from "./helpers/hyperformulaRheo";
+import { storedFunctionName } from "../scripts/workbooks/functionTable";
 
 const ROOT = path.join(__dirname, "..");
 
@@ -41,7 +42,10 @@ interface FormulaCell {
   sheet: number;
   row: number; // 0-based
   col: number; // 0-based
+  /** the formula with add-in names as the add-in registers them (RHEO.NAME), without "=" */
   formula: string;
+  /** the formula as stored in the file (RHEO functions as _xldudf_RHEO_NAME) */
+  stored: string;
   width: number;
   height: number;
   /** cached values over the formula's range, row-major */
@@ -105,9 +109,10 @@ async function loadBook(file: string): Promise<LoadedBook> {
             if (isArray) (grid[span.r0 + i] ??= [])[span.c0 + j] = null;
           }
         }
-        const formula = String((v as ExcelJS.CellFormulaValue).formula);
+        const stored = String((v as ExcelJS.CellFormulaValue).formula);
+        const formula = excelFormulaText(stored);
         (grid[r - 1] ??= [])[c - 1] = `=${formula}`;
-        formulas.push({ sheet, row: r - 1, col: c - 1, formula, width, height, cached });
+        formulas.push({ sheet, row: r - 1, col: c - 1, formula, stored, width, height, cached });
       });
     });
     contents[ws.name] = Array.from({ length: grid.length }, (_, i) => Array.from({ length: (grid[i] ?? []).length }, (_, j) => grid[i]?.[j] ?? null));
@@ -197,6 +202,17 @@ describe.each(WORKBOOK_SPECS)("workbooks/demo-$name.xlsx", (spec) => {
     const notes = book.hf.getSheetValues(2).flat().join("\n");
     expect(notes).toContain("INVENTED DATA");
     expect(statSync(file).size).toBeLessThan(200 * 1024);
+  });
+
+  it("stores every RHEO call as Excel stores add-in functions (_xldudf_RHEO_NAME), never as RHEO.NAME text", () => {
+    const rheo = book.formulas.filter((f) => f.formula.includes("RHEO."));
+    expect(rheo.length).toBeGreaterThan(8);
+    for (const f of book.formulas) expect(`${f.stored.slice(0, 60)}: ${/(^|[^_A-Za-z])RHEO\./.test(f.stored.replace(/"(?:[^"]|"")*"/g, ""))}`).toBe(`${f.stored.slice(0, 60)}: false`);
+    for (const f of rheo) {
+      const name = /^RHEO\.[A-Z0-9.]+/.exec(f.formula)?.[0] as string;
+      expect(f.stored.startsWith(`${storedFunctionName(name)}(`)).toBe(true);
+    }
+    expect(storedFunctionName("RHEO.FLOWRATE")).toBe("_xldudf_RHEO_FLOWRATE");
   });
 
   it("every formula evaluated by HyperFormula equals the value cached in the file", () => {

@@ -9,6 +9,7 @@ import { safeMessage } from "../io/safeText";
 import type { CliIO } from "./io";
 import { type CommandOutput, REDUCE_FLAGS, reduceRequestFromFlags, runReduce } from "./reduceCommand";
 import { readReduceInput } from "./reduceInput";
+import { planOutputs, writeReduceOutputs } from "./reduceOutputs";
 import { runPlanCommand } from "./planCommand";
 import { runCompareCommand } from "./compareCommand";
 import { CLI_VERSION } from "./version";
@@ -34,7 +35,7 @@ flow_rate, or piston_speed with barrel_diameter, or mass_rate with density; temp
 `;
 
 /** Runs the command line; returns the process exit code (0 ok, 1 bad input, 2 usage, 3 lot not passed by `compare`). */
-// `reduce` on a workbook or with `--out FILE.xlsx` returns a Promise (exceljs reads and writes
+// `reduce` on a workbook or with `--out`/`--report` returns a Promise (exceljs reads and writes
 // asynchronously); every other path a number.
 export function main(argv: string[], io: CliIO): number | Promise<number> {
   if (argv.length === 0 || argv[0] === "--help" || argv[0] === "-h" || argv[0] === "help") {
@@ -60,16 +61,19 @@ export function main(argv: string[], io: CliIO): number | Promise<number> {
       return 2;
     }
     const request = reduceRequestFromFlags(args);
+    // output paths and --meta are checked before the reduction: a refused file costs no work
+    const plan = planOutputs(args, file, io);
+    if ("usage" in plan) {
+      io.stderr(`rheoledger: ${plan.usage}\n`);
+      return 2;
+    }
     const started = performance.now();
     const input = readReduceInput(io, file, args, request.input);
     if (!(input instanceof Promise)) io.timing?.("read", performance.now() - started);
     const finish = (out: CommandOutput): number | Promise<number> => {
       io.timing?.("reduce", out.coreMs);
-      const outPath = args.flags.get("out");
-      // the workbook writer (and exceljs) is loaded only when a workbook is written
-      if (typeof outPath === "string") {
-        return import("./resultsFile").then(({ writeResultsFile }) => writeResultsFile(out, file, outPath, io, args.flags.has("json"))).catch((e: unknown) => failed(e, io));
-      }
+      // the writers (and exceljs) are loaded only when a file is written
+      if (plan.out !== undefined || plan.report !== undefined) return writeReduceOutputs(out, { file, args, argv, io, plan }).catch((e: unknown) => failed(e, io));
       io.stdout(out.stdout);
       return 0;
     };

@@ -14,13 +14,16 @@ import { FlagSpec, ParsedArgs } from "./args";
 import { num, resultTableText } from "./format";
 import { reductionSummary } from "./summary";
 import { flowCurveExtrasJson, groupExtrasJson, topExtrasJson } from "./methodFlags";
-import { resultTables } from "../io/resultTables";
+import { CHART_DATA_TABLES, resultTables } from "../io/resultTables";
 import { shiftSummary, withFitJson } from "./fitReport";
 
 /** Flags of `reduce` that choose what is read, printed or written (not reduce settings). */
 export const REDUCE_OUTPUT_FLAGS: Record<string, FlagSpec> = {
   json: { value: false, description: "print one JSON document in SI units instead of tables" },
-  out: { value: true, description: "also write the results workbook (xlsx: summary, Bagley, flow curve, fits, warnings) to FILE" },
+  out: { value: true, description: "also write the results workbook (xlsx: every table, charts, method record) to FILE.xlsx" },
+  report: { value: true, description: "also write a self-contained HTML report (tables, charts, method record; prints to PDF) to FILE.html" },
+  meta: { value: true, description: "JSON file of test-report items for the method record (material, conditioning, preheatTime, dieEntryAngle, ...; docs/workbooks.md)" },
+  force: { value: false, description: "replace an existing --out or --report file (never an input file, never through a link)" },
   summary: { value: false, description: "print a short summary (with model fits) instead of the full tables" },
   sheet: { value: true, description: "the sheet of an .xlsx input to read (default: the first sheet)" },
 };
@@ -127,7 +130,7 @@ export function inputText(input: ReduceInput): string {
  * tables across groups; warnings apart ({@link warningsText}).
  */
 export function reductionText(run: ReductionRun, input?: ReduceInput): string {
-  const tables = resultTables(run).filter((t) => t.id !== "groups" && t.id !== "warnings");
+  const tables = resultTables(run).filter((t) => t.id !== "groups" && t.id !== "warnings" && !CHART_DATA_TABLES.has(t.id));
   const out: string[] = [];
   if (input) out.push(inputText(input), "");
   for (const g of run.result.groups) {
@@ -151,7 +154,7 @@ export function warningsText(warnings: Warning[]): string {
  * the flags ({@link reduceRequestFromFlags}; its input part was used to read the table).
  */
 export function runReduce(raw: ReduceInput, args: ParsedArgs, request: ReduceRequest = reduceRequestFromFlags(args)): CommandOutput {
-  const wantsRanking = args.flags.has("summary") || args.flags.has("out");
+  const wantsRanking = args.flags.has("summary") || args.flags.has("out") || args.flags.has("report");
   let run: ReductionRun;
   const started = performance.now();
   try {

@@ -88,6 +88,9 @@ export const WARNING_CODES = Object.freeze({
   PLAN_BARREL_CAPACITY_EXCEEDED: "serious",
   LOT_NOTHING_COMPARED: "serious",
   LOT_POINTS_NOT_COMPARED: "info",
+
+  // Written results (workbook, report)
+  RESULT_NOT_FINITE: "caution",
 } satisfies Record<string, WarningSeverity>);
 
 /** A registered warning code. */

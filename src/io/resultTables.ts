@@ -13,7 +13,7 @@
 import type { Warning } from "../core/errors";
 import { groupLabel, type ReductionGroup } from "../core/reduce";
 import type { ReductionRun } from "../core/run";
-import { getModel } from "../core/models";
+import { evaluateModel, getModel } from "../core/models";
 import { displayUnit, modelName, parameterSymbol } from "./displayNames";
 
 /** One cell: a number in the column's unit, text, a flag, or null for an empty cell. */
@@ -49,8 +49,15 @@ export interface ResultTable {
   chart?: { kind: "bagley" | "flowCurve" | "viscosity" | "nPrime" | "master"; x: string; y: string[]; logX?: boolean; logY?: boolean; seriesBy?: string };
 }
 
+/**
+ * Tables that mostly carry the points of a chart (the Bagley plot's points and lines, the n′ curve,
+ * the master curve): the workbook and the report show them with their charts; terminal text leaves
+ * them out (their numbers are in the other tables or the input).
+ */
+export const CHART_DATA_TABLES: ReadonlySet<string> = new Set(["bagleyPoints", "rabinowitsch", "master"]);
+
 /** A header with its unit the way every surface prints it: "Wall shear stress [kPa]". */
-export function headerWithUnit(c: ResultColumn): string {
+export function headerWithUnit(c: Pick<ResultColumn, "header" | "unit">): string {
   return c.unit === "" ? c.header : `${c.header} [${c.unit}]`;
 }
 
@@ -124,7 +131,27 @@ function bagleyTable(g: ReductionGroup): ResultTable | null {
     ],
     rows: g.bagley.map((b) => [b.shearRateApparent, v(b.wallShearStress, KPA), v(b.entrancePressure, BAR), v(b.endCorrection), v(b.r2), b.diesUsed]),
     keyColumns: ["shearRateApparent", "wallShearStress", "endCorrection"],
-    chart: { kind: "bagley", x: "shearRateApparent", y: ["entrancePressure"] },
+  };
+}
+
+/** The Bagley plot's data: per rate the (L/R, ΔP) points and the fitted line drawn back to ΔP = 0 at L/R = −e. */
+function bagleyPointsTable(g: ReductionGroup): ResultTable | null {
+  if (g.bagley.length === 0) return null;
+  const rows: ResultCell[][] = [];
+  for (const b of g.bagley) {
+    rows.push([b.shearRateApparent, "line at zero pressure", v(-b.endCorrection), null, 0]);
+    for (const p of [...b.points].sort((x, y) => x.lengthOverRadius - y.lengthOverRadius)) {
+      rows.push([b.shearRateApparent, p.interpolated ? `${p.die} (interpolated)` : p.die, v(p.lengthOverRadius), v(p.pressure, BAR), v(b.slope * p.lengthOverRadius + b.entrancePressure, BAR)]);
+    }
+  }
+  return {
+    id: "bagleyPoints",
+    title: "Bagley plot data",
+    scope: groupLabel(g),
+    columns: [num("shearRateApparent", "Apparent shear rate", "1/s"), text("die", "Die"), num("lengthOverRadius", g.geometry === "slit" ? "L/H" : "L/R", ""), num("pressure", "Pressure drop", "bar"), num("pressureLine", "Bagley line", "bar")],
+    rows,
+    notes: ["One line per apparent shear rate: the measured pressure drops and the fitted Bagley line, drawn back to zero pressure at L/R = −e."],
+    chart: { kind: "bagley", x: "lengthOverRadius", y: ["pressure", "pressureLine"], seriesBy: "shearRateApparent" },
   };
 }
 
@@ -159,7 +186,43 @@ function flowCurveTable(g: ReductionGroup): ResultTable {
     rows,
     notes: notes.length ? notes : undefined,
     keyColumns: ["shearRateWall", "wallShearStress", "viscosity"],
-    chart: { kind: "viscosity", x: "shearRateWall", y: ["viscosity"], logX: true, logY: true },
+    chart: { kind: "flowCurve", x: "shearRateWall", y: ["wallShearStress"], logX: true, logY: true },
+  };
+}
+
+/** The Rabinowitsch step: n′ and the factor between true and apparent wall rate, per point. */
+function rabinowitschTable(g: ReductionGroup): ResultTable {
+  const factor = (n: number) => (g.geometry === "slit" ? (2 * n + 1) / (3 * n) : (3 * n + 1) / (4 * n));
+  return {
+    id: "rabinowitsch",
+    title: "Rabinowitsch correction",
+    scope: groupLabel(g),
+    columns: [num("shearRateApparent", "Apparent shear rate", "1/s"), num("nPrime", "n′", "", 3), num("rateFactor", "True over apparent rate", ""), num("shearRateWall", "True wall shear rate", "1/s")],
+    rows: g.flowCurve.map((f) => [f.shearRateApparent, v(f.nPrime), f.nPrime > 0 ? v(factor(f.nPrime)) : null, v(f.shearRateWall)]),
+    notes: [g.geometry === "slit" ? "True over apparent rate (2n′ + 1)/(3n′) (slit)." : "True over apparent rate (3n′ + 1)/(4n′)."],
+    chart: { kind: "nPrime", x: "shearRateApparent", y: ["nPrime"], logX: true },
+  };
+}
+
+/** Measured viscosity beside the lowest-AIC model of the group's ranking, at the measured rates. */
+function viscosityModelTable(run: ReductionRun, g: ReductionGroup, i: number): ResultTable | null {
+  if (!run.comparisons) return null;
+  const best = run.comparisons[i]?.ranked[0];
+  const points = g.flowCurve.filter((f) => f.shearRateWall !== null && f.viscosity !== null) as { shearRateWall: number; viscosity: number }[];
+  if (points.length === 0) return null;
+  const model = best ? evaluateModel(best.model, best.result.parameters, points.map((p) => p.shearRateWall)) : null;
+  return {
+    id: "viscosityModel",
+    title: "Viscosity and model",
+    scope: groupLabel(g),
+    columns: [num("shearRateWall", "True wall shear rate", "1/s"), num("viscosity", "Viscosity", "Pa·s"), text("model", "Lowest-AIC model"), num("viscosityModel", "Model viscosity", "Pa·s"), num("modelDeviation", "Model vs measured", "%", 3)],
+    rows: points.map((p, k) => {
+      const m = model?.[k] ?? null;
+      return [p.shearRateWall, p.viscosity, best ? modelName(best.model) : null, v(m), m === null ? null : v((m / p.viscosity - 1) * 100)];
+    }),
+    notes: [best ? `Model: ${modelName(best.model)}, the lowest AIC of the models ranked for this group (parameters in the model-fit tables).` : "No model was ranked for this group."],
+    keyColumns: ["shearRateWall", "viscosity", "viscosityModel"],
+    chart: { kind: "viscosity", x: "shearRateWall", y: ["viscosity", "viscosityModel"], logX: true, logY: true },
   };
 }
 
@@ -342,6 +405,43 @@ function shiftTable(run: ReductionRun): ResultTable | null {
   };
 }
 
+/** The shift law's constants as numbers with their standard errors (the notes of the shift table say them in words). */
+function shiftConstantsTable(run: ReductionRun): ResultTable | null {
+  const s = run.shift;
+  if (!s) return null;
+  const f = s.fit;
+  const rows: ResultCell[][] =
+    f.law === "arrhenius"
+      ? [["Activation energy Ea", v(f.activationEnergy, 1e-3), v(f.activationEnergyStandardError, 1e-3), "kJ/mol"]]
+      : [["C1", v(f.C1), v(f.C1StandardError), ""], ["C2", v(f.C2), v(f.C2StandardError), "K"]];
+  rows.push(["Reference temperature", celsius(f.referenceTemperature), null, "°C"], ["Die diameter of the shifted groups", v(s.dieDiameter, MM), null, "mm"], ["RMS error of the joint fit (ln η)", v(f.rmse), null, ""]);
+  return {
+    id: "shiftConstants",
+    title: "Temperature shift: constants",
+    columns: [text("constant", "Constant"), num("value", "Value", ""), num("standardError", "Standard error", "", 3), text("unit", "Unit")],
+    rows,
+    notes: f.law === "wlf" ? ["An empty standard error: that constant was held."] : undefined,
+  };
+}
+
+/** Every point reduced to the reference temperature: a_T·γ̇ and η/a_T, one series per measured temperature. */
+function masterTable(run: ReductionRun): ResultTable | null {
+  const s = run.shift;
+  if (!s) return null;
+  const m = s.master;
+  return {
+    id: "master",
+    title: `Master curve at ${Number((m.referenceTemperature - 273.15).toPrecision(5))} °C`,
+    columns: [num("temperature", "Measured at", "°C"), num("aT", "aT", "", 4), num("reducedShearRate", "aT × shear rate", "1/s"), num("reducedViscosity", "Viscosity / aT", "Pa·s")],
+    // by measured temperature, then rate: each temperature's points together
+    rows: m.shearRate
+      .map((rate, k) => ({ k, rate, t: m.temperature[k] as number }))
+      .sort((a, b) => a.t - b.t || a.rate - b.rate)
+      .map(({ k, rate, t }) => [celsius(t), v(m.aT[k]), v(rate), v(m.viscosity[k])]),
+    chart: { kind: "master", x: "reducedShearRate", y: ["reducedViscosity"], logX: true, logY: true, seriesBy: "temperature" },
+  };
+}
+
 /** The warnings table: every warning of the run, most serious first. */
 export function warningsTable(warnings: readonly Warning[]): ResultTable {
   const rank = { serious: 0, caution: 1, info: 2 } as const;
@@ -358,9 +458,9 @@ export function warningsTable(warnings: readonly Warning[]): ResultTable {
 /** Every table of a run, in reading order: groups, then per group its tables, then across groups. */
 export function resultTables(run: ReductionRun): ResultTable[] {
   const tables: (ResultTable | null)[] = [groupsTable(run)];
-  for (const g of run.result.groups) {
-    tables.push(bagleyTable(g), flowCurveTable(g), entrancePressureTable(g), extensionalTable(g), heatingTable(g), pressureDependenceTable(g));
-  }
-  tables.push(slipTable(run), meltFlowTable(run), fitRankingTable(run), fitParameterTable(run), shiftTable(run), warningsTable(run.warnings));
+  run.result.groups.forEach((g, i) => {
+    tables.push(bagleyTable(g), bagleyPointsTable(g), flowCurveTable(g), rabinowitschTable(g), viscosityModelTable(run, g, i), entrancePressureTable(g), extensionalTable(g), heatingTable(g), pressureDependenceTable(g));
+  });
+  tables.push(slipTable(run), meltFlowTable(run), fitRankingTable(run), fitParameterTable(run), shiftTable(run), shiftConstantsTable(run), masterTable(run), warningsTable(run.warnings));
   return tables.filter((t): t is ResultTable => t !== null);
 }

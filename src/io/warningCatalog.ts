@@ -72,6 +72,7 @@ export const WARNING_CATALOG: Readonly<Record<WarningCode, WarningText>> = Objec
   PLAN_BARREL_CAPACITY_EXCEEDED: { title: "Barrel too small for the plan", description: "The planned ladder needs more melt than one barrel filling holds." },
   LOT_NOTHING_COMPARED: { title: "Lot not compared", description: "No lot point lies in the reference's rate range." },
   LOT_POINTS_NOT_COMPARED: { title: "Lot points outside the reference", description: "Lot points outside the reference's rate range were not compared." },
+  RESULT_NOT_FINITE: { title: "Result not a number", description: "A result came out as NaN or infinite (e.g. a standard error of a singular fit); its cell is left empty and the table's notes say where." },
 });
 
 /** Severity, title and description of `code` (an unregistered code is titled by itself). */
