@@ -31,3 +31,5 @@ export * from "./pressureDependence";
 export * from "./uncertainty";
 export * from "./meltFlowRate";
 export * from "./reduceMethods";
+export * from "./compressionTime";
+export * from "./steps";
