@@ -253,6 +253,9 @@ export function readBlankTable(cells: unknown[][], options: Partial<TraceTableOp
   const used: TraceColumnName[] = recording ? ["time", speedSource, "force"] : [speedSource, "force"];
   const { values, lines, warnings } = readSamples(cells, cols, used, [], opt);
   if (lines.length === 0) throw new RheoError("missing", "blank", "has no rows below the header");
+  for (const [name, c] of byName) {
+    if (!used.includes(name)) cols.warnings.push(warning("COLUMN_IGNORED", `Column ${c.index + 1} "${c.header}" is not used in a blank run; it is ignored.`));
+  }
   const all = [...cols.warnings, ...warnings];
   const col = (n: TraceColumnName) => values.get(n) as number[];
   if (!recording) {
