@@ -336,7 +336,8 @@ describe("settings and bad input", () => {
   });
   test("samples out of order, non-finite, or too few are refused with their line", () => {
     const base = { pistonSpeed: [1, 1, 1, 1], pressure: [1, 2, 3, 4], die: DIE, lines: [5, 6, 7, 8] };
-    expect(() => detectTraceSteps([{ ...base, time: [0, 1, 1, 2] }])).toThrow("time: line 7 (1 s) is not after line 6 (1 s); times must increase within a die run");
+    expect(() => detectTraceSteps([{ ...base, time: [0, 1, 1, 2] }])).toThrow("time: line 7 repeats the time of line 6; times must increase within a die run");
+    expect(() => detectTraceSteps([{ ...base, time: [0, 2, 1, 3], rowWord: "row" }])).toThrow("time: row 7 is earlier than row 6; times must increase within a die run");
     expect(() => detectTraceSteps([{ ...base, time: [0, 1, 2, 3], pressure: [1, NaN, 3, 4] }])).toThrow("pressure: line 6 is not a finite number (NaN)");
     expect(() => detectTraceSteps([{ ...base, time: [0, 1], pressure: [1, 2], pistonSpeed: [1, 1] }])).toThrow("time: die run 1 has 2 samples; at least 3 are needed");
     expect(() => detectTraceSteps([{ time: [0, 1, 2], pressure: [1, 2, 3], die: DIE }])).toThrow("piston_speed: give piston_speed or piston_position");

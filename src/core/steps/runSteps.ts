@@ -36,6 +36,8 @@ export interface TraceRun {
   pistonPosition?: ArrayLike<number>;
   /** source line (or row) of each sample, for messages */
   lines?: ArrayLike<number>;
+  /** how `lines` are named in messages: "line" (files, the default) or "row" (worksheets) */
+  rowWord?: "line" | "row";
   /** the die (absent for a blank run) */
   die?: RunDie;
   /** barrel bore D_b, m (needed for flow rates, the compressibility τ and friction) */
@@ -112,15 +114,15 @@ export interface RunSteps {
   warnings: Warning[];
 }
 
-/** The label of a run: its group label and the die length. */
+/** The label of a run: its group label and the die length ("" for a run without a die). */
 export function runLabel(run: Pick<TraceRun, "die" | "temperature">): string {
   const d = run.die;
-  if (!d) return "blank run";
+  if (!d) return "";
   const group = groupLabel({ temperature: run.temperature ?? null, dieDiameter: d.dieDiameter ?? NaN, slitWidth: d.slitWidth, slitHeight: d.slitHeight });
   return `${group}, L ${millimetres(d.dieLength)}`;
 }
 
-const where = (run: TraceRun, i: number) => (run.lines ? `line ${run.lines[i]}` : `sample ${i + 1}`);
+const where = (run: TraceRun, i: number) => (run.lines ? `${run.rowWord ?? "line"} ${run.lines[i]}` : `sample ${i + 1}`);
 
 function validateRun(run: TraceRun, n: number): void {
   const check = (values: ArrayLike<number> | undefined, name: string, positive = false) => {
@@ -137,8 +139,11 @@ function validateRun(run: TraceRun, n: number): void {
   check(run.pistonSpeed, "piston_speed");
   check(run.pistonPosition, "piston_position");
   for (let i = 1; i < n; i++) {
-    if (!((run.time[i] as number) > (run.time[i - 1] as number))) {
-      throw new RheoError("value", "time", `${where(run, i)} (${run.time[i]} s) is not after ${where(run, i - 1)} (${run.time[i - 1]} s); times must increase within a die run`);
+    const t = run.time[i] as number;
+    const before = run.time[i - 1] as number;
+    if (!(t > before)) {
+      const what = t === before ? `repeats the time of ${where(run, i - 1)}` : `is earlier than ${where(run, i - 1)}`;
+      throw new RheoError("value", "time", `${where(run, i)} ${what}; times must increase within a die run`);
     }
   }
 }
@@ -161,7 +166,8 @@ export function detectRunSteps(run: TraceRun, runNumber: number, o: StepOptions,
   if (friction && run.barrelDiameter === undefined) throw new RheoError("missing", "barrel_diameter", "the barrel friction of a blank run needs the barrel bore");
   const speed = run.pistonSpeed ? Float64Array.from(run.pistonSpeed as ArrayLike<number>) : speedFromPosition(run.time, run.pistonPosition as ArrayLike<number>);
   const sign = run.pistonPosition ? positionSign(run.pistonPosition) : 1;
-  const label = `run ${runNumber} (${runLabel(run)})`;
+  const named = runLabel(run);
+  const label = named ? `run ${runNumber} (${named})` : `run ${runNumber}`;
   const limits: WindowLimits = o;
   const segments = segmentBySpeed(speed, o.speedTolerance, o.speedHoldSamples, o.minStepSamples).filter((s) => !s.idle);
   const warnings: Warning[] = [];
