@@ -5,7 +5,8 @@
  * plain note on what was found. Values in SI; each column names its quantity and display unit.
  * Also the thermal-check table (the repeated first speed of each die run).
  */
-import type { Quantity } from "../core/units";
+import { fromSI, type Quantity } from "../core/units";
+import { DEFAULT_STEP_OPTIONS, type StepOptions } from "../core/steps/options";
 import type { TraceSteps } from "../core/steps/traceSteps";
 import type { RunSteps, TraceStep } from "../core/steps/runSteps";
 
@@ -93,4 +94,51 @@ export function thermalCheckRows(trace: TraceSteps): StepRow[] {
       ? [{ run: r.run, die: r.label, pistonSpeed: r.thermalCheck.pistonSpeed, firstPressure: r.thermalCheck.firstPressure, repeatPressure: r.thermalCheck.repeatPressure, change: r.thermalCheck.change, withinLimit: r.thermalCheck.withinLimit }]
       : [],
   );
+}
+
+/** A table in display units: headers "name [unit]" and rows converted from SI. */
+export interface DisplayTable {
+  header: string[];
+  rows: (number | string | boolean)[][];
+}
+
+/**
+ * Converts SI rows to the columns' display units (fromSI), headers "header [unit]".
+ * @example displayTable(STEP_TABLE_COLUMNS, stepTableRows(trace)).header[3] // "piston speed [mm/min]"
+ */
+export function displayTable(columns: readonly StepColumn[], rows: readonly StepRow[]): DisplayTable {
+  return {
+    header: columns.map((c) => (c.unit !== undefined ? `${c.header} [${c.unit}]` : c.header)),
+    rows: rows.map((r) =>
+      columns.map((c) => {
+        const v = r[c.key] ?? "";
+        return typeof v === "number" && c.quantity !== undefined && c.unit !== undefined ? fromSI(v, c.unit, c.quantity) : v;
+      }),
+    ),
+  };
+}
+
+/**
+ * The method record of the step detection, for the method sheet and the results workbook: the
+ * criterion, the settings that differ from the defaults, and every window set by hand with the
+ * window the detector had chosen.
+ */
+export function stepMethodLines(trace: TraceSteps): string[] {
+  const o = trace.options;
+  const lines = [
+    "Steps: segmented where the piston speed changes by more than the speed tolerance; the transient ln(1/ε)·τ after each change is excluded (τ given, from the melt compressibility β·V·ΔP/Q, or read off the step).",
+    `Steady window: the drift of the least-squares line over the window at most ${o.driftLimit} noise standard deviations (floor ${100 * o.driftFloor} % of the plateau) plus twice its standard error; at least ${o.minWindowTime} s, ${o.minWindowSamples} samples and half the step after the transient. Plateau: mean and standard deviation of the window's readings.`,
+    `Steps that never become steady: ${o.unsteady === "keep" ? "kept in the flow curve, flagged" : "left out of the flow curve"}. Oscillation reported above ${100 * o.oscillationLimit} % peak to peak over ${o.oscillationMinCycles} cycles. Repeated first speed: warning above ${100 * o.thermalCheckLimit} % change.`,
+  ];
+  const changed = (Object.keys(DEFAULT_STEP_OPTIONS) as (keyof StepOptions)[]).filter((k) => k !== "windows" && o[k] !== DEFAULT_STEP_OPTIONS[k]);
+  if (changed.length > 0) lines.push(`Settings changed from their defaults: ${changed.map((k) => `${k} = ${String(o[k])}`).join(", ")}.`);
+  if (trace.blank) lines.push(`Barrel friction: a blank run of ${trace.blank.length} speeds, interpolated linearly in speed and subtracted as force / barrel area.`);
+  for (const run of trace.runs) {
+    for (const s of run.steps) {
+      if (s.window === "set" && s.detected) {
+        lines.push(`Die run ${run.run}${run.label ? ` (${run.label})` : ""}, step ${s.step}: window set by hand to ${s.start.toPrecision(4)}–${s.end.toPrecision(4)} s (detected ${s.detected.start.toPrecision(4)}–${s.detected.end.toPrecision(4)} s).`);
+      }
+    }
+  }
+  return lines;
 }
