@@ -27,6 +27,7 @@ import {
   type TraceRun,
 } from "../src/core";
 import { warningSeverity } from "../src/core/warningCodes";
+import { seededRandom } from "../src/core/random";
 import { expectClose } from "./helpers/expectClose";
 import { syntheticRun, type SyntheticRunSpec } from "./helpers/syntheticTrace";
 
@@ -230,6 +231,19 @@ describe("window fits and quantiles against scipy/numpy", () => {
   test("percentile(values, q) is numpy.percentile's linear rule", () => {
     const { data, values } = fixture.quantiles as { data: number[]; values: { q: number; value: number }[] };
     for (const v of values) expectClose(percentile(data, v.q), v.value, { rel: 1e-12 }, `q ${v.q}`);
+  });
+  test("percentile by selection equals the type-7 rule on a sorted copy, ties and all", () => {
+    const rand = seededRandom(5);
+    for (let trial = 0; trial < 200; trial++) {
+      const n = 1 + Math.floor(rand() * 60);
+      const values = Array.from({ length: n }, () => Math.round(rand() * 10) / 2);
+      const sorted = [...values].sort((a, b) => a - b);
+      const q = rand();
+      const h = (n - 1) * q;
+      const lo = Math.floor(h);
+      const expected = sorted[lo]! + (h - lo) * ((sorted[Math.min(n - 1, lo + 1)] ?? 0) - sorted[lo]!);
+      expectClose(percentile(values, q), expected, { rel: 1e-12, abs: 1e-12 }, `trial ${trial}`);
+    }
   });
 });
 
