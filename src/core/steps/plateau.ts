@@ -3,10 +3,12 @@
  *
  * Criterion (common practice, no source; the line fit is ordinary least squares, windowFit.ts):
  * over a window of duration T the least-squares line of pressure against time has slope b with
- * standard error SE(b) and residual standard deviation s (the noise). The drift D = b·T; the
- * window is steady when
+ * standard error SE(b) and residual standard deviation s (the noise). The drift D = b·T* with
+ * T* = max(T, τ): over the window, or over one time constant τ of the step when that is longer,
+ * since a first-order approach still has p − p_ss = −τ·dp/dt to go (compressionTime.ts) — a
+ * window short against τ must not hide it. The window is steady when
  *
- *   |D| ≤ max(k·s, f·|p̄|) + 2·SE(b)·T,
+ *   |D| ≤ max(k·s, f·|p̄|) + 2·SE(b)·T*,
  *
  * i.e. the drift is not significantly (about 95 %) larger than k noise standard deviations
  * (driftLimit k), with a floor of a fraction f of the plateau (driftFloor) for very quiet signals.
@@ -37,6 +39,8 @@ export interface WindowLimits {
   minWindowSamples: number;
   driftLimit: number;
   driftFloor: number;
+  /** τ of the step, s (0 when unknown): the drift is taken over max(window, τ) */
+  timeConstant?: number;
 }
 
 /** The window chosen in one step. */
@@ -44,7 +48,7 @@ export interface WindowChoice {
   startIndex: number;
   endIndex: number;
   fit: WindowFit;
-  /** signed drift b·T over the window, Pa */
+  /** signed drift b·max(T, τ), Pa */
   drift: number;
   /** largest accepted |drift|, Pa */
   driftAllowed: number;
@@ -53,9 +57,9 @@ export interface WindowChoice {
   reason: string | null;
 }
 
-/** Drift of a fitted window and the test of the module comment. */
-export function driftTest(fit: WindowFit, limits: Pick<WindowLimits, "driftLimit" | "driftFloor">): { drift: number; driftAllowed: number; steady: boolean } {
-  const span = fit.end - fit.start;
+/** Drift of a fitted window and the test of the module comment (τ in s, 0 when unknown). */
+export function driftTest(fit: WindowFit, limits: Pick<WindowLimits, "driftLimit" | "driftFloor">, timeConstant = 0): { drift: number; driftAllowed: number; steady: boolean } {
+  const span = Math.max(fit.end - fit.start, timeConstant);
   const drift = fit.slope * span;
   const driftAllowed = Math.max(limits.driftLimit * fit.noise, limits.driftFloor * Math.abs(fit.mean)) + DRIFT_COVERAGE * (Number.isFinite(fit.slopeError) ? fit.slopeError : 0) * span;
   return { drift, driftAllowed, steady: Math.abs(drift) <= driftAllowed };
@@ -64,7 +68,7 @@ export function driftTest(fit: WindowFit, limits: Pick<WindowLimits, "driftLimit
 /** The chosen window as a choice record. */
 function choice(sums: WindowSums, a: number, b: number, limits: WindowLimits, steadyOverride?: boolean, reason: string | null = null): WindowChoice {
   const fit = sums.fit(a, b);
-  const t = driftTest(fit, limits);
+  const t = driftTest(fit, limits, limits.timeConstant);
   const steady = steadyOverride ?? t.steady;
   return { startIndex: a, endIndex: b, fit, drift: t.drift, driftAllowed: t.driftAllowed, steady, reason: steady ? null : reason };
 }
@@ -76,6 +80,13 @@ function percentOf(value: number, c: WindowChoice): string {
 }
 const driftText = (c: WindowChoice) => percentOf(c.drift, c);
 const allowedText = (c: WindowChoice) => percentOf(c.driftAllowed, c);
+/** "the last 20.0 s" or "one time constant (31.0 s)" — the span the drift was taken over. */
+function spanText(c: WindowChoice, limits: WindowLimits, window?: string): string {
+  const span = c.fit.end - c.fit.start;
+  const tau = limits.timeConstant ?? 0;
+  if (tau > span) return `one time constant (${tau.toPrecision(3)} s)`;
+  return window ?? `the last ${span.toPrecision(3)} s`;
+}
 
 /** First index in [from, to] whose time is at least `t` (to + 1 when none). */
 export function indexAtOrAfter(time: ArrayLike<number>, from: number, to: number, t: number): number {
@@ -120,7 +131,7 @@ export function steadyWindow(sums: WindowSums, time: ArrayLike<number>, from: nu
     a = Math.min(latest, a + Math.max(1, Math.floor((to - a + 1) / 10)));
   }
   const last = choice(sums, latest, to, limits, false);
-  last.reason = `drifting: ${driftText(last)} over the last ${(last.fit.end - last.fit.start).toPrecision(3)} s, ${allowedText(last)} allowed`;
+  last.reason = `drifting: ${driftText(last)} over ${spanText(last, limits)}, ${allowedText(last)} allowed`;
   return last;
 }
 
@@ -134,6 +145,6 @@ export function windowAt(sums: WindowSums, time: ArrayLike<number>, from: number
   const b = indexAtOrAfter(time, from, to, end + 1e-12 * Math.abs(end)) - 1;
   if (b - a + 1 < 3) return null;
   const c = choice(sums, a, b, limits);
-  if (!c.steady) c.reason = `drifting: ${driftText(c)} over the set window, ${allowedText(c)} allowed`;
+  if (!c.steady) c.reason = `drifting: ${driftText(c)} over ${spanText(c, limits, "the set window")}, ${allowedText(c)} allowed`;
   return c;
 }

@@ -168,7 +168,6 @@ export function detectRunSteps(run: TraceRun, runNumber: number, o: StepOptions,
   const sign = run.pistonPosition ? positionSign(run.pistonPosition) : 1;
   const named = runLabel(run);
   const label = named ? `run ${runNumber} (${named})` : `run ${runNumber}`;
-  const limits: WindowLimits = o;
   const segments = segmentBySpeed(speed, o.speedTolerance, o.speedHoldSamples, o.minStepSamples).filter((s) => !s.idle);
   const warnings: Warning[] = [];
   const steps: TraceStep[] = segments.map((seg, k) => {
@@ -183,6 +182,7 @@ export function detectRunSteps(run: TraceRun, runNumber: number, o: StepOptions,
       flowRate: area !== undefined ? seg.level * area : undefined,
     });
     const sums = new WindowSums(run.time, run.pressure, from, to);
+    const limits: WindowLimits = { ...o, timeConstant: transient.timeConstant };
     const detected = steadyWindow(sums, run.time, from, to, transient.exclusion, limits);
     const override = o.windows.find((w) => w.run === runNumber && w.step === k + 1);
     let chosen: WindowChoice = detected;
