@@ -62,15 +62,17 @@ describe("trace chart", () => {
 });
 
 describe("step table, moved windows and the method record", () => {
-  test("the step table in display units", () => {
+  test("the step table in display units (src/io/resultTables.ts)", () => {
     const view = traceView([recording(43)], {}, []);
-    expect(view.steps.header).toEqual(["die run", "die", "step", "piston speed [mm/min]", "step start [s]", "window start [s]", "window end [s]", "samples", "pressure [bar]", "pressure sd [bar]", "steady", "in flow curve", "note"]);
+    expect(view.steps.columns.map((c) => c.key)).toEqual(["run", "die", "step", "pistonSpeed", "stepStart", "start", "end", "samples", "pressure", "pressureStd", "steady", "used", "note"]);
+    const col = (key: string) => view.steps.columns.findIndex((c) => c.key === key);
     const first = view.steps.rows[0]!;
-    expectClose(first[3] as number, 1, { rel: 0.003 });
-    expectClose(first[8] as number, 20, { rel: 0.003 });
-    expect(view.steps.rows[3]![12]).toBe("repeat of the first speed (thermal check)");
-    expect(view.thermalChecks.header).toContain("change [%]");
-    expectClose(view.thermalChecks.rows[0]![5] as number, 0, { abs: 0.3 });
+    expectClose(first[col("pistonSpeed")] as number, 1 / 60, { rel: 0.003 }, "1 mm/min in mm/s");
+    expectClose(first[col("pressure")] as number, 20, { rel: 0.003 });
+    expect(view.steps.rows[3]![col("note")]).toBe("repeat of the first speed (thermal check)");
+    const checks = view.thermalChecks!;
+    expect(checks.columns.find((c) => c.key === "change")?.unit).toBe("%");
+    expectClose(checks.rows[0]![5] as number, 0, { abs: 0.3 });
   });
 
   test("moving a window re-runs with it and records it for the method sheet; resetting undoes it", () => {

@@ -10,6 +10,7 @@ import { REDUCE_FLAGS, runReduce } from "./reduceCommand";
 import { writeResultsFile } from "./resultsFile";
 import { runPlanCommand } from "./planCommand";
 import { runCompareCommand } from "./compareCommand";
+import { runStepsCommand } from "./stepsCommand";
 
 export type { CliIO } from "./io";
 
@@ -17,6 +18,8 @@ const USAGE = `rheoledger — capillary-rheometer data reduction
 
 Usage:
   rheoledger reduce FILE.csv [options]
+  rheoledger reduce TRACE.csv [TRACE2.csv ...] [options]   a pressure recording (time column): steps, then reduce
+  rheoledger steps TRACE.csv [...] [--out steps.csv] [--json]   steps of a recording only (steps --help)
   rheoledger plan OPTIONS.json [--json]          plan dies, speeds, pressures, material (plan --help)
   rheoledger compare LOT.csv --reference REF.csv | --model NAME --params k=v,...  (compare --help)
 
@@ -27,6 +30,8 @@ ${Object.entries(REDUCE_FLAGS)
 
 The CSV has one header row of "quantity [unit]" cells: die_diameter, die_length, pressure, and
 flow_rate, or piston_speed with barrel_diameter, or mass_rate with density; temperature optional.
+A pressure recording has one row per sample: time, piston_speed (or piston_position), pressure
+(or force with barrel_diameter), die_diameter, die_length; barrel_diameter, temperature optional.
 `;
 
 /** Runs the command line; returns the process exit code (0 ok, 1 bad input, 2 usage, 3 lot not passed by `compare`). */
@@ -40,19 +45,20 @@ export function main(argv: string[], io: CliIO): number | Promise<number> {
     const command = argv[0];
     if (command === "plan") return runPlanCommand(argv, io);
     if (command === "compare") return runCompareCommand(argv, io);
+    if (command === "steps") return runStepsCommand(argv, io);
     if (command !== "reduce") {
-      io.stderr(`rheoledger: unknown command "${command}"; accepted: reduce, plan, compare\n\n${USAGE}`);
+      io.stderr(`rheoledger: unknown command "${command}"; accepted: reduce, steps, plan, compare\n\n${USAGE}`);
       return 2;
     }
     const args = parseArgs(argv, REDUCE_FLAGS);
     const file = args.positionals[0];
-    if (!file || args.positionals.length > 1) {
-      io.stderr(`rheoledger reduce: give exactly one CSV file\n\n${USAGE}`);
+    if (!file) {
+      io.stderr(`rheoledger reduce: give a CSV file (or several pressure recordings)\n\n${USAGE}`);
       return 2;
     }
-    const out = runReduce(readInputFile(io, file), args);
+    const out = runReduce(args.positionals.map((name) => ({ name, text: readInputFile(io, name) })), args, io);
     const outPath = args.flags.get("out");
-    if (typeof outPath === "string") return writeResultsFile(out, file, outPath, io, args.flags.has("json"));
+    if (typeof outPath === "string") return writeResultsFile(out, args.positionals.join(", "), outPath, io, args.flags.has("json"));
     io.stdout(out.stdout);
     return 0;
   } catch (e) {

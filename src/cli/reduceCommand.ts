@@ -1,6 +1,8 @@
 /**
  * `rheoledger reduce FILE.csv [--json]`: reads a raw-data CSV, reduces it with the core and
- * prints readable tables (units shown) or one JSON document in SI units.
+ * prints readable tables (units shown) or one JSON document in SI units. A file with a `time`
+ * column is a pressure recording (several may be given): its steps are detected first
+ * (src/core/traceRun.ts) and their plateaus reduced.
  */
 import { RheoError, Warning } from "../core/errors";
 import { groupLabel, type ReductionGroup, type ReductionResult, type ReduceOptions } from "../core/reduce";
@@ -15,6 +17,10 @@ import { reductionSummary } from "./summary";
 import { flowCurveExtrasJson, groupExtrasJson, topExtrasJson } from "./methodFlags";
 import { resultTables } from "../io/resultTables";
 import { shiftSummary, withFitJson } from "./fitReport";
+import type { TraceSteps } from "../core/steps/traceSteps";
+import { runTraceReduction } from "../core/traceRun";
+import { RECORDING_INPUT_FLAGS, isRecordingText, readBlankFile, readRecordings, recordingJson, refuseStepSettings, type InputFile } from "./recordingInput";
+import type { CliIO } from "./io";
 
 /** Flags of `reduce` that choose what is printed or written (not reduce settings). */
 export const REDUCE_OUTPUT_FLAGS: Record<string, FlagSpec> = {
@@ -24,7 +30,7 @@ export const REDUCE_OUTPUT_FLAGS: Record<string, FlagSpec> = {
 };
 
 /** Every flag of `reduce`: the reduce settings (src/io/reduceOptions.ts) and the output flags. */
-export const REDUCE_FLAGS: Record<string, FlagSpec> = { ...reduceSettingFlags(), ...REDUCE_OUTPUT_FLAGS };
+export const REDUCE_FLAGS: Record<string, FlagSpec> = { ...reduceSettingFlags(), ...RECORDING_INPUT_FLAGS, ...REDUCE_OUTPUT_FLAGS };
 
 /** What a command hands back: text for standard output, and the data it printed. */
 export interface CommandOutput {
@@ -78,11 +84,16 @@ export function readCsvMeasurements(text: string, input: ReduceRequest["input"])
   });
 }
 
-/** The JSON document of a reduction, SI units (the contract in docs/cli.md). */
-export function reductionJson(result: ReductionResult, warnings: Warning[]) {
+/**
+ * The JSON document of a reduction, SI units (the contract in docs/cli.md). From a pressure
+ * recording each group also has "steps" and the top level "thermalChecks" (and
+ * "stepsWithoutGroup" when a die run joined no group).
+ */
+export function reductionJson(result: ReductionResult, warnings: Warning[], steps?: TraceSteps) {
+  const recording = steps ? recordingJson(result, steps) : null;
   return {
     units: { pressure: "Pa", length: "m", time: "s", temperature: "K", viscosity: "Pa.s", shearRate: "1/s" },
-    groups: result.groups.map((g) => ({
+    groups: result.groups.map((g, i) => ({
       temperature: g.temperature,
       dieDiameter: g.dieDiameter,
       dies: g.dies.map((d) => ({ dieLength: d.dieLength, lengthOverRadius: d.lengthOverRadius, points: d.points })),
@@ -104,9 +115,11 @@ export function reductionJson(result: ReductionResult, warnings: Warning[]) {
         ...flowCurveExtrasJson(g, i),
       })),
       ...groupExtrasJson(g),
+      ...(recording ? { steps: recording.groupSteps[i] ?? [] } : {}),
       warnings: g.warnings,
     })),
     ...topExtrasJson(result),
+    ...(recording ? recording.top : {}),
     warnings,
   };
 }
@@ -141,22 +154,45 @@ export function warningsText(warnings: Warning[]): string {
   return ["Warnings", ...sorted.map((w) => `  [${w.severity}] [${w.code}] ${w.message}`)].join("\n") + "\n";
 }
 
-/** Runs `reduce` on CSV text already read from the file. */
-export function runReduce(text: string, args: ParsedArgs): CommandOutput {
+/**
+ * Runs `reduce` on the files already read: one point table, or one or more pressure recordings.
+ * @param io reads the `--blank` file
+ */
+export function runReduce(files: InputFile[], args: ParsedArgs, io?: CliIO): CommandOutput {
   const request = reduceRequestFromFlags(args);
-  const raw = readCsvMeasurements(text, request.input);
+  const first = files[0];
+  if (!first) throw new RheoError("missing", "file", "give a CSV file");
   const wantsRanking = args.flags.has("summary") || args.flags.has("out");
+  const fits = { ...request.fits, rank: wantsRanking };
+  const blankFile = args.flags.get("blank");
   let run: ReductionRun;
-  try {
-    run = runReduction(raw.measurements, request.options, { ...request.fits, rank: wantsRanking }, raw.warnings);
-  } catch (e) {
-    throw asFlagError(e);
+  let inputWarnings: Warning[];
+  if (isRecordingText(first.text)) {
+    const recordings = readRecordings(files, request.input);
+    const blank = typeof blankFile === "string" && io ? readBlankFile(io, blankFile) : undefined;
+    inputWarnings = [...recordings.warnings, ...(blank?.warnings ?? [])];
+    try {
+      run = runTraceReduction(recordings.runs, request.steps, request.options, fits, inputWarnings, blank?.blank);
+    } catch (e) {
+      throw asFlagError(e);
+    }
+  } else {
+    if (files.length > 1) throw new RheoError("value", (files[1] as InputFile).name, `only pressure recordings (files with a "time [s]" column) are read several at a time; ${first.name} is a point table`);
+    refuseStepSettings(request, first.name);
+    if (typeof blankFile === "string") throw new RheoError("value", "--blank", `subtracts barrel friction from pressure recordings (a file with a "time [s]" column); ${first.name} is a point table`, undefined, "SETTING_NOT_USED_HERE");
+    const raw = readCsvMeasurements(first.text, request.input);
+    inputWarnings = raw.warnings;
+    try {
+      run = runReduction(raw.measurements, request.options, fits, raw.warnings);
+    } catch (e) {
+      throw asFlagError(e);
+    }
   }
   const result = run.result;
   const stdout = args.flags.has("json")
-    ? JSON.stringify(withFitJson(reductionJson(result, run.warnings), run), null, 2) + "\n"
+    ? JSON.stringify(withFitJson(reductionJson(result, run.warnings, run.steps), run), null, 2) + "\n"
     : args.flags.has("summary")
       ? reductionSummary(run) + shiftSummary(run)
       : reductionText(run) + warningsText(run.warnings);
-  return { stdout, run, result, options: request.options, request, inputWarnings: raw.warnings };
+  return { stdout, run, result, options: request.options, request, inputWarnings };
 }

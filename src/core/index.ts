@@ -33,3 +33,4 @@ export * from "./meltFlowRate";
 export * from "./reduceMethods";
 export * from "./compressionTime";
 export * from "./steps";
+export * from "./traceRun";

@@ -6,7 +6,7 @@ import { RheoError } from "../core/errors";
 import { detectTraceSteps } from "../core/steps/traceSteps";
 import { DEFAULT_STEP_OPTIONS } from "../core/steps/options";
 import { fromSI, toSI } from "../core/units";
-import { stepNote } from "../io/stepTable";
+import { stepNote } from "../io/stepRecord";
 import { DEFAULT_SHEET_UNITS as U, booleanArg, choiceArg, column, readNumber, readRows, unitArg } from "./adapter";
 import { appendWarnings } from "./reduceTable";
 

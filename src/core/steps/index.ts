@@ -11,3 +11,5 @@ export * from "./friction";
 export * from "./thermalCheck";
 export * from "./runSteps";
 export * from "./traceSteps";
+
+export * from "./groupSteps";

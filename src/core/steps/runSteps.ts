@@ -122,7 +122,7 @@ export function runLabel(run: Pick<TraceRun, "die" | "temperature">): string {
   return `${group}, L ${millimetres(d.dieLength)}`;
 }
 
-const where = (run: TraceRun, i: number) => (run.lines ? `${run.rowWord ?? "line"} ${run.lines[i]}` : `sample ${i + 1}`);
+const where = (run: TraceRun, i: number) => `${run.source ? `${run.source} ` : ""}${run.lines ? `${run.rowWord ?? "line"} ${run.lines[i]}` : `sample ${i + 1}`}`;
 
 function validateRun(run: TraceRun, n: number): void {
   const check = (values: ArrayLike<number> | undefined, name: string, positive = false) => {

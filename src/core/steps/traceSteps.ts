@@ -14,7 +14,7 @@ export interface TraceSteps {
   runs: RunSteps[];
   /** the blank's steady points, when a blank was given */
   blank?: BlankPoint[];
-  /** every run's warnings, each prefixed with "steps" scope */
+  /** every run's warnings, each with its run as scope ("die run 2"); the blank's scoped "blank" */
   warnings: Warning[];
   /** the settings used, defaults filled in */
   options: StepOptions;
@@ -65,7 +65,7 @@ export function detectTraceSteps(runs: TraceRun[], options: Partial<StepOptions>
     if (!run) throw new RheoError("value", `windows[${i + 1}]`, `names die run ${w.run}; the recording has ${results.length}`);
     if (!run.steps[w.step - 1]) throw new RheoError("value", `windows[${i + 1}]`, `names step ${w.step} of die run ${w.run}, which has ${run.steps.length} steps`);
   });
-  for (const r of results) warnings.push(...r.warnings.map((w) => ({ ...w, scope: "steps" })));
+  for (const r of results) warnings.push(...r.warnings.map((w) => ({ ...w, scope: `die run ${r.run}` })));
   const out: TraceSteps = { runs: results, warnings, options: o };
   if (blankList) out.blank = blankList;
   return out;

@@ -9,15 +9,18 @@ import type { StepOptions, WindowOverride } from "../../../core/steps/options";
 import type { TraceRun } from "../../../core/steps/runSteps";
 import { detectTraceSteps, type TraceSteps } from "../../../core/steps/traceSteps";
 import type { Warning } from "../../../core/errors";
-import { DisplayTable, STEP_TABLE_COLUMNS, THERMAL_CHECK_COLUMNS, displayTable, stepMethodLines, stepTableRows, thermalCheckRows } from "../../../io/stepTable";
+import { stepMethodLines } from "../../../io/stepRecord";
+import { stepsTable, thermalChecksTable, type ResultTable } from "../../../io/resultTables";
 import { TraceChartData, traceChartData } from "./chart";
 
 /** Everything the trace view renders. */
 export interface TraceView {
   trace: TraceSteps;
   charts: TraceChartData[];
-  steps: DisplayTable;
-  thermalChecks: DisplayTable;
+  /** the step table, described as every result table is (src/io/resultTables.ts) */
+  steps: ResultTable;
+  /** the repeated-first-speed checks, or null when no run repeats its first speed */
+  thermalChecks: ResultTable | null;
   /** lines for the method sheet (criterion, changed settings, hand-set windows) */
   method: string[];
   warnings: Warning[];
@@ -45,8 +48,8 @@ export function traceView(runs: TraceRun[], options: Partial<StepOptions>, windo
   return {
     trace,
     charts: trace.runs.map((r, i) => traceChartData(runs[i] as TraceRun, r)),
-    steps: displayTable(STEP_TABLE_COLUMNS, stepTableRows(trace)),
-    thermalChecks: displayTable(THERMAL_CHECK_COLUMNS, thermalCheckRows(trace)),
+    steps: stepsTable(trace.runs),
+    thermalChecks: thermalChecksTable(trace.runs),
     method: stepMethodLines(trace),
     warnings: trace.warnings,
   };
