@@ -91,7 +91,6 @@ describe("rheoledger reduce TRACE.csv", () => {
 });
 
 describe("--blank FILE (force instruments)", () => {
-  const MM_MIN = 1e-3 / 60;
   const area = (Math.PI * 0.015 ** 2) / 4;
   // plateaus 20, 45, 90 bar plus a friction of 30 N + 1 N per mm/min (invented)
   const friction = (vMmMin: number) => 30 + vMmMin;
