@@ -7,7 +7,6 @@ import { readFileSync } from "fs";
 import { plateaus } from "../src/functions/steps";
 import { reduceData } from "../src/functions/functions";
 import { parseCsv } from "../src/io/csv";
-import { main } from "../src/cli/main";
 import { expectClose } from "./helpers/expectClose";
 import { syntheticRun } from "./helpers/syntheticTrace";
 
@@ -57,27 +56,18 @@ describe("RHEO.PLATEAUS", () => {
   });
 });
 
-describe("RHEO.REDUCE with a pressure recording", () => {
-  test("a range with a time column is reduced through its steps, as the command line does", async () => {
+describe("RHEO.REDUCE and pressure recordings", () => {
+  test("a recording is refused with a pointer to RHEO.PLATEAUS; step settings with a point table too", () => {
     const text = readFileSync("workbooks/demo-film-grade-recording.csv", "utf8");
-    const cells = parseCsv(text).lines.map((l) => l.cells.map((c, i) => (i === 0 && l.line === 2 ? c : Number.isNaN(Number(c)) ? c : Number(c))));
-    const g = reduceData(cells, undefined, undefined, undefined, undefined, undefined, undefined, undefined, true);
-    let out = "";
-    await main(["reduce", "workbooks/demo-film-grade-recording.csv", "--json"], { readFile: (p) => readFileSync(p, "utf8"), stdout: (t) => (out += t), stderr: () => undefined });
-    const doc = JSON.parse(out);
-    const curve = doc.groups[0].flowCurve as { viscosity: number }[];
-    curve.forEach((row, i) => expectClose(g[i + 1]![6] as number, row.viscosity, { rel: 1e-12 }, `viscosity ${i + 1}`));
-    expect(g.some((r) => r[0] === "THERMAL_CHECK_CHANGE")).toBe(true);
-    // step settings through the settings range
-    const kept = reduceData(cells, undefined, undefined, undefined, undefined, undefined, undefined, undefined, true, [["unsteady", "keep"]]);
-    expect(kept.some((r) => r[0] === "STEP_NOT_STEADY" && /kept in the flow curve/.test(String(r[1])))).toBe(true);
-  });
-
-  test("step settings with a point table are refused", () => {
+    const cells = parseCsv(text).lines.slice(0, 50).map((l) => l.cells);
+    expect(errorOf(reduceData(cells))).toEqual({
+      code: "#VALUE!",
+      message: "rawData: is a pressure recording (it has a time column); find its steady steps with RHEO.PLATEAUS per die run, or reduce the recording with the command line (rheoledger reduce) or the task pane",
+    });
     const table = [["die_diameter [mm]", "die_length [mm]", "flow_rate [mm3/s]", "pressure [bar]"], [1, 10, 1, 50], [1, 20, 1, 90], [1, 10, 2, 70], [1, 20, 2, 120]];
     expect(errorOf(reduceData(table, undefined, undefined, undefined, undefined, undefined, undefined, undefined, undefined, [["minWindowTime", 10]]))).toEqual({
       code: "#VALUE!",
-      message: "settings minWindowTime: applies to pressure recordings (a table with a time column); rawData is a point table",
+      message: "settings minWindowTime: applies to pressure recordings, which RHEO.REDUCE does not read (use the command line or the task pane)",
     });
   });
 });

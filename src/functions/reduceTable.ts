@@ -1,12 +1,11 @@
 /**
  * RHEO.REDUCE: a raw-data range with its `quantity [unit]` header row (as the CLI reads CSV files)
- * to the flow-curve table, one row per point of every temperature/diameter group. A range with a
- * `time` column is a pressure recording: its steps are detected and their plateaus reduced.
+ * to the flow-curve table, one row per point of every temperature/diameter group. A pressure
+ * recording (a `time` column) is refused with a pointer to RHEO.PLATEAUS and the command line.
  */
 import { RheoError, Warning } from "../core/errors";
 import { reduce, type ReductionResult } from "../core/reduce";
-import { runTraceReduction } from "../core/traceRun";
-import { isTraceHeader, readTraceTable } from "../io/traceTable";
+import { isTraceHeader } from "../io/traceTable";
 import { fromSI } from "../core/units";
 import { readRawTable } from "../io/rawTable";
 import { KEYED_SETTINGS_SOURCE, REDUCE_SETTINGS, readReduceSettings, type ReduceRequest, type ReduceSettingSpec } from "../io/reduceOptions";
@@ -80,7 +79,10 @@ export function reduceTable(a: ReduceArgs): unknown[][] {
   if (fitKeys.length > 0) {
     throw new RheoError("value", `settings ${fitKeys[0]}`, "RHEO.REDUCE spills the flow curve only; fit models with RHEO.FIT or RHEO.COMPAREFITS and shift with RHEO.SHIFTFIT", undefined, "SETTING_NOT_USED_HERE");
   }
-  const run = isTraceHeader(cells[0] ?? []) ? recordingRun(cells, request) : pointRun(cells, request);
+  if (isTraceHeader(cells[0] ?? [])) {
+    throw new RheoError("value", "rawData", "is a pressure recording (it has a time column); find its steady steps with RHEO.PLATEAUS per die run, or reduce the recording with the command line (rheoledger reduce) or the task pane", undefined, "SETTING_NOT_USED_HERE");
+  }
+  const run = pointRun(cells, request);
   const table: unknown[][] = [reduceHeader(stressUnit, viscosityUnit)];
   for (const g of run.result.groups) {
     const temperature = g.temperature === null ? "" : fromSI(g.temperature, U.temperature, "temperature");
@@ -105,21 +107,15 @@ export function reduceTable(a: ReduceArgs): unknown[][] {
   return table;
 }
 
-/** A point table reduced; step settings are refused (they apply to recordings only). */
+/** A point table reduced; step settings are refused (they apply to recordings, which RHEO.REDUCE does not read). */
 function pointRun(cells: unknown[][], request: ReduceRequest): { result: ReductionResult; warnings: Warning[] } {
   const stepKey = Object.keys(request.steps)[0];
   if (stepKey !== undefined) {
-    throw new RheoError("value", `settings ${stepKey}`, "applies to pressure recordings (a table with a time column); rawData is a point table", undefined, "SETTING_NOT_USED_HERE");
+    throw new RheoError("value", `settings ${stepKey}`, "applies to pressure recordings, which RHEO.REDUCE does not read (use the command line or the task pane)", undefined, "SETTING_NOT_USED_HERE");
   }
   const raw = readRawTable(cells, { rowWord: "row", headerNumber: 1, ...request.input });
   const result = reduce(raw.measurements, request.options);
   return { result, warnings: [...raw.warnings, ...result.warnings] };
-}
-
-/** A pressure recording (a time column): steps detected, their plateaus reduced. */
-function recordingRun(cells: unknown[][], request: ReduceRequest): { result: ReductionResult; warnings: Warning[] } {
-  const table = readTraceTable(cells, { rowWord: "row", headerNumber: 1, barrelDiameter: request.input.barrelDiameter });
-  return runTraceReduction(table.runs, request.steps, request.options, {}, table.warnings);
 }
 
 /** Appends a blank row and one `[code, message]` row per warning (or `warnings | none`), padded to the table width. */
