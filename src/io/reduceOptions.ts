@@ -59,7 +59,7 @@ export const REDUCE_SETTINGS: readonly ReduceSettingSpec[] = Object.freeze<Reduc
   { key: "driftLimit", flag: "drift-limit", kind: { type: "number", positive: true }, section: "steps" },
   { key: "timeConstant", flag: "time-constant", kind: { type: "quantity", quantity: "time", positive: true }, unit: "s", section: "steps" },
   { key: "compressibility", flag: "compressibility", kind: { type: "quantity", quantity: "inverseStress", positive: true }, unit: "1/GPa", section: "steps" },
-  { key: "meltVolume", flag: "melt-volume", kind: { type: "quantity", quantity: "volume", positive: true }, unit: "cm3", section: "steps" },
+  { key: "meltVolume", flag: "melt-volume", kind: { type: "quantity", quantity: "volume", positive: true }, unit: "cm³", section: "steps" },
   { key: "oscillationLimit", flag: "oscillation-limit", kind: { type: "quantity", quantity: "ratio", positive: true }, unit: "%", section: "steps" },
   { key: "thermalCheckLimit", flag: "thermal-limit", kind: { type: "quantity", quantity: "ratio", positive: true }, unit: "%", section: "steps" },
   { key: "endCorrection", flag: "end-correction", kind: { type: "choice", choices: ["bagley", "orifice", "none"] }, section: "reduction" },
