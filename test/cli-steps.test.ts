@@ -5,6 +5,7 @@
  * (first-order approach, src/core/compressionTime.ts).
  */
 import { readFileSync } from "node:fs";
+import ExcelJS from "exceljs";
 import { main } from "../src/cli/main";
 import { expectClose } from "./helpers/expectClose";
 import { syntheticRun } from "./helpers/syntheticTrace";
@@ -163,5 +164,27 @@ describe("rheoledger steps TRACE.csv", () => {
     expect((await run(["steps", "--help"])).stdout).toMatch(/--unsteady VALUE/);
     expect((await run(["steps", "workbooks/demo-film-grade.csv"])).stderr).toMatch(/is not a pressure recording/);
     expect((await run(["steps", DEMO, "--end-correction", "none"])).stderr).toMatch(/--end-correction: unknown option/);
+  });
+});
+
+describe("rheoledger reduce TRACE.csv --out results.xlsx", () => {
+  test("the workbook has the Steps and Step method sheets a colleague can audit", async () => {
+    let bytes: Uint8Array | undefined;
+    const code = await main(["reduce", DEMO, "--out", "r.xlsx"], { readFile: (p) => readFileSync(p, "utf8"), stdout: () => undefined, stderr: () => undefined, writeFile: (_, d) => (bytes = d) });
+    expect(code).toBe(0);
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.load(Buffer.from(bytes as Uint8Array) as unknown as ArrayBuffer);
+    expect(wb.worksheets.map((w) => w.name)).toEqual(["Summary", "Steps", "Step method", "Bagley", "Flow curve", "Fits", "Warnings"]);
+    const rows: unknown[][] = [];
+    wb.getWorksheet("Steps")!.eachRow((row) => rows.push((row.values as unknown[]).slice(1)));
+    expect(rows[0]).toEqual(["Die run", "Die", "Step", "Piston speed [mm/s]", "Step start [s]", "Window start [s]", "Window end [s]", "Samples", "Pressure [bar]", "Pressure sd [bar]", "Steady", "In flow curve", "Note"]);
+    expect(rows).toHaveLength(28);
+    const doc = JSON.parse((await run(["reduce", DEMO, "--json"])).stdout);
+    expectClose(rows[1]![8] as number, doc.groups[0].steps[0].pressure / 1e5, { rel: 1e-12 });
+    expect(rows[8]!.slice(10, 12)).toEqual([false, false]);
+    const method: unknown[][] = [];
+    wb.getWorksheet("Step method")!.eachRow((row) => method.push((row.values as unknown[]).slice(1)));
+    expect(String(method[1]![0])).toMatch(/^Steps: segmented where the piston speed changes/);
+    expect(method.some((m) => m[0] === "Repeated first speed (thermal stability)")).toBe(true);
   });
 });

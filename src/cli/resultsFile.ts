@@ -18,7 +18,7 @@ export async function writeResultsFile(out: CommandOutput, source: string, path:
     return 1;
   }
   try {
-    const bytes = await resultsWorkbookBytes({ result: out.result, warnings: out.run.warnings, fits: out.run.comparisons, source });
+    const bytes = await resultsWorkbookBytes({ result: out.result, warnings: out.run.warnings, fits: out.run.comparisons, source, ...(out.run.steps ? { steps: out.run.steps } : {}) });
     io.writeFile(path, bytes);
   } catch (e) {
     io.stderr(`rheoledger: cannot write ${path}: ${(e as Error).message}\n`);

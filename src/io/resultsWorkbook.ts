@@ -1,6 +1,6 @@
 /**
- * The results workbook of a reduction (xlsx): Summary, Bagley, Flow curve, Fits and Warnings
- * sheets, one header row of `quantity [unit]` cells each. Written with exceljs, a Node-only
+ * The results workbook of a reduction (xlsx): Summary, (for a pressure recording) Steps and Step
+ * method, Bagley, Flow curve, Fits and Warnings sheets, one header row of `quantity [unit]` cells each. Written with exceljs, a Node-only
  * dependency: only the command line imports this module (never src/functions or src/taskpane).
  *
  * `resultsSheets` builds the tables (pure); `resultsWorkbookBytes` writes them.
@@ -10,6 +10,9 @@ import type { Warning } from "../core/errors";
 import type { GroupFits } from "../core/flowCurveFits";
 import { getModel } from "../core/models";
 import type { ReductionResult } from "../core/reduce";
+import type { TraceSteps } from "../core/steps/traceSteps";
+import { headerWithUnit, stepsTable, thermalChecksTable, type ResultTable } from "./resultTables";
+import { stepMethodLines } from "./stepRecord";
 
 /** What goes into the results workbook. */
 export interface ResultsInput {
@@ -20,6 +23,8 @@ export interface ResultsInput {
   fits?: GroupFits[];
   /** where the data came from, e.g. the CSV path */
   source?: string;
+  /** the steps of a pressure recording, when the run started from one */
+  steps?: TraceSteps;
 }
 
 export type Cell = number | string | boolean | null;
@@ -32,7 +37,7 @@ export interface ResultsSheet {
 }
 
 /** Names of the sheets, in order (tests and the summary refer to them). */
-export const RESULTS_SHEETS = Object.freeze({ summary: "Summary", bagley: "Bagley", flowCurve: "Flow curve", fits: "Fits", warnings: "Warnings" });
+export const RESULTS_SHEETS = Object.freeze({ summary: "Summary", steps: "Steps", stepMethod: "Step method", bagley: "Bagley", flowCurve: "Flow curve", fits: "Fits", warnings: "Warnings" });
 
 const celsius = (kelvin: number | null): Cell => (kelvin === null ? null : kelvin - 273.15);
 const mm = (m: number) => m * 1e3;
@@ -161,9 +166,27 @@ function warningsSheet({ warnings }: ResultsInput): ResultsSheet {
   };
 }
 
-/** The sheets of the results workbook (Fits only when fits are given). */
+/** A result table (src/io/resultTables.ts) as a sheet: headers with units, rows as they are. */
+function tableSheet(name: string, t: ResultTable): ResultsSheet {
+  return { name, header: t.columns.map(headerWithUnit), rows: t.rows };
+}
+
+/**
+ * The audit record of a recording: the method lines (criterion, changed settings, windows set by
+ * hand), then the repeated-first-speed checks under their own header row.
+ */
+function stepMethodSheet(steps: TraceSteps): ResultsSheet {
+  const rows: Cell[][] = stepMethodLines(steps).map((l) => [l]);
+  const checks = thermalChecksTable(steps.runs);
+  if (checks) rows.push([], [checks.title], checks.columns.map(headerWithUnit), ...checks.rows);
+  return { name: RESULTS_SHEETS.stepMethod, header: ["step detection"], rows };
+}
+
+/** The sheets of the results workbook (Fits only when fits are given; Steps and Step method for a recording). */
 export function resultsSheets(input: ResultsInput): ResultsSheet[] {
-  const sheets = [summarySheet(input), bagleySheet(input), flowCurveSheet(input)];
+  const sheets = [summarySheet(input)];
+  if (input.steps) sheets.push(tableSheet(RESULTS_SHEETS.steps, stepsTable(input.steps.runs)), stepMethodSheet(input.steps));
+  sheets.push(bagleySheet(input), flowCurveSheet(input));
   if (input.fits) sheets.push(fitsSheet(input));
   sheets.push(warningsSheet(input));
   return sheets;
