@@ -64,6 +64,7 @@ describe("plateaus of steps that reach steady state", () => {
       const truth = LADDER[i]!;
       expect(s.steady).toBe(true);
       expect(s.used).toBe(true);
+      // @check steps/plateau, steps/runSteps, steps/transient | plateaus of first-order steps within 0.3 % of p_ss (4 recordings × 5 steps, noise 0.2–1 %, τ 1–8 s) | first-order barrel response p = p_ss + (p0 − p_ss)·exp(−t/τ) (Hatzikiriakos & Dealy, J. Rheol. 36 (1992) 845, from memory), generated in the test | rel 0.003 | 20
       expectClose(s.pressure, truth.pressure, { rel: 0.003 }, `step ${i + 1} plateau`);
       expectClose(s.pistonSpeed, truth.speed, { rel: 0.003 }, `step ${i + 1} speed`);
       // The plateau sd is the readings' noise (known here): within 15 % of it.
@@ -78,6 +79,7 @@ describe("plateaus of steps that reach steady state", () => {
     const r = syntheticRun({ steps: LADDER, tau: 5, noise: 0.002, seed: 9 });
     const from = r.stepStarts[2]!;
     const to = r.stepStarts[3]! - 1;
+    // @check steps/transient | the 1 − 1/e crossing of a first-order step response gives τ | first-order system step response (Ogata, Modern Control Engineering, 5th ed. (2010), ch. 5, from memory) | rel 0.1 | 1
     expectClose(timeConstantFromStep(r.time, r.pressure, from, to), 5, { rel: 0.1 }, "τ");
     // no visible transient: a flat step gives τ = 0
     const flat = syntheticRun({ steps: [{ speed: 1, pressure: 100, duration: 20 }], tau: 1, noise: 0.01, startPressure: 100, seed: 2 });
@@ -86,6 +88,7 @@ describe("plateaus of steps that reach steady state", () => {
 
   test("τ from the planner's compressibility model, τ = β·V·ΔP/Q, and a given τ take precedence", () => {
     // β = 1e-9 1/Pa, V = 2e-5 m³, ΔP = 1e7 Pa, Q = 1e-8 m³/s: τ = 20 s (by hand).
+    // @check compressionTime | τ = β·V·ΔP/Q and the settling time ln(1/ε)·τ | compliance–resistance model of the barrel (Hatzikiriakos & Dealy, J. Rheol. 36 (1992) 845, from memory); hand calculation | rel 1e-12 | 2
     expectClose(compressionTimeConstant(1e-9, 2e-5, 1e7, 1e-8), 20, { rel: 1e-12 });
     expectClose(settlingTime(10, 0.01), 10 * Math.log(100), { rel: 1e-12 });
     const r = syntheticRun({ steps: [{ speed: 1, pressure: 1e7, duration: 100 }], tau: 20, startPressure: 1e7, seed: 1 });
@@ -163,6 +166,7 @@ describe("defects are flagged", () => {
     const osc = detectOscillation(time, pressure, 0, 399, fit, 0.05, 3);
     expect(osc).not.toBeNull();
     expect(osc!.cycles).toBeGreaterThanOrEqual(9);
+    // @check steps/oscillation | period and 5th–95th percentile span 2a·sin(0.45π) of a sine about a drifting line | closed form of a sinusoid's quantiles (by hand) | rel 0.03 | 2
     expectClose(osc!.period, 2, { rel: 0.03 });
     // sine of amplitude a: 5th–95th percentile span = 2a·sin(0.45π) (by hand)
     expectClose(osc!.amplitude, 2 * 0.04e6 * Math.sin(0.45 * Math.PI), { rel: 0.03 });
@@ -194,6 +198,7 @@ describe("segmentation", () => {
   test("speed from piston position: scipy savgol_filter(5, 1, deriv=1) in the interior; steps found from it", () => {
     const { time, position, speed } = fixture.position as { time: number[]; position: number[]; speed: number[] };
     const ours = speedFromPosition(time, position);
+    // @check steps/positionSpeed | speed from piston positions at 56 interior samples | scipy.signal.savgol_filter(window 5, order 1, deriv 1) (scripts/scipy_steps_reference.py); Savitzky & Golay, Anal. Chem. 36 (1964) 1627 | rel 1e-9 | 56
     for (let i = 2; i < time.length - 2; i++) expectClose(ours[i]!, speed[i]!, { rel: 1e-9, abs: 1e-12 }, `sample ${i}`);
     // counting down gives the same speeds
     const down = speedFromPosition(time, position.map((x) => 10 - x));
@@ -218,6 +223,7 @@ describe("window fits and quantiles against scipy/numpy", () => {
   test("WindowSums.fit matches scipy.stats.linregress and numpy mean/std", () => {
     const { time, pressure, fits } = fixture.window as { time: number[]; pressure: number[]; fits: { from: number; to: number; mean: number; sd: number; slope: number; slopeError: number; noise: number }[] };
     const sums = new WindowSums(time, pressure, 0, time.length - 1);
+    // @check steps/windowFit | mean, sd, slope, slope standard error and residual sd of 4 windows | scipy.stats.linregress and numpy (scripts/scipy_steps_reference.py) | rel 1e-6 | 20
     for (const f of fits) {
       const ours = sums.fit(f.from, f.to);
       expect(ours.samples).toBe(f.to - f.from + 1);
@@ -230,6 +236,7 @@ describe("window fits and quantiles against scipy/numpy", () => {
   });
   test("percentile(values, q) is numpy.percentile's linear rule", () => {
     const { data, values } = fixture.quantiles as { data: number[]; values: { q: number; value: number }[] };
+    // @check steps/robust | 4 quantiles by the linear (type 7) rule | numpy.percentile (scripts/scipy_steps_reference.py); Hyndman & Fan, Am. Stat. 50 (1996) 361 | rel 1e-12 | 4
     for (const v of values) expectClose(percentile(data, v.q), v.value, { rel: 1e-12 }, `q ${v.q}`);
   });
   test("percentile by selection equals the type-7 rule on a sorted copy, ties and all", () => {
@@ -278,6 +285,7 @@ describe("force instruments and the blank run", () => {
     result.runs[0]!.steps.forEach((s, i) => {
       const v = LADDER[i]!.speed;
       const expectedFriction = (v <= 50 * MM_MIN ? fb(v) : fb(50 * MM_MIN)) / area;
+      // @check steps/friction | net pressure (F − F_blank(v))/(πD_b²/4) and the friction interpolated linearly in speed at 5 steps | force balance on the piston (Macosko, Rheology: Principles, Measurements and Applications (1994), §6.2, from memory) | rel 0.01 | 5
       expectClose(s.friction, expectedFriction, { rel: 0.01 }, `friction ${i + 1}`);
       expect(s.frictionOutside).toBe(i === 4);
       if (i < 4) expectClose(s.pressure, LADDER[i]!.pressure, { rel: 0.003 }, `net pressure ${i + 1}`);

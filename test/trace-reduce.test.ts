@@ -6,7 +6,7 @@
  * Rabinowitsch 1929). The recording approaches each pressure as a first-order response
  * (compressionTime.ts) with 0.5 % noise and 1 % speed jitter.
  */
-import { detectTraceSteps, reduce, stepMeasurements, type Measurement } from "../src/core";
+import { reduce, runTraceReduction, stepMeasurements, type Measurement } from "../src/core";
 import { readTraceTable } from "../src/io/traceTable";
 import { expectClose } from "./helpers/expectClose";
 import { syntheticRun } from "./helpers/syntheticTrace";
@@ -42,9 +42,11 @@ describe("three-die recording against its steady-point table", () => {
     const table = readTraceTable(recordingCells(), { rowWord: "line" });
     expect(table.runs).toHaveLength(3);
     expect(table.runs.map((r) => r.die?.dieLength)).toEqual(LENGTHS);
-    const trace = detectTraceSteps(table.runs);
-    expect(trace.warnings).toEqual([]);
-    const fromTrace = reduce(stepMeasurements(trace));
+    const run = runTraceReduction(table.runs, {}, {}, {}, table.warnings);
+    expect(run.warnings).toEqual([]);
+    const trace = run.steps;
+    expect(stepMeasurements(trace)).toHaveLength(15);
+    const fromTrace = run.result;
     const points: Measurement[] = LENGTHS.flatMap((L) =>
       SPEEDS_MM_MIN.map((s) => ({ dieDiameter: D, dieLength: L, flowRate: ((s * 1e-3) / 60) * ((Math.PI * DB * DB) / 4), pressure: steadyPressure(L, (s * 1e-3) / 60), temperature: 463.15 })),
     );
@@ -58,6 +60,11 @@ describe("three-die recording against its steady-point table", () => {
       expectClose(row.shearRateApparent, ref.shearRateApparent, { rel: 0.003 }, `γ̇a ${i}`);
       expectClose(row.wallShearStress, ref.wallShearStress, { rel: NOISE }, `τw ${i}`);
       expectClose(row.viscosity!, ref.viscosity!, { rel: NOISE }, `η ${i}`);
+    });
+    // the recording's flow curve is the power law within the plateau noise
+    a.forEach((row, i) => {
+      // @check steps/traceSteps, traceRun | flow curve of a three-die recording against η = K·γ̇_w^(n−1) at 5 rates | Ostwald–de Waele power law with the Rabinowitsch factor (3n + 1)/(4n) (Rabinowitsch, Z. Phys. Chem. A145 (1929) 1) | rel 0.005 | 5
+      expectClose(row.viscosity!, K * row.shearRateWall! ** (N - 1), { rel: NOISE }, `law ${i}`);
     });
     // and the table itself recovers the invented law (n' = n, η = K·γ̇_w^(n−1))
     for (const row of b) {
