@@ -2,6 +2,7 @@
  * Writes the demo data and the demo workbooks (invented scenarios, see scripts/demo/):
  *   workbooks/demo-<name>.csv   raw data as the command line reads it
  *   workbooks/demo-<name>.xlsx  "Raw data", "Formulas" (RHEO formulas with cached results), "Notes"
+ *   workbooks/demo-film-grade-recording.csv  the pressure recording behind the film-grade demo
  *
  * Run: node scripts/run-ts.mjs scripts/make-workbooks.ts   (npm run workbooks)
  *
@@ -14,6 +15,7 @@ import { writeFileSync } from "node:fs";
 import ExcelJS from "exceljs";
 import { CREAM_YIELD, creamYieldRows } from "./demo/creamYield";
 import { FILM_GRADE, filmGradeRows } from "./demo/filmGrade";
+import { filmGradeRecordingCsv } from "./demo/filmGradeRecording";
 import { PASTE_SLIP, pastePistonSpeed, pasteSlipRows } from "./demo/pasteSlip";
 import { Arg, RangeArg, rheo } from "./workbooks/sheetCall";
 import { columnArg, header, label, placeArray, rangeRef, referenceCell } from "./workbooks/sheetLayout";
@@ -325,6 +327,9 @@ async function main(): Promise<void> {
     writeFileSync(xlsx, Buffer.from(buffer));
     console.log(`wrote ${csv}, ${xlsx} (${Math.round(buffer.byteLength / 1024)} KB)`);
   }
+  const recording = "workbooks/demo-film-grade-recording.csv";
+  writeFileSync(recording, filmGradeRecordingCsv());
+  console.log(`wrote ${recording}`);
 }
 
 if (process.argv[1]?.endsWith("make-workbooks.cjs")) {

@@ -164,7 +164,7 @@ describe("dist bundles", () => {
   test("functions.js stays within its budget and carries no spreadsheet-file library", () => {
     const size = fs.statSync(path.join(dist, "functions.js")).size;
     expect(size).toBeLessThanOrEqual(webpackConfig.FUNCTIONS_BUDGET_BYTES);
-    expect(webpackConfig.FUNCTIONS_BUDGET_BYTES).toBe(185 * 1024);
+    expect(webpackConfig.FUNCTIONS_BUDGET_BYTES).toBe(210 * 1024);
     expect(built("functions.js")).not.toMatch(/exceljs|ExcelJS/);
   });
   test("the shared runtime page loads office.js, then the functions, then the pane", () => {

@@ -1,7 +1,8 @@
 /**
  * `rheoledger reduce FILE [--json]`: reads a raw-data CSV or workbook sheet (reduceInput.ts),
  * reduces it with the core and prints readable tables (units shown) or one JSON document in SI
- * units.
+ * units. A file with a `time` column is a pressure recording (several may be given): its steps
+ * are detected first (src/core/traceRun.ts) and their plateaus reduced.
  */
 import { RheoError, Warning } from "../core/errors";
 import { groupLabel, type ReductionGroup, type ReductionResult, type ReduceOptions } from "../core/reduce";
@@ -16,6 +17,10 @@ import { reductionSummary } from "./summary";
 import { flowCurveExtrasJson, groupExtrasJson, topExtrasJson } from "./methodFlags";
 import { CHART_DATA_TABLES, resultTables } from "../io/resultTables";
 import { shiftSummary, withFitJson } from "./fitReport";
+import type { TraceSteps } from "../core/steps/traceSteps";
+import { runTraceReduction } from "../core/traceRun";
+import { RECORDING_INPUT_FLAGS, readBlankFile, readRecordings, recordingJson, refuseStepSettings, type InputFile } from "./recordingInput";
+import type { CliIO } from "./io";
 
 /** Flags of `reduce` that choose what is read, printed or written (not reduce settings). */
 export const REDUCE_OUTPUT_FLAGS: Record<string, FlagSpec> = {
@@ -29,7 +34,7 @@ export const REDUCE_OUTPUT_FLAGS: Record<string, FlagSpec> = {
 };
 
 /** Every flag of `reduce`: the reduce settings (src/io/reduceOptions.ts) and the output flags. */
-export const REDUCE_FLAGS: Record<string, FlagSpec> = { ...reduceSettingFlags(), ...REDUCE_OUTPUT_FLAGS };
+export const REDUCE_FLAGS: Record<string, FlagSpec> = { ...reduceSettingFlags(), ...RECORDING_INPUT_FLAGS, ...REDUCE_OUTPUT_FLAGS };
 
 /** What a command hands back: text for standard output, and the data it printed. */
 export interface CommandOutput {
@@ -41,7 +46,7 @@ export interface CommandOutput {
   /** warnings from reading the file */
   inputWarnings: Warning[];
   /** the table read, with its row account and description */
-  input: ReduceInput;
+  input?: ReduceInput;
   /** wall time of the core's run (reduction, and fits when asked), ms (for `npm run bench`) */
   coreMs: number;
 }
@@ -71,12 +76,17 @@ export function asFlagError(e: unknown): unknown {
   }
 }
 
-/** The JSON document of a reduction, SI units (the contract in docs/cli.md). */
-export function reductionJson(result: ReductionResult, warnings: Warning[], input?: ReduceInput) {
+/**
+ * The JSON document of a reduction, SI units (the contract in docs/cli.md). From a pressure
+ * recording each group also has "steps" and the top level "thermalChecks" (and
+ * "stepsWithoutGroup" when a die run joined no group).
+ */
+export function reductionJson(result: ReductionResult, warnings: Warning[], input?: ReduceInput, steps?: TraceSteps) {
+  const recording = steps ? recordingJson(result, steps) : null;
   return {
     units: { pressure: "Pa", length: "m", time: "s", temperature: "K", viscosity: "Pa.s", shearRate: "1/s" },
     ...(input ? { input: { ...input.format, decimalMark: input.decimalMark }, rows: input.rows } : {}),
-    groups: result.groups.map((g) => ({
+    groups: result.groups.map((g, i) => ({
       temperature: g.temperature,
       ...(g.temperatureSpread !== undefined ? { temperatureSpread: g.temperatureSpread, temperatureReadings: g.temperatureReadings } : {}),
       dieDiameter: g.dieDiameter,
@@ -99,9 +109,11 @@ export function reductionJson(result: ReductionResult, warnings: Warning[], inpu
         ...flowCurveExtrasJson(g, i),
       })),
       ...groupExtrasJson(g),
+      ...(recording ? { steps: recording.groupSteps[i] ?? [] } : {}),
       warnings: g.warnings,
     })),
     ...topExtrasJson(result),
+    ...(recording ? recording.top : {}),
     warnings,
   };
 }
@@ -154,20 +166,50 @@ export function warningsText(warnings: Warning[]): string {
  * the flags ({@link reduceRequestFromFlags}; its input part was used to read the table).
  */
 export function runReduce(raw: ReduceInput, args: ParsedArgs, request: ReduceRequest = reduceRequestFromFlags(args)): CommandOutput {
-  const wantsRanking = args.flags.has("summary") || args.flags.has("out") || args.flags.has("report");
+  refuseStepSettings(request, raw.description);
+  if (typeof args.flags.get("blank") === "string") throw new RheoError("value", "--blank", `subtracts barrel friction from pressure recordings (a file with a "time [s]" column); ${raw.description} is a point table`, undefined, "SETTING_NOT_USED_HERE");
   let run: ReductionRun;
   const started = performance.now();
   try {
-    run = runReduction(raw.measurements, request.options, { ...request.fits, rank: wantsRanking }, raw.warnings);
+    run = runReduction(raw.measurements, request.options, { ...request.fits, rank: wantsRanking(args) }, raw.warnings);
   } catch (e) {
     throw asFlagError(e);
   }
   const coreMs = performance.now() - started;
+  return output(run, args, request, raw, coreMs);
+}
+
+/** Model ranking is needed by the summary and by the written files. */
+function wantsRanking(args: ParsedArgs): boolean {
+  return args.flags.has("summary") || args.flags.has("out") || args.flags.has("report");
+}
+
+/**
+ * Runs `reduce` on one or more pressure recordings (files with a time column): steps detected,
+ * their plateaus reduced (src/core/traceRun.ts).
+ * @param io reads the `--blank` file
+ */
+export function runRecordingReduce(files: InputFile[], args: ParsedArgs, io: CliIO, request: ReduceRequest = reduceRequestFromFlags(args)): CommandOutput {
+  const blankFile = args.flags.get("blank");
+  const recordings = readRecordings(files, request.input);
+  const blank = typeof blankFile === "string" ? readBlankFile(io, blankFile) : undefined;
+  const inputWarnings = [...recordings.warnings, ...(blank?.warnings ?? [])];
+  let run: ReductionRun;
+  const started = performance.now();
+  try {
+    run = runTraceReduction(recordings.runs, request.steps, request.options, { ...request.fits, rank: wantsRanking(args) }, inputWarnings, blank?.blank);
+  } catch (e) {
+    throw asFlagError(e);
+  }
+  return output(run, args, request, undefined, performance.now() - started);
+}
+
+function output(run: ReductionRun, args: ParsedArgs, request: ReduceRequest, raw: ReduceInput | undefined, coreMs: number): CommandOutput {
   const result = run.result;
   const stdout = args.flags.has("json")
-    ? JSON.stringify(withFitJson(reductionJson(result, run.warnings, raw), run), null, 2) + "\n"
+    ? JSON.stringify(withFitJson(reductionJson(result, run.warnings, raw, run.steps), run), null, 2) + "\n"
     : args.flags.has("summary")
-      ? reductionSummary(run, raw.rows) + shiftSummary(run)
+      ? reductionSummary(run, raw?.rows) + shiftSummary(run)
       : reductionText(run, raw) + warningsText(run.warnings);
-  return { stdout, run, result, options: request.options, request, inputWarnings: raw.warnings, input: raw, coreMs };
+  return { stdout, run, result, options: request.options, request, inputWarnings: run.warnings.filter((w) => w.scope === "input"), input: raw, coreMs };
 }

@@ -12,6 +12,7 @@ import { DEFAULT_RABINOWITSCH_OPTIONS } from "../core/rabinowitsch";
 import { finiteTables } from "../io/finiteTables";
 import { equationsUsed } from "../io/methodEquations";
 import { methodRecordTables } from "../io/methodRecord";
+import { stepMethodLines } from "../io/stepRecord";
 import { REDUCE_SETTINGS, REDUCE_SETTING_DEFAULTS } from "../io/reduceOptions";
 import { REDUCE_SETTING_WORDS } from "../io/reduceSettingWords";
 import { readReportMeta, reportItems, type ReportMeta } from "../io/reportItems";
@@ -36,7 +37,7 @@ export interface OutputPlan {
  * @returns the plan, or a usage message (exit status 2) for a wrong extension or a lonely flag
  * @throws RheoError for a path that may not be written or an unreadable or invalid `--meta` file
  */
-export function planOutputs(args: ParsedArgs, input: string, io: CliIO): OutputPlan | { usage: string } {
+export function planOutputs(args: ParsedArgs, input: string | readonly string[], io: CliIO): OutputPlan | { usage: string } {
   const out = args.flags.get("out");
   const report = args.flags.get("report");
   const meta = args.flags.get("meta");
@@ -59,7 +60,7 @@ export function planOutputs(args: ParsedArgs, input: string, io: CliIO): OutputP
     plan.meta = readReportMeta(raw, `--meta ${meta}`);
     plan.metaFile = meta;
   }
-  const inputs = [input, ...(plan.metaFile ? [plan.metaFile] : [])];
+  const inputs = [...(typeof input === "string" ? [input] : input), ...(plan.metaFile ? [plan.metaFile] : [])];
   if (typeof out === "string") {
     io.checkOutput?.(out, { flag: "--out", force, inputs });
     plan.out = out;
@@ -86,7 +87,7 @@ function reportFacts(out: CommandOutput, args: ParsedArgs): Record<string, { val
   }
   if (dies.size > 0) facts.dieGeometry = { value: [...dies.values()].join("; "), source: "data" };
   const barrel = args.flags.get("barrel-diameter");
-  const barrelColumn = out.input.columns.find((c) => c.name === "barrel_diameter");
+  const barrelColumn = out.input?.columns.find((c) => c.name === "barrel_diameter");
   if (typeof barrel === "string") facts.barrelDiameter = { value: barrel, source: "settings" };
   else if (barrelColumn) facts.barrelDiameter = { value: `per row, column "${barrelColumn.header}"`, source: "data" };
   const transducer = args.flags.get("transducer");
@@ -120,21 +121,25 @@ function digestOf(io: CliIO, file: string): { sha256: string; bytes: number } {
 }
 
 /** The run's tables (src/io/resultTables.ts) and its method record, ready for any writer, and the warnings writing them raised. */
-export function runDocument(out: CommandOutput, ctx: { file: string; args: ParsedArgs; argv: string[]; io: CliIO; plan: OutputPlan; date: Date }): { tables: ResultTable[]; method: ResultTable[]; warnings: Warning[] } {
+export function runDocument(out: CommandOutput, ctx: { file: string; files?: readonly string[]; args: ParsedArgs; argv: string[]; io: CliIO; plan: OutputPlan; date: Date }): { tables: ResultTable[]; method: ResultTable[]; warnings: Warning[] } {
   const { run } = out;
   const finite = finiteTables(resultTables(run));
   const warnings = [...run.warnings, ...finite.warnings];
   const rab = { ...DEFAULT_RABINOWITSCH_OPTIONS, ...out.options.rabinowitsch };
-  const flowColumn = out.input.columns.find((c) => c.name === "flow_rate" || c.name === "piston_speed" || c.name === "mass_rate")?.name as "flow_rate" | "piston_speed" | "mass_rate" | undefined;
+  const flowColumn = out.input?.columns.find((c) => c.name === "flow_rate" || c.name === "piston_speed" || c.name === "mass_rate")?.name as "flow_rate" | "piston_speed" | "mass_rate" | undefined;
   const fitted = new Set([...(run.modelFits ?? []).map((f) => f.model), ...(run.comparisons ?? []).flatMap((c) => c.ranked.map((r) => r.model))]);
   const method = methodRecordTables({
-    source: { name: ctx.file, ...digestOf(ctx.io, ctx.file) },
+    sources: (ctx.files ?? [ctx.file]).map((name) => ({ name, ...digestOf(ctx.io, name) })),
     program: { name: "Rheoledger", version: pkg.version, surface: "command line" },
     command: ["rheoledger", ...ctx.argv].map((a) => (/^[\w./=:,+-]+$/.test(a) ? a : `"${a.replace(/(["\\$`])/g, "\\$1")}"`)).join(" "),
     date: ctx.date,
     counts: [
-      ["Data rows used", out.input.measurements.length],
-      ["Data rows skipped (blank)", out.input.skippedRows.length],
+      ...(out.input
+        ? ([
+            ["Data rows used", out.input.measurements.length],
+            ["Data rows skipped (blank)", out.input.skippedRows.length],
+          ] as [string, number][])
+        : ([["Die runs of the recording", out.run.steps?.runs.length ?? 0]] as [string, number][])),
       ["Groups (temperature, die)", out.result.groups.length],
       ["Flow-curve points", out.result.groups.reduce((n, g) => n + g.flowCurve.length, 0)],
     ],
@@ -142,6 +147,7 @@ export function runDocument(out: CommandOutput, ctx: { file: string; args: Parse
     equations: equationsUsed({ result: out.result, endCorrection: out.options.endCorrection ?? DEFAULT_REDUCE_OPTIONS.endCorrection, rabinowitschMethod: rab.method, flowSource: flowColumn ?? null, fittedModels: [...fitted], shiftLaw: run.shift?.fit.law ?? null }),
     reportItems: reportItems(reportFacts(out, ctx.args), ctx.plan.meta),
     warnings,
+    ...(run.steps ? { steps: stepMethodLines(run.steps) } : {}),
   });
   return { tables: finite.tables, method, warnings: finite.warnings };
 }
@@ -150,7 +156,7 @@ export function runDocument(out: CommandOutput, ctx: { file: string; args: Parse
  * Writes the planned files, then the command's standard output and where the files went.
  * Returns the exit status (1 when a file could not be written: the message names it).
  */
-export async function writeReduceOutputs(out: CommandOutput, ctx: { file: string; args: ParsedArgs; argv: string[]; io: CliIO; plan: OutputPlan }): Promise<number> {
+export async function writeReduceOutputs(out: CommandOutput, ctx: { file: string; files?: readonly string[]; args: ParsedArgs; argv: string[]; io: CliIO; plan: OutputPlan }): Promise<number> {
   const { io, plan } = ctx;
   if (!io.writeFile) {
     io.stderr("rheoledger: this surface cannot write files\n");
@@ -158,7 +164,7 @@ export async function writeReduceOutputs(out: CommandOutput, ctx: { file: string
   }
   const date = new Date();
   const doc = runDocument(out, { ...ctx, date });
-  const options = (flag: string): OutputOptions => ({ flag, force: plan.force, inputs: [ctx.file, ...(plan.metaFile ? [plan.metaFile] : [])] });
+  const options = (flag: string): OutputOptions => ({ flag, force: plan.force, inputs: [...(ctx.files ?? [ctx.file]), ...(plan.metaFile ? [plan.metaFile] : [])] });
   const notes: string[] = [];
   try {
     if (plan.out) {

@@ -31,3 +31,6 @@ export * from "./pressureDependence";
 export * from "./uncertainty";
 export * from "./meltFlowRate";
 export * from "./reduceMethods";
+export * from "./compressionTime";
+export * from "./steps";
+export * from "./traceRun";

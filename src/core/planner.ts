@@ -13,7 +13,7 @@
  * (exact for a Newtonian liquid, conservative for a shear-thinning one whose tangent resistance
  * n'·ΔP/Q is smaller), reaching within a fraction ε of the final pressure after ln(1/ε) time
  * constants. V_melt is the melt left in the barrel at the start of the step. A planning estimate
- * derived here, not from a standard.
+ * derived here, not from a standard (compressionTime.ts holds the model and its source).
  *
  * Each die is assumed to be one barrel load (single-bore instrument, rates ascending); the total
  * time adds options.timePerLoad (loading, compaction, preheating) per die.
@@ -23,6 +23,7 @@ import { pistonSpeedForFlowRate } from "./flow";
 import { dieFlowPoint, validatePlanDie, type DieFlowPoint, type PlanDie } from "./diePressure";
 import { rangeFlag, suggestTransducer, validateTransducers, type PlanTransducer, type RangeFlag } from "./transducerChoice";
 import type { ViscosityFunction } from "./priorViscosity";
+import { compressionTimeConstant, settlingTime } from "./compressionTime";
 
 /** Rules of thumb of the planner, defined once. */
 export const DEFAULT_PLANNER_OPTIONS = Object.freeze({
@@ -223,7 +224,7 @@ function dieSteps(die: PlanDie, flows: DieFlowPoint[], transducer: PlanTransduce
     let settleTime: number | null = null;
     if (input.compressibility !== undefined) {
       const melt = Math.max(0, capacity - cumulative);
-      settleTime = Math.log(1 / o.settleTolerance) * input.compressibility * melt * (f.pressure / f.flowRate);
+      settleTime = melt > 0 ? settlingTime(compressionTimeConstant(input.compressibility, melt, f.pressure, f.flowRate), o.settleTolerance) : 0;
     }
     const stepTime = Math.max(input.dwellTime, settleTime ?? 0);
     const volume = f.flowRate * stepTime;

@@ -23,6 +23,8 @@ export interface Measurement {
   flowRate: number;
   /** measured pressure drop ΔP (includes entrance and exit losses), Pa */
   pressure: number;
+  /** standard deviation of the plateau pressure, Pa (a step read off a pressure–time trace) */
+  pressureStd?: number;
   /** melt temperature, K (optional; points without one form their own group) */
   temperature?: number;
   /** the source row (1-based), carried into error messages */

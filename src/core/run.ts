@@ -20,6 +20,7 @@ import {
   type TemperatureCurve,
   type WlfShiftFit,
 } from "./temperature";
+import type { TraceSteps } from "./steps/traceSteps";
 
 /** The model fits and shift a run is asked for. */
 export interface FitRequest {
@@ -53,6 +54,8 @@ export interface ReductionRun {
   shift?: RunShift;
   /** every warning of the run: input (given), reduction, fits, shift; each with severity and scope */
   warnings: Warning[];
+  /** the steps of a pressure recording, when the run started from one (traceRun.ts) */
+  steps?: TraceSteps;
 }
 
 /** Re-raises a core error with the group in front, keeping kind and code. */

@@ -30,6 +30,14 @@ export const WARNING_CODES = Object.freeze({
   TEMPERATURE_GROUPS_CLOSE: "caution",
   TEMPERATURE_IGNORED: "info",
 
+  // Steps of a pressure–time trace
+  STEP_NOT_STEADY: "caution",
+  STEP_WINDOW_SET: "info",
+  STEP_PRESSURE_NONPOSITIVE: "serious",
+  BLANK_SPEED_OUTSIDE: "caution",
+  THERMAL_CHECK_CHANGE: "caution",
+  FLOW_INSTABILITY: "caution",
+
   // End correction
   BAGLEY_FEW_DIES: "caution",
   BAGLEY_LOW_R2: "caution",

@@ -15,8 +15,8 @@ import { describeWarning } from "./warningCatalog";
 
 /** Everything the method record states. */
 export interface MethodRecordInput {
-  /** the input file: name as given, size in bytes and SHA-256 (hex) of its bytes; null: not a file */
-  source: { name: string; bytes: number; sha256: string } | null;
+  /** every input file: name as given, size in bytes and SHA-256 (hex) of its bytes */
+  sources: { name: string; bytes: number; sha256: string }[];
   /** program name, version and the surface that ran it, e.g. "command line" */
   program: { name: string; version: string; surface: string };
   /** the command as typed (arguments), when run from the command line */
@@ -29,6 +29,8 @@ export interface MethodRecordInput {
   equations: readonly EquationLine[];
   reportItems: readonly ReportItemRow[];
   warnings: readonly Warning[];
+  /** how the steps of a pressure recording were found, one line each (src/io/stepRecord.ts), when read from a recording */
+  steps?: readonly string[];
 }
 
 const text = (key: string, header: string): ResultColumn => ({ key, header, unit: "", kind: "text" });
@@ -40,8 +42,8 @@ export function methodRecordTables(m: MethodRecordInput): ResultTable[] {
     ["Date and time (UTC)", m.date.toISOString().replace("T", " ").replace(/\.\d+Z$/, " UTC")],
   ];
   if (m.command !== undefined) run.push(["Command", m.command]);
-  if (m.source) {
-    run.push(["Input file", m.source.name], ["Input file size", `${m.source.bytes} bytes`], ["Input file SHA-256", m.source.sha256]);
+  for (const source of m.sources) {
+    run.push(["Input file", source.name], ["Input file size", `${source.bytes} bytes`], ["Input file SHA-256", source.sha256]);
   }
   for (const [label, value] of m.counts) run.push([label, String(value)]);
   const sorted = [...m.warnings].sort((a, b) => SEVERITY_ORDER.indexOf(a.severity) - SEVERITY_ORDER.indexOf(b.severity));
@@ -65,6 +67,17 @@ export function methodRecordTables(m: MethodRecordInput): ResultTable[] {
       columns: [text("step", "Step"), text("formula", "Formula"), text("reference", "Reference")],
       rows: m.equations.map((e) => [...e]),
     },
+    ...(m.steps && m.steps.length > 0
+      ? [
+          {
+            id: "stepMethod",
+            title: "Steps of the pressure recording: how they were found",
+            columns: [text("line", "Criterion or window")],
+            rows: m.steps.map((l) => [l]),
+            notes: ["Hand-set windows are listed beside the detected ones."],
+          },
+        ]
+      : []),
     {
       id: "reportItems",
       title: "Test report items (ISO 11443, ASTM D3835)",

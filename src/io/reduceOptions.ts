@@ -18,6 +18,7 @@ import { DEFAULT_RABINOWITSCH_OPTIONS, type RabinowitschMethod } from "../core/r
 import { DEFAULT_ORIFICE_OPTIONS } from "../core/orifice";
 import { getModel, type ModelId } from "../core/models";
 import type { FitRequest } from "../core/run";
+import type { StepOptions } from "../core/steps/options";
 import { excerpt, readNumberText, readQuantityText } from "./numberText";
 
 /** What kind of value a setting takes. */
@@ -43,7 +44,7 @@ export interface ReduceSettingSpec {
   /** unit a bare number is read in on the pane and in worksheet settings, one spelling */
   unit?: string;
   /** where the setting belongs, for grouping on screen and in docs */
-  section: "input" | "reduction" | "checks" | "fits";
+  section: "input" | "steps" | "reduction" | "checks" | "fits";
 }
 
 const RABINOWITSCH_METHODS: readonly RabinowitschMethod[] = ["transition", "local", "global", "difference"];
@@ -53,6 +54,15 @@ export const REDUCE_SETTINGS: readonly ReduceSettingSpec[] = Object.freeze<Reduc
   { key: "barrelDiameter", flag: "barrel-diameter", kind: { type: "quantity", quantity: "length", positive: true }, unit: "mm", section: "input" },
   { key: "density", flag: "density", kind: { type: "quantity", quantity: "density", positive: true }, unit: "g/cm³", section: "input" },
   { key: "temperatureTolerance", flag: "temperature-tolerance", kind: { type: "quantity", quantity: "temperatureDifference", positive: false }, unit: "K", section: "input" },
+  { key: "unsteady", flag: "unsteady", kind: { type: "choice", choices: ["exclude", "keep"] }, section: "steps" },
+  { key: "speedTolerance", flag: "speed-tolerance", kind: { type: "quantity", quantity: "ratio", positive: true }, unit: "%", section: "steps" },
+  { key: "minWindowTime", flag: "min-window", kind: { type: "quantity", quantity: "time", positive: true }, unit: "s", section: "steps" },
+  { key: "driftLimit", flag: "drift-limit", kind: { type: "number", positive: true }, section: "steps" },
+  { key: "timeConstant", flag: "time-constant", kind: { type: "quantity", quantity: "time", positive: true }, unit: "s", section: "steps" },
+  { key: "compressibility", flag: "compressibility", kind: { type: "quantity", quantity: "inverseStress", positive: true }, unit: "1/GPa", section: "steps" },
+  { key: "meltVolume", flag: "melt-volume", kind: { type: "quantity", quantity: "volume", positive: true }, unit: "cm³", section: "steps" },
+  { key: "oscillationLimit", flag: "oscillation-limit", kind: { type: "quantity", quantity: "ratio", positive: true }, unit: "%", section: "steps" },
+  { key: "thermalCheckLimit", flag: "thermal-limit", kind: { type: "quantity", quantity: "ratio", positive: true }, unit: "%", section: "steps" },
   { key: "endCorrection", flag: "end-correction", kind: { type: "choice", choices: ["bagley", "orifice", "none"] }, section: "reduction" },
   { key: "orifice", flag: "orifice", kind: { type: "switch" }, section: "reduction" },
   { key: "orificeMaxLengthOverDiameter", flag: "orifice-max-ld", kind: { type: "number", positive: true }, section: "reduction" },
@@ -94,13 +104,20 @@ export function reduceSettingOfFlag(flag: string): ReduceSettingSpec | undefined
   return BY_FLAG.get(flag);
 }
 
-/** What the reader hands back: the core's options, the reading options, the fits. */
+/** What the reader hands back: the core's options, the reading options, the fits, the step detection's settings. */
 export interface ReduceRequest {
   options: Partial<ReduceOptions>;
   /** defaults for the table reader when a column is absent, SI */
   input: { barrelDiameter?: number; density?: number };
   fits: FitRequest;
+  /** step detection of a pressure recording (src/core/steps/options.ts), SI; empty when none given */
+  steps: Partial<StepOptions>;
 }
+
+/** The keys of the step-detection settings (section "steps"): they apply to pressure recordings only. */
+export const STEP_SETTING_KEYS: readonly (keyof StepOptions)[] = Object.freeze(
+  ["unsteady", "speedTolerance", "minWindowTime", "driftLimit", "timeConstant", "compressibility", "meltVolume", "oscillationLimit", "thermalCheckLimit"] as const,
+);
 
 /** How a surface gives its values. */
 export interface ReduceSettingsSource {
@@ -328,8 +345,18 @@ function buildRequest(
   const o: Partial<ReduceOptions> = {};
   const input: ReduceRequest["input"] = {};
   const fits: FitRequest = {};
+  const steps: Partial<StepOptions> = {};
   const fail = (e: RheoError) => errors.push(e);
   const get = <T>(key: string) => v.get(key) as T | undefined;
+  for (const key of STEP_SETTING_KEYS) {
+    const value = get<StepOptions[typeof key]>(key);
+    if (value !== undefined) (steps as Record<string, unknown>)[key] = value;
+  }
+  if ((steps.compressibility === undefined) !== (steps.meltVolume === undefined)) {
+    const missing = steps.compressibility === undefined ? "compressibility" : "meltVolume";
+    if (!alreadyFailed(missing)) fail(new RheoError("missing", nameOfKey(missing), `is needed with ${nameOfKey(missing === "compressibility" ? "meltVolume" : "compressibility")}: the time constant τ = β·V·ΔP/Q takes both`));
+  }
+  if (steps.speedTolerance !== undefined && !(steps.speedTolerance < 1)) fail(new RheoError("domain", nameOfKey("speedTolerance"), `must be below 100 %, got ${steps.speedTolerance * 100} %`));
   const end = get<ReduceOptions["endCorrection"]>("endCorrection");
   if (end !== undefined) o.endCorrection = end;
   if (get<boolean>("orifice")) {
@@ -417,7 +444,7 @@ function buildRequest(
   } else if (tref !== undefined && src.requireReferenceTemperature) {
     fail(new RheoError("value", nameOfKey("referenceTemperature"), `is the reference temperature of ${nameOfKey("shift")}; give ${nameOfKey("shift")} arrhenius or wlf too`));
   }
-  return { options: o, input, fits };
+  return { options: o, input, fits, steps };
 }
 
 /** Reads "12 g/10min, 2.16 kg" (MFR: needs a density) or "16 cm3/10min, 2.16 kg" (MVR). */

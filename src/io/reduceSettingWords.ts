@@ -11,6 +11,7 @@ import { MODEL_IDS } from "../core/models";
 import { DEFAULT_FLOW_CURVE_MODELS } from "../core/flowCurveFits";
 import { REDUCE_SETTINGS } from "./reduceOptions";
 import { DEFAULT_REDUCE_OPTIONS } from "../core/reduceTypes";
+import { DEFAULT_STEP_OPTIONS } from "../core/steps/options";
 
 /** Label, help and per-choice help of one setting. */
 export interface ReduceSettingWords {
@@ -34,6 +35,46 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
   temperatureTolerance: {
     label: "Temperature tolerance",
     help: `temperature readings closer than this form one set-point, reported at their mean with their spread, e.g. "2 K" (default ${DEFAULT_REDUCE_OPTIONS.temperatureTolerance} K)`,
+  },
+  unsteady: {
+    label: "Steps that never settle",
+    help: `pressure recordings: exclude (default) or keep, flagged, the steps whose pressure never becomes steady`,
+    choiceHelp: {
+      exclude: "Leaves a step out of the flow curve when its pressure still drifts, or it is cut short (a warning names it).",
+      keep: "Keeps such a step in the flow curve with its warning: its plateau may be off by the drift.",
+    },
+  },
+  speedTolerance: {
+    label: "Speed change that starts a step",
+    help: `pressure recordings: a piston-speed change beyond this starts a new step (default ${DEFAULT_STEP_OPTIONS.speedTolerance * 100} %)`,
+  },
+  minWindowTime: {
+    label: "Shortest steady window",
+    help: `pressure recordings: the plateau is read over at least this long (default ${DEFAULT_STEP_OPTIONS.minWindowTime} s)`,
+  },
+  driftLimit: {
+    label: "Drift limit (noise sd)",
+    help: `pressure recordings: steady when the drift over the window is at most this many noise standard deviations (default ${DEFAULT_STEP_OPTIONS.driftLimit})`,
+  },
+  timeConstant: {
+    label: "Time constant of the pressure",
+    help: "pressure recordings: time constant τ of the pressure's approach after a speed change (default: read off each step)",
+  },
+  compressibility: {
+    label: "Melt compressibility",
+    help: 'pressure recordings: melt compressibility β, e.g. "1 1/GPa"; with the melt volume gives τ = β·V·ΔP/Q as in the planner',
+  },
+  meltVolume: {
+    label: "Melt volume in the barrel",
+    help: 'pressure recordings: melt volume in the barrel, e.g. "25 cm3" (with the compressibility)',
+  },
+  oscillationLimit: {
+    label: "Oscillation reported above",
+    help: `pressure recordings: a pressure oscillation larger than this, peak to peak, is reported as flow instability (default ${DEFAULT_STEP_OPTIONS.oscillationLimit * 100} %)`,
+  },
+  thermalCheckLimit: {
+    label: "Repeated first speed: largest change",
+    help: `pressure recordings: the first speed repeated at the end of a die run may change its pressure by this much (default ${DEFAULT_STEP_OPTIONS.thermalCheckLimit * 100} %)`,
   },
   endCorrection: {
     label: "End correction",

@@ -15,6 +15,10 @@ import { groupLabel, type ReductionGroup } from "../core/reduce";
 import type { ReductionRun } from "../core/run";
 import { evaluateModel, getModel } from "../core/models";
 import { displayUnit, modelName, parameterSymbol } from "./displayNames";
+import { DEFAULT_REDUCE_OPTIONS } from "../core/reduceTypes";
+import type { RunSteps } from "../core/steps/runSteps";
+import { runsByGroup } from "../core/steps/groupSteps";
+import { stepNote } from "./stepRecord";
 
 /** One cell: a number in the column's unit, text, a flag, or null for an empty cell. */
 export type ResultCell = number | string | boolean | null;
@@ -458,9 +462,77 @@ export function warningsTable(warnings: readonly Warning[]): ResultTable {
 /** Every table of a run, in reading order: groups, then per group its tables, then across groups. */
 export function resultTables(run: ReductionRun): ResultTable[] {
   const tables: (ResultTable | null)[] = [groupsTable(run)];
+  const steps = run.steps ? runsByGroup(run.result.groups, run.steps, DEFAULT_REDUCE_OPTIONS) : null;
   run.result.groups.forEach((g, i) => {
+    const runs = steps?.byGroup[i] ?? [];
+    if (runs.length > 0) tables.push(stepsTable(runs, groupLabel(g)));
     tables.push(bagleyTable(g), bagleyPointsTable(g), flowCurveTable(g), rabinowitschTable(g), viscosityModelTable(run, g, i), entrancePressureTable(g), extensionalTable(g), heatingTable(g), pressureDependenceTable(g));
   });
+  if (steps && steps.unassigned.length > 0) tables.push({ ...stepsTable(steps.unassigned), title: "Steps of die runs with no point in the flow curve" });
+  if (run.steps) tables.push(thermalChecksTable(run.steps.runs));
   tables.push(slipTable(run), meltFlowTable(run), fitRankingTable(run), fitParameterTable(run), shiftTable(run), shiftConstantsTable(run), masterTable(run), warningsTable(run.warnings));
   return tables.filter((t): t is ResultTable => t !== null);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Pressure recordings: the steps of each die run and the repeated-first-speed checks
+
+/**
+ * The steps of die runs: where each plateau was read (step start, window start and end), its mean
+ * and standard deviation, whether it is steady and whether it went into the flow curve, and a
+ * plain note (src/io/stepRecord.ts). Times on each run's own clock.
+ * @param scope the group label when the runs belong to one group
+ */
+export function stepsTable(runs: readonly RunSteps[], scope?: string): ResultTable {
+  const rows: ResultCell[][] = runs.flatMap((r) =>
+    r.steps.map((s) => [r.run, r.label || null, s.step, v(s.pistonSpeed, MM), v(s.stepStart), v(s.start), v(s.end), s.samples, v(s.pressure, BAR), v(s.pressureStd, BAR), s.steady, s.used, stepNote(s) || null]),
+  );
+  return {
+    id: "steps",
+    title: "Steps of the pressure recording",
+    ...(scope !== undefined ? { scope } : {}),
+    columns: [
+      num("run", "Die run", ""),
+      text("die", "Die"),
+      num("step", "Step", ""),
+      num("pistonSpeed", "Piston speed", "mm/s"),
+      num("stepStart", "Step start", "s"),
+      num("start", "Window start", "s"),
+      num("end", "Window end", "s"),
+      num("samples", "Samples", ""),
+      num("pressure", "Pressure", "bar"),
+      num("pressureStd", "Pressure sd", "bar", 2),
+      flag("steady", "Steady"),
+      flag("used", "In flow curve"),
+      text("note", "Note"),
+    ],
+    rows,
+    notes: ["Pressure: mean over the window (net of barrel friction with a blank run); sd: standard deviation of the window's readings. Times on each die run's own clock."],
+    keyColumns: ["step", "pistonSpeed", "pressure", "steady"],
+  };
+}
+
+/** The repeated first speed of each die run that has one (thermal-stability check), or null. */
+export function thermalChecksTable(runs: readonly RunSteps[]): ResultTable | null {
+  const rows: ResultCell[][] = runs.flatMap((r) => {
+    const c = r.thermalCheck;
+    return c ? [[r.run, r.label || null, v(c.pistonSpeed, MM), v(c.firstPressure, BAR), v(c.repeatPressure, BAR), v(c.change, 100), c.withinLimit, c.bothSteady]] : [];
+  });
+  if (rows.length === 0) return null;
+  return {
+    id: "thermalChecks",
+    title: "Repeated first speed (thermal stability)",
+    columns: [
+      num("run", "Die run", ""),
+      text("die", "Die"),
+      num("pistonSpeed", "Piston speed", "mm/s"),
+      num("firstPressure", "First", "bar"),
+      num("repeatPressure", "Repeat", "bar"),
+      num("change", "Change", "%", 2),
+      flag("withinLimit", "Within limit"),
+      flag("bothSteady", "Both steady"),
+    ],
+    rows,
+    keyColumns: ["run", "change", "withinLimit"],
+  };
 }

@@ -50,7 +50,7 @@ export function tickLabel(v: number): string {
   return Number(v.toPrecision(4)).toString();
 }
 
-interface Scale {
+export interface Scale {
   map(v: number): number;
   ticks: number[];
 }
@@ -62,7 +62,7 @@ function niceStep(span: number): number {
   return (f < 1.5 ? 1 : f < 3.5 ? 2 : f < 7.5 ? 5 : 10) * mag;
 }
 
-function scale(values: number[], log: boolean, forcedMin: number | undefined, lo: number, hi: number): Scale {
+export function scale(values: number[], log: boolean, forcedMin: number | undefined, lo: number, hi: number): Scale {
   const finite = values.filter((v) => Number.isFinite(v) && (!log || v > 0));
   let min = Math.min(...finite, ...(forcedMin !== undefined ? [forcedMin] : []));
   let max = Math.max(...finite);

@@ -6,7 +6,7 @@
 import { plotSvg } from "../io/svgChart";
 import { ChartSpec, SheetPlan, seriesPoints } from "./sheetPlan";
 
-export { escapeXml, tickLabel } from "../io/svgChart";
+export { escapeXml, scale, tickLabel, type Scale } from "../io/svgChart";
 
 /**
  * The SVG markup of one chart of a plan. Each series is a `<g class="series" data-name=…>` with
