@@ -8,9 +8,11 @@ import { reduce, ReductionGroup, ReductionResult } from "../core/reduce";
 import { compareModels, type CompareResult } from "../core/fit";
 import { evaluateModel, type ModelId } from "../core/models";
 import { readRawTable, RawTable } from "../io/rawTable";
+import { modelName } from "../io/displayNames";
 import { COLUMN_QUANTITIES } from "../io/headers";
 import { applyColumnChoices, ColumnChoice, DieEntry } from "./columns";
-import { FieldError, FieldId, PaneSettings, reduceOptionsOf, validateSettings } from "./settings";
+import { FieldId, PaneSettings, reduceOptionsOf, validateSettings } from "./settings";
+import { PaneFieldError, detailOf, sentence } from "./panelContract";
 import { ShiftOutput, shiftRun } from "./temperatureShift";
 
 /** What the user picked in the Data step. */
@@ -56,55 +58,58 @@ export type ProgressReporter = (step: string, fraction: number) => void;
 /** Points on each model curve in the charts. */
 export const MODEL_CURVE_POINTS = 24;
 
-/** A failure meant for one field of the pane. */
-export class PaneError extends Error {
-  readonly field: FieldId;
-  constructor(field: FieldId, message: string) {
-    super(message);
-    this.name = "PaneError";
-    this.field = field;
-  }
-}
-
 /**
- * The pane field a core or reader error concerns: bad cells → the data source; column problems →
- * the mapping; die list problems → the die list; a single die length → the end-correction choice;
- * option errors → their control.
+ * The pane field a core or reader error concerns, read from its structured fields (argument, row),
+ * never from its wording: a cell of the data (a row, or a column's value) → the data source;
+ * a column or header problem → the column mapping; the die list → the die list; die lengths (the
+ * end correction's needs) → the end-correction choice; die bores (the slip check's needs) → the
+ * optional checks; an option → its control.
  */
 export function fieldOfError(error: RheoError): FieldId {
   const a = error.argument;
-  if (a === "dies") return "dies";
-  if (a === "dieLength" && /single die length|at least two lengths/.test(error.message)) return "endCorrection";
-  if (a === "method") return "rabinowitschMethod";
-  if (a === "degree") return "rabinowitschDegree";
-  if (a === "window") return "rabinowitschWindow";
-  if (a === "model" || a === "models") return "models";
-  if (a === "temperatureShift" || /^curves/.test(a)) return "temperatureShift";
-  if (a === "referenceTemperature") return "referenceTemperatureC";
-  if (/temperatureCoefficient$/.test(a)) return "heatingTemperatureCoefficient";
-  if (a === "density") return "heatingDensity";
-  if (a === "heatCapacity") return "heatingHeatCapacity";
-  if (a === "conductivity") return "heatingConductivity";
-  if (a === "fullScale") return "transducerRangeBar";
-  if (a === "accuracy") return "transducerAccuracyPercent";
-  if (a === "dieDiameter" && /slip/.test(error.message)) return "checks";
-  if (a === "dieLength" && /orifice/.test(error.message)) return "endCorrection";
-  if (/\b(row|line) \d+/.test(error.message)) return "source";
-  if (a === "data" || a === "measurements") return "source";
-  if (a === "columns" || a === "header" || /^column \d+/.test(a) || a in COLUMN_QUANTITIES) return "columns";
+  const byArgument: Record<string, FieldId> = {
+    dies: "dies",
+    dieLength: "endCorrection",
+    endCorrection: "endCorrection",
+    orificePressure: "endCorrection",
+    dieDiameter: "slip",
+    method: "rabinowitschMethod",
+    degree: "rabinowitschDegree",
+    window: "rabinowitschWindow",
+    model: "models",
+    models: "models",
+    temperatureShift: "temperatureShift",
+    referenceTemperature: "referenceTemperatureC",
+    "heating.temperatureCoefficient": "heatingTemperatureCoefficient",
+    temperatureCoefficient: "heatingTemperatureCoefficient",
+    density: "heatingDensity",
+    heatCapacity: "heatingHeatCapacity",
+    conductivity: "heatingConductivity",
+    fullScale: "transducerRangeBar",
+    accuracy: "transducerAccuracyPercent",
+    data: "source",
+    measurements: "source",
+    columns: "columns",
+    header: "columns",
+  };
+  const direct = byArgument[a];
+  if (direct) return direct;
+  if (a.startsWith("curves")) return "temperatureShift";
+  // a value in a data cell: the reader names it "<header> (column N)" or "row N" / "line N"
+  if (error.row !== undefined || /\(column \d+\)$/.test(a) || /^(row|line) \d+$/.test(a)) return "source";
+  if (/^column \d+$/.test(a) || a in COLUMN_QUANTITIES) return "columns";
   return "run";
 }
 
-/** The error as a message for one field, in plain words. */
-export function toFieldError(error: unknown): FieldError {
-  if (error instanceof PaneError) return { field: error.field, message: error.message };
-  if (error instanceof RheoError) return { field: fieldOfError(error), message: sentence(error.message) };
-  return { field: "run", message: `Unexpected problem: ${error instanceof Error ? error.message : String(error)}` };
-}
-
-function sentence(text: string): string {
-  const t = text.trim();
-  return (t.charAt(0).toUpperCase() + t.slice(1)).replace(/([^.])$/, "$1.");
+/** The error as problems for the pane's fields, in plain words (the field's label names it). */
+export function toFieldError(error: unknown): PaneFieldError {
+  if (error instanceof PaneFieldError) return error;
+  if (error instanceof RheoError) {
+    const field = fieldOfError(error);
+    // a failure not tied to one field keeps the argument's name in its message
+    return new PaneFieldError({ field, message: field === "run" ? sentence(error.message) : detailOf(error) });
+  }
+  return new PaneFieldError({ field: "run", message: `Unexpected problem: ${error instanceof Error ? error.message : String(error)}` });
 }
 
 import { groupLabel } from "../core/grouping";
@@ -122,13 +127,13 @@ function fitGroup(group: ReductionGroup, models: readonly ModelId[]): { fits: Gr
   const label = groupLabel(group);
   if (models.length === 0) return { fits: { compare: null, curves: [] }, warnings: [] };
   if (rows.length < 3) {
-    return { fits: { compare: null, curves: [] }, warnings: [warning("FIT_SKIPPED", `${label}: only ${rows.length} corrected point(s); no model was fitted.`)] };
+    return { fits: { compare: null, curves: [] }, warnings: [warning("FIT_SKIPPED", `${label}: only ${rows.length} corrected point(s); no model was fitted.`, label)] };
   }
   const data = { shearRate: rows.map((r) => r.shearRateWall as number), viscosity: rows.map((r) => r.viscosity as number) };
   const compare = compareModels(models, data);
   const warnings: Warning[] = [];
-  for (const f of compare.failed) warnings.push(warning("FIT_FAILED", `${label}: ${f.model} was not fitted (${f.reason}).`));
-  for (const r of compare.ranked) warnings.push(...r.result.warnings.map((w) => warning(w.code, `${label}, ${r.model}: ${w.message}`)));
+  for (const f of compare.failed) warnings.push(warning("FIT_FAILED", `${label}: ${modelName(f.model)} was not fitted (${f.reason}).`, label));
+  for (const r of compare.ranked) warnings.push(...r.result.warnings.map((w) => warning(w.code, `${label}, ${modelName(r.model)}: ${w.message}`, label)));
   const grid = logGrid(Math.min(...data.shearRate), Math.max(...data.shearRate), MODEL_CURVE_POINTS);
   const curves = compare.ranked.map((r) => ({ model: r.model, shearRate: grid, viscosity: evaluateModel(r.model, r.result.parameters, grid) }));
   return { fits: { compare, curves }, warnings };
@@ -137,7 +142,7 @@ function fitGroup(group: ReductionGroup, models: readonly ModelId[]): { fits: Gr
 /**
  * Runs a whole reduction: settings check, column mapping, reading, the core's reduction with the
  * chosen checks (its transducer check included), the temperature shift, and model fits per group, reporting progress and pausing between groups.
- * @throws PaneError naming the field at fault (settings, mapping, data, die list).
+ * @throws PaneFieldError naming the field(s) at fault (settings, mapping, data, die list).
  */
 export async function runReduction(
   input: RunInput,
@@ -145,8 +150,8 @@ export async function runReduction(
   onProgress: ProgressReporter = () => undefined,
   pause: () => Promise<void> = () => Promise.resolve(),
 ): Promise<RunOutput> {
-  const invalid = validateSettings(settings)[0];
-  if (invalid) throw new PaneError(invalid.field, invalid.message);
+  const invalid = validateSettings(settings);
+  if (invalid.length > 0) throw new PaneFieldError(invalid);
   try {
     onProgress("Reading the data", 0.05);
     await pause();
@@ -174,10 +179,6 @@ export async function runReduction(
     onProgress("Reduction done", 0.9);
     return { input, settings, raw, result, fits, shift, warnings };
   } catch (error) {
-    if (error instanceof RheoError) {
-      const f = toFieldError(error);
-      throw new PaneError(f.field, f.message);
-    }
-    throw error;
+    throw error instanceof RheoError ? toFieldError(error) : error;
   }
 }

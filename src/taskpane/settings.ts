@@ -8,6 +8,7 @@ import { DEFAULT_REDUCE_OPTIONS, ReduceOptions } from "../core/reduce";
 import { MODEL_REGISTRY, type ModelId } from "../core/models";
 import { DEFAULT_UNCERTAINTY_OPTIONS } from "../core/uncertainty";
 import { toSI } from "../core/units";
+import { modelName } from "../io/displayNames";
 
 /** Every setting of one run. Numbers in the units the pane shows (bar for the transducer). */
 export interface PaneSettings {
@@ -46,8 +47,8 @@ export interface PaneSettings {
   temperatureShift: "none" | "arrhenius" | "wlf";
   /** reference temperature in °C, or null: the middle temperature of the data */
   referenceTemperatureC: number | null;
-  /** draw every fitted model on the viscosity chart (false: the best model of each group) */
-  chartAllModels: boolean;
+  /** the model drawn over each group's points on the viscosity chart: "best" (lowest AIC) or one of `models` */
+  chartModel: "best" | ModelId;
 }
 
 /** Models the pane offers: every isothermal model of the registry (Cross-WLF needs T per point). */
@@ -75,7 +76,7 @@ export const DEFAULT_PANE_SETTINGS: Readonly<PaneSettings> = Object.freeze({
   heatingTemperatureCoefficient: null,
   temperatureShift: "none",
   referenceTemperatureC: null,
-  chartAllModels: false,
+  chartModel: "best",
 });
 
 /** The fields of the pane a message can be shown next to. */
@@ -97,8 +98,9 @@ export type FieldId =
   | "heatingTemperatureCoefficient"
   | "temperatureShift"
   | "referenceTemperatureC"
-  | "run"
-  | "share";
+  | "slip"
+  | "chartModel"
+  | "run";
 
 /** One-line explanation of each choice, shown under its control. */
 export const SETTING_HELP = {
@@ -133,7 +135,7 @@ export const SETTING_HELP = {
     wlf: "WLF shift log aT = −C1(T − Tref)/(C2 + T − Tref): fits C1 and C2; suits melts within about 100 K of Tg.",
   },
   referenceTemperatureC: "Temperature the flow curves are shifted to, in °C; leave empty for the middle temperature of the data.",
-  chartAllModels: "Draw every fitted model on the viscosity chart; off draws the best model (lowest AIC) of each group.",
+  chartModel: "The model drawn through each group's points on the viscosity chart: the recommended one (lowest AIC among those the data determine) or one you choose. The sheet lists every fitted model.",
 } as const;
 
 /** A message meant for one field of the pane. */
@@ -165,6 +167,9 @@ export function validateSettings(s: PaneSettings): FieldError[] {
   }
   const unknown = s.models.filter((m) => !PANE_MODELS.includes(m));
   if (unknown.length > 0) errors.push({ field: "models", message: `Unknown model(s): ${unknown.join(", ")}.` });
+  if (s.chartModel !== "best" && !s.models.includes(s.chartModel)) {
+    errors.push({ field: "chartModel", message: `${modelName(s.chartModel)} is not among the models to fit: tick it there, or chart the best model.` });
+  }
   if (s.transducerRangeBar !== null && !(Number.isFinite(s.transducerRangeBar) && s.transducerRangeBar > 0)) {
     errors.push({ field: "transducerRangeBar", message: "Give the full scale as a number of bar greater than zero, or leave it empty." });
   }
@@ -241,7 +246,7 @@ export function describeSettings(s: PaneSettings): [string, string][] {
     ["Rabinowitsch slope method", s.rabinowitschMethod],
     ["Rabinowitsch polynomial degree", usesDegree(s.rabinowitschMethod) ? String(s.rabinowitschDegree) : "not used by this method"],
     ["Rabinowitsch local window (points)", s.rabinowitschMethod === "local" ? String(s.rabinowitschWindow) : "not used by this method"],
-    ["Models fitted", s.models.length > 0 ? s.models.join(", ") : "none"],
+    ["Models fitted", s.models.length > 0 ? s.models.map(modelName).join(", ") : "none"],
     ["Transducer full scale", s.transducerRangeBar === null ? "not given" : `${s.transducerRangeBar} bar`],
     ["Transducer accuracy", s.transducerRangeBar === null ? "not used (no full scale given)" : `${s.transducerAccuracyPercent} % of full scale (± columns with k = ${DEFAULT_UNCERTAINTY_OPTIONS.coverageFactor})`],
     ["Schümmer cross-check", onOff(s.representativeRate)],
@@ -251,12 +256,12 @@ export function describeSettings(s: PaneSettings): [string, string][] {
     [
       "Viscous heating",
       s.heating
-        ? `on: density ${s.heatingDensity} g/cm3, specific heat ${s.heatingHeatCapacity} kJ/(kg.K), conductivity ${s.heatingConductivity} W/(m.K), b ${s.heatingTemperatureCoefficient === null ? "fitted across temperatures" : `${s.heatingTemperatureCoefficient} 1/K`}`
+        ? `on: density ${s.heatingDensity} g/cm³, specific heat ${s.heatingHeatCapacity} kJ/(kg·K), conductivity ${s.heatingConductivity} W/(m·K), b ${s.heatingTemperatureCoefficient === null ? "fitted across temperatures" : `${s.heatingTemperatureCoefficient} 1/K`}`
         : "off",
     ],
     ["Temperature shift", s.temperatureShift === "none" ? "none" : s.temperatureShift === "arrhenius" ? "Arrhenius" : "WLF"],
     ["Reference temperature", s.temperatureShift === "none" ? "not used" : s.referenceTemperatureC === null ? "middle temperature of the data" : `${s.referenceTemperatureC} °C`],
-    ["Viscosity chart", s.chartAllModels ? "every fitted model" : "best model (lowest AIC) per group"],
+    ["Viscosity chart", s.chartModel === "best" ? "recommended model per group (lowest AIC among well-determined fits)" : `${modelName(s.chartModel)} for every group`],
   ];
 }
 

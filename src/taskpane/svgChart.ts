@@ -2,6 +2,7 @@
  * Small inline SVG charts for the preview: the same chart specs and series data as the Excel
  * charts, drawn as markup (no script, no inline style: the pane's CSP forbids both). Pure.
  */
+import { headerLabel } from "../io/displayNames";
 import { ChartSpec, SheetPlan, seriesPoints } from "./sheetPlan";
 
 const W = 320;
@@ -56,6 +57,15 @@ function scale(values: number[], log: boolean, forcedMin: number | undefined, lo
   return { map: (v) => lo + ((v - a) / (b - a)) * (hi - lo), ticks };
 }
 
+/** One marker: a circle, or a square, diamond or triangle of about the same area (SVG, no style). */
+export function markerSvg(shape: "circle" | "square" | "diamond" | "triangle", x: number, y: number): string {
+  const f = (v: number) => v.toFixed(1);
+  if (shape === "circle") return `<circle cx="${f(x)}" cy="${f(y)}" r="2.6"/>`;
+  if (shape === "square") return `<rect x="${f(x - 2.3)}" y="${f(y - 2.3)}" width="4.6" height="4.6"/>`;
+  const pts = shape === "diamond" ? [[x, y - 3.2], [x + 3.2, y], [x, y + 3.2], [x - 3.2, y]] : [[x, y - 3.3], [x + 3, y + 2.2], [x - 3, y + 2.2]];
+  return `<polygon points="${pts.map(([a, b]) => `${f(a as number)},${f(b as number)}`).join(" ")}"/>`;
+}
+
 /**
  * The SVG markup of one chart of a plan. Each series is a `<g class="series" data-name=…>` with
  * one circle per point (markers) or a polyline (lines), so tests can count what is drawn.
@@ -69,7 +79,7 @@ export function chartSvg(plan: SheetPlan, spec: ChartSpec): string {
   const f = (v: number) => v.toFixed(1);
   const out: string[] = [];
   out.push(`<svg class="chart" viewBox="0 0 ${W} ${H}" role="img" aria-labelledby="${spec.id}-title" data-chart="${escapeXml(spec.id)}" xmlns="http://www.w3.org/2000/svg">`);
-  out.push(`<title id="${spec.id}-title">${escapeXml(spec.title)}: ${escapeXml(spec.yTitle)} against ${escapeXml(spec.xTitle)}</title>`);
+  out.push(`<title id="${spec.id}-title">${escapeXml(spec.title)}: ${escapeXml(headerLabel(spec.yTitle))} against ${escapeXml(headerLabel(spec.xTitle))}</title>`);
   out.push(`<rect class="plot" x="${PAD.left}" y="${PAD.top}" width="${W - PAD.left - PAD.right}" height="${H - PAD.top - PAD.bottom}"/>`);
   for (const t of sx.ticks) {
     const x = f(sx.map(t));
@@ -79,12 +89,12 @@ export function chartSvg(plan: SheetPlan, spec: ChartSpec): string {
     const y = f(sy.map(t));
     out.push(`<line class="grid" x1="${PAD.left}" x2="${W - PAD.right}" y1="${y}" y2="${y}"/><text class="tick" x="${PAD.left - 3}" y="${y}" dy="3" text-anchor="end">${tickLabel(t)}</text>`);
   }
-  out.push(`<text class="axis-title" x="${(PAD.left + W - PAD.right) / 2}" y="${H - 4}" text-anchor="middle">${escapeXml(spec.xTitle)}</text>`);
-  out.push(`<text class="axis-title" transform="translate(10 ${(PAD.top + H - PAD.bottom) / 2}) rotate(-90)" text-anchor="middle">${escapeXml(spec.yTitle)}</text>`);
+  out.push(`<text class="axis-title" x="${(PAD.left + W - PAD.right) / 2}" y="${H - 4}" text-anchor="middle">${escapeXml(headerLabel(spec.xTitle))}</text>`);
+  out.push(`<text class="axis-title" transform="translate(10 ${(PAD.top + H - PAD.bottom) / 2}) rotate(-90)" text-anchor="middle">${escapeXml(headerLabel(spec.yTitle))}</text>`);
   for (const { s, pts } of data) {
     out.push(`<g class="series ${s.style}" data-name="${escapeXml(s.name)}" stroke="${s.colour}" fill="${s.colour}">`);
     if (s.style === "markers") {
-      for (const p of pts) out.push(`<circle cx="${f(sx.map(p.x))}" cy="${f(sy.map(p.y))}" r="2.6"/>`);
+      for (const p of pts) out.push(markerSvg(s.marker ?? "circle", sx.map(p.x), sy.map(p.y)));
     } else if (pts.length > 0) {
       const dash = s.style === "dashed" ? ` stroke-dasharray="5 3"` : "";
       out.push(`<polyline fill="none" stroke-width="1.4"${dash} points="${pts.map((p) => `${f(sx.map(p.x))},${f(sy.map(p.y))}`).join(" ")}"/>`);
