@@ -35,9 +35,12 @@ const FUNCTION_FILES = [...fs.readFileSync(path.join(__dirname, "src/functions/e
 const DEV_PORT = 3000;
 /**
  * Size budget of what the worksheet functions load at every Excel start: runtime.js + core.js +
- * functions.js together (BUDGET_NOTE).
+ * functions.js together. Until the core was shared with the pane, functions.js alone carried it
+ * under a 170 KiB budget (163.9 KiB at the split); sharing costs the functions about 8 KB, because
+ * webpack cannot merge the modules both bundles use into one scope, and saves the page a second
+ * copy of the core (docs/performance.md has the figures before and after).
  */
-const FUNCTIONS_BUDGET_BYTES = 170 * 1024;
+const FUNCTIONS_BUDGET_BYTES = 180 * 1024;
 /** The scripts the worksheet functions need, in load order (their sum is held to the budget). */
 const FUNCTIONS_SCRIPTS = ["runtime.js", "core.js", "functions.js"];
 

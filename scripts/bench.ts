@@ -43,7 +43,7 @@ export const BENCH_TARGETS = Object.freeze({
   reductionMs: 2,
   column10kMs: 20,
   /** runtime.js + core.js + functions.js: what the worksheet functions load (webpack.config.js holds the build to it) */
-  functionsBundleBytes: 170 * 1024,
+  functionsBundleBytes: 180 * 1024,
   /** every script of the shared runtime page (the pane's included) */
   taskpaneBundleBytes: 400 * 1024,
 });

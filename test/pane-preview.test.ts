@@ -19,7 +19,7 @@ import { parseCsv } from "../src/io/csv";
 import { readRawTable } from "../src/io/rawTable";
 import { reduce } from "../src/core/reduce";
 import { compareModels } from "../src/core/fit";
-import { DEFAULT_PANE_SETTINGS, reduceOptionsOf } from "../src/taskpane/settings";
+import { DEFAULT_PANE_SETTINGS, readPaneSettings } from "../src/taskpane/settings";
 import { planTest } from "../src/core/planner";
 import { compareLot } from "../src/core/lotComparison";
 import { readPlanOptions } from "../src/io/planOptions";
@@ -72,7 +72,7 @@ function serve(dir: string): Promise<Server> {
 function coreReference() {
   const text = readFileSync(join(ROOT, "workbooks/demo-film-grade.csv"), "utf8");
   const raw = readRawTable(parseCsv(text).lines.map((l) => l.cells));
-  const result = reduce(raw.measurements, reduceOptionsOf(DEFAULT_PANE_SETTINGS));
+  const result = reduce(raw.measurements, readPaneSettings(DEFAULT_PANE_SETTINGS).request.options);
   return { raw, result };
 }
 

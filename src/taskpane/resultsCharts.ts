@@ -10,7 +10,7 @@ import { BlockDraft, DEFAULT_OUTPUT_UNITS as U, bar, fmt } from "./resultsFlowBl
 import type { GroupFits } from "./runReduction";
 import { groupLabel } from "./runReduction";
 import type { CellValue, ChartSpec, SeriesSpec } from "./sheetPlan";
-import type { ShiftOutput } from "./temperatureShift";
+import type { RunShift as ShiftOutput } from "../core/run";
 
 /** Our chart palette: one colour per group (deep teal first, then amber, plum, ...). */
 export const GROUP_COLOURS = ["#0b6e69", "#c77c0e", "#7a3b8f", "#2f5d9e", "#a23b2a", "#4f7a28"];

@@ -7,7 +7,7 @@ import type { ReductionGroup, ReductionResult } from "../core/reduce";
 import { fromSI } from "../core/units";
 import { BlockDraft, DEFAULT_OUTPUT_UNITS as U, bar, fmt, kPa } from "./resultsFlowBlocks";
 import type { CellValue } from "./sheetPlan";
-import type { ShiftOutput } from "./temperatureShift";
+import type { RunShift as ShiftOutput } from "../core/run";
 
 /** The optional method tables of a group (entrance pressures, Cogswell, heating, pressure dependence). */
 export function methodBlocks(g: ReductionGroup, n: number): BlockDraft[] {

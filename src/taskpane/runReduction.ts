@@ -3,17 +3,16 @@
  * model fits, with progress reported between steps. Pure apart from the optional `pause` that
  * lets a browser repaint; everything computed here is computed by src/core.
  */
-import { RheoError, Warning, warning } from "../core/errors";
-import { reduce, ReductionGroup, ReductionResult } from "../core/reduce";
-import { compareModels, type CompareResult } from "../core/fit";
+import { RheoError, Warning } from "../core/errors";
+import { runReduction as coreRunReduction, trueFlowCurve, type RunShift } from "../core/run";
+import type { ReductionGroup, ReductionResult } from "../core/reduce";
+import type { CompareResult } from "../core/fit";
 import { evaluateModel, type ModelId } from "../core/models";
 import { readRawTable, RawTable } from "../io/rawTable";
-import { modelName } from "../io/displayNames";
 import { COLUMN_QUANTITIES } from "../io/headers";
 import { applyColumnChoices, ColumnChoice, DieEntry } from "./columns";
-import { FieldId, PaneSettings, reduceOptionsOf, validateSettings } from "./settings";
+import { FIELD_OF_SETTING_KEY, FieldId, PaneSettings, readPaneSettings } from "./settings";
 import { PaneFieldError, detailOf, sentence } from "./panelContract";
-import { ShiftOutput, shiftRun } from "./temperatureShift";
 
 /** What the user picked in the Data step. */
 export interface RunInput {
@@ -47,8 +46,8 @@ export interface RunOutput {
   /** aligned with result.groups */
   fits: GroupFits[];
   /** the temperature shift (null when not asked for) */
-  shift: ShiftOutput | null;
-  /** every warning of the run: reading, reduction (transducer range included), shift, fits */
+  shift: RunShift | null;
+  /** every warning of the run (the core's one list): reading, reduction, fits, shift */
   warnings: Warning[];
 }
 
@@ -92,7 +91,7 @@ export function fieldOfError(error: RheoError): FieldId {
     columns: "columns",
     header: "columns",
   };
-  const direct = byArgument[a];
+  const direct = byArgument[a] ?? FIELD_OF_SETTING_KEY[a];
   if (direct) return direct;
   if (a.startsWith("curves")) return "temperatureShift";
   // a value in a data cell: the reader names it "<header> (column N)" or "row N" / "line N"
@@ -122,26 +121,18 @@ function logGrid(lo: number, hi: number, n: number): number[] {
   return Array.from({ length: n }, (_, i) => Math.exp(a + ((b - a) * i) / (n - 1)));
 }
 
-function fitGroup(group: ReductionGroup, models: readonly ModelId[]): { fits: GroupFits; warnings: Warning[] } {
-  const rows = group.flowCurve.filter((r) => r.shearRateWall !== null && r.viscosity !== null);
-  const label = groupLabel(group);
-  if (models.length === 0) return { fits: { compare: null, curves: [] }, warnings: [] };
-  if (rows.length < 3) {
-    return { fits: { compare: null, curves: [] }, warnings: [warning("FIT_SKIPPED", `${label}: only ${rows.length} corrected point(s); no model was fitted.`, label)] };
-  }
-  const data = { shearRate: rows.map((r) => r.shearRateWall as number), viscosity: rows.map((r) => r.viscosity as number) };
-  const compare = compareModels(models, data);
-  const warnings: Warning[] = [];
-  for (const f of compare.failed) warnings.push(warning("FIT_FAILED", `${label}: ${modelName(f.model)} was not fitted (${f.reason}).`, label));
-  for (const r of compare.ranked) warnings.push(...r.result.warnings.map((w) => warning(w.code, `${label}, ${modelName(r.model)}: ${w.message}`, label)));
-  const grid = logGrid(Math.min(...data.shearRate), Math.max(...data.shearRate), MODEL_CURVE_POINTS);
-  const curves = compare.ranked.map((r) => ({ model: r.model, shearRate: grid, viscosity: evaluateModel(r.model, r.result.parameters, grid) }));
-  return { fits: { compare, curves }, warnings };
+/** The charts' curves of a group's ranked fits: each model evaluated on a log grid over the group's true rates. */
+function modelCurves(group: ReductionGroup, compare: CompareResult | null): ModelCurve[] {
+  if (!compare || compare.ranked.length === 0) return [];
+  const rates = trueFlowCurve(group).shearRate;
+  const grid = logGrid(Math.min(...rates), Math.max(...rates), MODEL_CURVE_POINTS);
+  return compare.ranked.map((r) => ({ model: r.model, shearRate: grid, viscosity: evaluateModel(r.model, r.result.parameters, grid) }));
 }
 
 /**
- * Runs a whole reduction: settings check, column mapping, reading, the core's reduction with the
- * chosen checks (its transducer check included), the temperature shift, and model fits per group, reporting progress and pausing between groups.
+ * Runs a whole reduction: the settings through the shared reader (every problem at once), the
+ * column mapping, the shared table reader, then the core's one run (reduction, model ranking,
+ * temperature shift, one warning list), reporting progress between steps.
  * @throws PaneFieldError naming the field(s) at fault (settings, mapping, data, die list).
  */
 export async function runReduction(
@@ -150,34 +141,31 @@ export async function runReduction(
   onProgress: ProgressReporter = () => undefined,
   pause: () => Promise<void> = () => Promise.resolve(),
 ): Promise<RunOutput> {
-  const invalid = validateSettings(settings);
-  if (invalid.length > 0) throw new PaneFieldError(invalid);
+  const { request, problems } = readPaneSettings(settings);
+  if (problems.length > 0) throw new PaneFieldError(problems);
   try {
     onProgress("Reading the data", 0.05);
     await pause();
     const cells = applyColumnChoices(input.cells, input.columns, input.dies);
     const raw = readRawTable(cells, { rowWord: "row" });
-    onProgress("Bagley and Rabinowitsch corrections", 0.2);
+    onProgress("Corrections, model fits and shift", 0.2);
     await pause();
-    const result = reduce(raw.measurements, reduceOptionsOf(settings));
-    const warnings: Warning[] = [...raw.warnings, ...result.warnings];
-    let shift: ShiftOutput | null = null;
-    if (settings.temperatureShift !== "none") {
-      onProgress("Temperature shift", 0.25);
-      await pause();
-      shift = shiftRun(result.groups, settings.temperatureShift, settings.referenceTemperatureC);
-      warnings.push(...shift.fit.warnings.map((w) => warning(w.code, `Temperature shift: ${w.message}`)));
-    }
-    const fits: GroupFits[] = [];
-    for (const [i, group] of result.groups.entries()) {
-      onProgress(`Fitting models: group ${i + 1} of ${result.groups.length}`, 0.3 + (0.6 * i) / result.groups.length);
-      await pause();
-      const f = fitGroup(group, settings.models);
-      fits.push(f.fits);
-      warnings.push(...f.warnings);
-    }
+    const fits = settings.models.length > 0 ? { ...request.fits, compare: settings.models } : { ...request.fits, compare: undefined, rank: false };
+    const run = coreRunReduction(raw.measurements, request.options, fits, raw.warnings);
     onProgress("Reduction done", 0.9);
-    return { input, settings, raw, result, fits, shift, warnings };
+    return {
+      input,
+      settings,
+      raw,
+      result: run.result,
+      fits: run.result.groups.map((g, i) => {
+        const c = run.comparisons?.[i];
+        const compare = c && (c.ranked.length > 0 || c.failed.length > 0) ? { ranked: c.ranked, failed: c.failed } : null;
+        return { compare, curves: modelCurves(g, compare) };
+      }),
+      shift: run.shift ?? null,
+      warnings: run.warnings,
+    };
   } catch (error) {
     throw error instanceof RheoError ? toFieldError(error) : error;
   }
