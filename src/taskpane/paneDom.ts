@@ -48,7 +48,7 @@ export function renderColumns(container: HTMLElement, columns: readonly ColumnCh
     return;
   }
   for (const c of columns) {
-    const card = el("div", { class: "col-card", "data-column": String(c.index) });
+    const card = el("div", { class: "col-card bar-group", "data-column": String(c.index) });
     const head = el("div", { class: "col-head" });
     head.append(el("code", {}, c.header || `(column ${c.index + 1} has no header)`));
     head.append(el("span", { class: c.recognised ? "badge" : "badge todo" }, c.recognised ? "recognised" : c.problem ?? "check"));
@@ -89,7 +89,7 @@ export function renderColumns(container: HTMLElement, columns: readonly ColumnCh
 export function renderDies(container: HTMLElement, dies: readonly DieEntry[], onChange: (dies: DieEntry[]) => void): void {
   container.replaceChildren();
   dies.forEach((d, i) => {
-    const row = el("div", { class: "die-row" });
+    const row = el("div", { class: "die-row bar-group" });
     const input = (key: keyof DieEntry, label: string, value: string, mode: string) => {
       const id = `die-${i}-${key}`;
       const wrap = el("div");
@@ -105,18 +105,24 @@ export function renderDies(container: HTMLElement, dies: readonly DieEntry[], on
       wrap.append(inp);
       return wrap;
     };
-    row.append(input("label", `Die ${i + 1} label`, d.label, "text"), input("diameterMm", "Bore D [mm]", Number.isFinite(d.diameterMm) ? String(d.diameterMm) : "", "decimal"), input("lengthMm", "Length L [mm]", Number.isFinite(d.lengthMm) ? String(d.lengthMm) : "", "decimal"));
-    const remove = el("button", { type: "button", class: "link", "aria-label": `Remove die ${i + 1}` }, "Remove");
+    // Remove first, then the die's label, bore and length: from any of the three inputs the run button is within three Tab presses
+    const remove = el("button", { type: "button", class: "link", "aria-label": `Remove die ${i + 1}` }, "✕");
     remove.addEventListener("click", () => onChange(dies.filter((_, k) => k !== i)));
-    row.append(remove);
+    row.append(remove, input("label", `Die ${i + 1} label`, d.label, "text"), input("diameterMm", "Bore D [mm]", Number.isFinite(d.diameterMm) ? String(d.diameterMm) : "", "decimal"), input("lengthMm", "Length L [mm]", Number.isFinite(d.lengthMm) ? String(d.lengthMm) : "", "decimal"));
     container.append(row);
   });
 }
 
 /** Renders one labelled check box per model with its one-line description. */
 export function renderModels(container: HTMLElement, chosen: readonly string[], onChange: (models: string[]) => void): void {
-  container.replaceChildren();
-  for (const id of PANE_MODELS) {
+  container.replaceChildren(el("legend", { class: "visually-hidden" }, "Models to fit"));
+  // three to a group: the run button follows the group in use (never more than three Tab presses away)
+  let group: HTMLElement = el("div");
+  PANE_MODELS.forEach((id, k) => {
+    if (k % 3 === 0) {
+      group = el("div", { class: "bar-group" });
+      container.append(group);
+    }
     const m = getModel(id);
     const wrap = el("div", { class: "choice" });
     const boxId = `model-${id}`;
@@ -127,8 +133,8 @@ export function renderModels(container: HTMLElement, chosen: readonly string[], 
       onChange(boxes.filter((b) => b.checked).map((b) => b.value));
     });
     wrap.append(box, el("label", { for: boxId }, modelName(id)), el("p", { class: "help", id: `${boxId}-help` }, m.description));
-    container.append(wrap);
-  }
+    group.append(wrap);
+  });
 }
 
 /** Fills the one-line explanations that do not change. */

@@ -13,25 +13,38 @@ import { setBusy, setMode, state } from "./paneState";
 import { PANELS } from "./panels";
 import { ADDIN_VERSION } from "./version";
 
-/** The group of controls `el` belongs to: an explicit `.bar-group`, else its `.field`. */
-function groupOf(el: Element): Element | null {
+/**
+ * Where the action bar goes for a focused element: after its group of controls (an explicit
+ * `.bar-group`, else its `.field`); for the summary of an open fold that holds groups of its own,
+ * right after the summary.
+ */
+function anchorOf(el: Element): Element | null {
+  const fold = el.parentElement;
+  if (el.matches("summary") && fold instanceof HTMLDetailsElement && fold.open && fold.querySelector(".bar-group")) return el;
   return el.closest(".bar-group, .field");
 }
 
+/** A pointer press this recent (ms) means the focus came from the mouse or a touch. */
+const POINTER_FOCUS_MS = 800;
+
 /**
- * Keeps each panel's action bar right after the group of fields in use, so that Tab from any
- * field reaches the run button within a few presses (the bar is sticky: it also stays in view).
+ * Keeps each panel's action bar right after the group of fields in use when the keyboard moves
+ * the focus, so that Tab from any field reaches the run button within three presses (the bar is
+ * sticky, so it stays in view too). A focus that comes from a pointer leaves the bar where it is:
+ * moving it then would shift the page under the pointer between press and release.
  */
 export function followFocus(panel: PanePanel): void {
   const section = document.getElementById(`${panel.id}-section`);
   const bar = section?.querySelector<HTMLElement>(".action-bar");
   if (!section || !bar) return;
+  let pointerAt = -Infinity;
+  section.addEventListener("pointerdown", () => (pointerAt = Date.now()), { capture: true });
   section.addEventListener("focusin", (event) => {
     const target = event.target as Element;
-    if (bar.contains(target)) return;
-    const group = groupOf(target);
-    if (!group || !section.contains(group) || group.nextElementSibling === bar) return;
-    group.after(bar);
+    if (bar.contains(target) || Date.now() - pointerAt < POINTER_FOCUS_MS) return;
+    const anchor = anchorOf(target);
+    if (!anchor || !section.contains(anchor) || anchor.nextElementSibling === bar) return;
+    anchor.after(bar);
   });
 }
 

@@ -39,8 +39,10 @@ function setColumns(columns: ColumnChoice[]): void {
 }
 
 function setDies(dies: DieEntry[]): void {
+  // an edited value keeps the rows (and the focus in them); adding or removing a die redraws them
+  const redraw = dies.length !== state.dies.length || byId("dies").childElementCount !== dies.length;
   state.dies = dies;
-  renderDies(byId("dies"), dies, setDies);
+  if (redraw) renderDies(byId("dies"), dies, setDies);
   byId("dies-summary").textContent = dies.length === 0 ? "Die list: empty (dies from the table)" : `Die list: ${dies.length} die(s)`;
   updateApplicability();
 }
@@ -149,10 +151,10 @@ function updateOptionalHelp(): void {
   byId<HTMLInputElement>("referenceTemperatureC").disabled = shift === "none";
 }
 
-/** The models to fit, the fold's summary naming them, and the chart chooser offering them. */
-function setModels(models: readonly ModelId[], chart: PaneSettings["chartModel"]): void {
+/** The models to fit, the fold's summary naming them, and the chart chooser offering them (`render`: the check boxes too). */
+function setModels(models: readonly ModelId[], chart: PaneSettings["chartModel"], render = true): void {
   state.settings.models = [...models];
-  renderModels(byId("models"), models, (chosen) => setModels(chosen as ModelId[], byId<HTMLSelectElement>("chartModel").value as PaneSettings["chartModel"]));
+  if (render) renderModels(byId("models"), models, (chosen) => setModels(chosen as ModelId[], byId<HTMLSelectElement>("chartModel").value as PaneSettings["chartModel"], false));
   byId("models-summary").textContent = models.length === 0 ? "Models to fit: none" : `Models to fit: ${models.map(modelName).join(", ")}`;
   const select = byId<HTMLSelectElement>("chartModel");
   const keep = chart !== "best" && models.includes(chart) ? chart : "best";
