@@ -79,11 +79,13 @@ export function showProblems(problems: readonly FieldProblem[], fallback: string
     const entry = fieldEntry(field);
     const control = document.getElementById(entry?.control ?? field);
     if (control && control.matches("input, select, textarea")) control.setAttribute("aria-invalid", "true");
+    // the first in page order gets the focus
+    const earlier = first !== null && control !== null && (first.compareDocumentPosition(control) & Node.DOCUMENT_POSITION_PRECEDING) !== 0;
     if (control instanceof HTMLDetailsElement) control.open = true;
     // the field's own part of the form must be open to be seen
     const fold = control?.closest("details.form-fold");
     if (fold instanceof HTMLDetailsElement) fold.open = true;
-    first ??= control;
+    if (first === null || earlier) first = control;
   }
   if (first) focusControl(first);
 }

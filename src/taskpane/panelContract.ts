@@ -68,7 +68,9 @@ export class PaneFieldError extends Error {
 /** A message as a sentence: capital first letter, full stop at the end. */
 export function sentence(text: string): string {
   const t = text.trim();
-  return (t.charAt(0).toUpperCase() + t.slice(1)).replace(/([^.!?])$/, "$1.");
+  // a leading symbol ("b = …", "n′ …") keeps its case
+  const first = /^\p{L}[\s=′']/u.test(t) ? t.charAt(0) : t.charAt(0).toUpperCase();
+  return (first + t.slice(1)).replace(/([^.!?])$/, "$1.");
 }
 
 /**

@@ -206,9 +206,11 @@ export function readPaneSettings(s: PaneSettings): { request: ReduceRequest; pro
   const bad = new Set(problems.map((p) => SETTING_KEY_OF_FIELD[p.field as keyof typeof SETTING_KEY_OF_FIELD] as string));
   const record = Object.fromEntries(Object.entries(settingsRecord(s)).filter(([k]) => !bad.has(k)));
   const { request, errors } = collectReduceSettings(record, KEYED_SETTINGS_SOURCE);
+  const typedBadly = new Set(problems.map((p) => p.field));
   for (const e of errors) {
     // the reader names a part of a compound setting "heating density"; its argument is the key
     const field = FIELD_OF_SETTING_KEY[e.argument] ?? FIELD_OF_SETTING_KEY[e.argument.split(" ")[0] as string] ?? "run";
+    if (typedBadly.has(field)) continue; // "not a number" already says it; the reader saw the field as empty
     problems.push({ field, message: field === "run" ? sentence(e.message) : detailOf(e) });
   }
   if (s.heating) {
