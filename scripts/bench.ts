@@ -53,7 +53,9 @@ export const BENCH_TARGETS = Object.freeze({
   reductionMs: 2,
   traceMs: 150,
   column10kMs: 20,
-  functionsBundleBytes: 185 * 1024,
+  /** runtime.js + core.js + functions.js: what the worksheet functions load (webpack.config.js holds the build to it) */
+  functionsBundleBytes: 215 * 1024,
+  /** every script of the shared runtime page (the pane's included) */
   taskpaneBundleBytes: 400 * 1024,
 });
 
@@ -242,7 +244,9 @@ function oneSpillCall(column: unknown[][]): number {
 // ---------------------------------------------------------------------------------------------
 // 4. Bundle sizes
 
-const BUNDLES = ["functions.js", "taskpane.js"] as const;
+const BUNDLES = ["runtime.js", "core.js", "functions.js", "taskpane.js"] as const;
+/** What each budget counts: the functions' scripts, and the whole shared runtime page. */
+const BUNDLE_SETS = { functions: ["runtime.js", "core.js", "functions.js"], page: ["runtime.js", "core.js", "functions.js", "taskpane.js"] } as const;
 const BUILD_INPUTS = ["src", "webpack.config.js", "package.json", "package-lock.json", "manifest.xml", "tsconfig.json"];
 
 function newestMtime(p: string): number {
@@ -399,16 +403,17 @@ function main(): void {
 
   // 4. bundles
   const { sizes, note } = bundleSizes();
-  const budgets: Record<string, number> = { "functions.js": BENCH_TARGETS.functionsBundleBytes, "taskpane.js": BENCH_TARGETS.taskpaneBundleBytes };
+  const sum = (files: readonly string[]) => files.reduce((acc, f) => ({ bytes: acc.bytes + (sizes[f]?.bytes ?? NaN), gzip: acc.gzip + (sizes[f]?.gzip ?? NaN) }), { bytes: 0, gzip: 0 });
+  for (const [what, files, budget] of [
+    ["functions' scripts (runtime + core + functions) minified (gzip)", BUNDLE_SETS.functions, BENCH_TARGETS.functionsBundleBytes],
+    ["shared runtime page, all scripts (+ taskpane) minified (gzip)", BUNDLE_SETS.page, BENCH_TARGETS.taskpaneBundleBytes],
+  ] as const) {
+    const s = sum(files);
+    lines.push({ what, measured: Number.isFinite(s.bytes) ? `${kb(s.bytes)} (${kb(s.gzip)})` : "not built", target: `≤ ${kb(budget)}`, verdict: verdict(Number.isFinite(s.bytes) && s.bytes <= budget) });
+  }
   for (const b of BUNDLES) {
     const s = sizes[b];
-    const budget = budgets[b] as number;
-    lines.push({
-      what: `dist/${b} minified (gzip)`,
-      measured: s ? `${kb(s.bytes)} (${kb(s.gzip)})` : "not built",
-      target: `≤ ${kb(budget)}`,
-      verdict: verdict(s !== null && s !== undefined && s.bytes <= budget),
-    });
+    lines.push({ what: `dist/${b} minified (gzip)`, measured: s ? `${kb(s.bytes)} (${kb(s.gzip)})` : "not built", target: "", verdict: "" });
   }
   notes.push(`bundles: ${note}.`);
 

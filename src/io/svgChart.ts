@@ -4,6 +4,7 @@
  * (src/taskpane/svgChart.ts adapts its sheet plan to {@link PlotChart}) and the command line's
  * HTML report (src/io/htmlReport.ts).
  */
+import { headerLabel } from "./displayNames";
 
 /** One series: its points in plot units, drawn as markers or a (dashed) line. */
 export interface PlotSeries {
@@ -11,7 +12,21 @@ export interface PlotSeries {
   style: "markers" | "line" | "dashed";
   /** #rrggbb */
   colour: string;
+  /** marker shape of a markers series (default circle): no two series of a chart look alike */
+  marker?: MarkerShape;
   points: readonly { x: number; y: number }[];
+}
+
+/** Marker shapes a series may use. */
+export type MarkerShape = "circle" | "square" | "diamond" | "triangle";
+
+/** One marker at (x, y) in SVG user units. */
+export function markerSvg(shape: MarkerShape, x: number, y: number): string {
+  const f = (v: number) => v.toFixed(1);
+  if (shape === "circle") return `<circle cx="${f(x)}" cy="${f(y)}" r="2.6"/>`;
+  if (shape === "square") return `<rect x="${f(x - 2.3)}" y="${f(y - 2.3)}" width="4.6" height="4.6"/>`;
+  const pts = shape === "diamond" ? [[x, y - 3.2], [x + 3.2, y], [x, y + 3.2], [x - 3.2, y]] : [[x, y - 3.3], [x + 3, y + 2.2], [x - 3, y + 2.2]];
+  return `<polygon points="${pts.map(([a, b]) => `${f(a as number)},${f(b as number)}`).join(" ")}"/>`;
 }
 
 /** A scatter chart in plot units. */
@@ -106,7 +121,7 @@ export function plotSvg(chart: PlotChart, size: PlotSize = PANE_PLOT_SIZE): stri
   const id = escapeXml(chart.id);
   const out: string[] = [];
   out.push(`<svg class="chart" viewBox="0 0 ${W} ${H}" role="img" aria-labelledby="${id}-title" data-chart="${id}" xmlns="http://www.w3.org/2000/svg">`);
-  out.push(`<title id="${id}-title">${escapeXml(chart.title)}: ${escapeXml(chart.yTitle)} against ${escapeXml(chart.xTitle)}</title>`);
+  out.push(`<title id="${id}-title">${escapeXml(chart.title)}: ${escapeXml(headerLabel(chart.yTitle))} against ${escapeXml(headerLabel(chart.xTitle))}</title>`);
   out.push(`<rect class="plot" x="${PAD.left}" y="${PAD.top}" width="${W - PAD.left - PAD.right}" height="${H - PAD.top - PAD.bottom}"/>`);
   for (const t of sx.ticks) {
     const x = f(sx.map(t));
@@ -116,12 +131,12 @@ export function plotSvg(chart: PlotChart, size: PlotSize = PANE_PLOT_SIZE): stri
     const y = f(sy.map(t));
     out.push(`<line class="grid" x1="${PAD.left}" x2="${W - PAD.right}" y1="${y}" y2="${y}"/><text class="tick" x="${PAD.left - 3}" y="${y}" dy="3" text-anchor="end">${tickLabel(t)}</text>`);
   }
-  out.push(`<text class="axis-title" x="${(PAD.left + W - PAD.right) / 2}" y="${H - 4}" text-anchor="middle">${escapeXml(chart.xTitle)}</text>`);
-  out.push(`<text class="axis-title" transform="translate(10 ${(PAD.top + H - PAD.bottom) / 2}) rotate(-90)" text-anchor="middle">${escapeXml(chart.yTitle)}</text>`);
+  out.push(`<text class="axis-title" x="${(PAD.left + W - PAD.right) / 2}" y="${H - 4}" text-anchor="middle">${escapeXml(headerLabel(chart.xTitle))}</text>`);
+  out.push(`<text class="axis-title" transform="translate(10 ${(PAD.top + H - PAD.bottom) / 2}) rotate(-90)" text-anchor="middle">${escapeXml(headerLabel(chart.yTitle))}</text>`);
   for (const { s, pts } of data) {
     out.push(`<g class="series ${s.style}" data-name="${escapeXml(s.name)}" stroke="${s.colour}" fill="${s.colour}">`);
     if (s.style === "markers") {
-      for (const p of pts) out.push(`<circle cx="${f(sx.map(p.x))}" cy="${f(sy.map(p.y))}" r="2.6"/>`);
+      for (const p of pts) out.push(markerSvg(s.marker ?? "circle", sx.map(p.x), sy.map(p.y)));
     } else if (pts.length > 0) {
       const dash = s.style === "dashed" ? ` stroke-dasharray="5 3"` : "";
       out.push(`<polyline fill="none" stroke-width="1.4"${dash} points="${pts.map((p) => `${f(sx.map(p.x))},${f(sy.map(p.y))}`).join(" ")}"/>`);

@@ -2,13 +2,15 @@
  * The Planner panel's wiring: its form fields, the prior choice, "use the last fit" and the run
  * that writes a plan sheet (Excel) or shows it (preview). The planning itself: plannerPanel.ts.
  */
-import { demoPlannerForm } from "./demoData";
-import { SHEET_BASE_NAMES, writeNewSheet } from "./excelWriter";
-import { excelBatch } from "./officeHost";
-import { byId, clearFieldErrors, fillModelSelect } from "./paneDom";
-import { bestFit, failPanel, panelMeta, parameterText, setBusy, state } from "./paneState";
-import { PLANNER_HELP, PlannerForm, buildPlannerPlan, runPlanner } from "./plannerPanel";
-import { sheetPlanHtml } from "./preview";
+import { demoPlannerForm } from "../../demoData";
+import type { HostMode } from "../../officeHost";
+import { byId, fillModelSelect } from "../../paneDom";
+import { bestFit, parameterText } from "../../paneState";
+import { runToSheet } from "../../runToSheet";
+import type { SheetPlan } from "../../sheetPlan";
+import { plannerPanel } from "./index";
+import { PLANNER_HELP, PlannerForm, buildPlannerPlan, runPlanner } from "./plan";
+import { sheetPlanHtml } from "../../preview";
 
 /** The Planner's fields start empty in Excel (the placeholders show examples). */
 const EMPTY_PLANNER: Partial<PlannerForm> = { dies: "", transducers: "", barrelDiameter: "", usableLength: "", shearRateMin: "", shearRateMax: "", points: "8", prior: "power-law", powerLawK: "", powerLawN: "", priorModel: "", priorParameters: "", dwellTime: "", density: "", compressibility: "", timePerLoad: "" };
@@ -63,32 +65,23 @@ function updatePriorFields(): void {
   byId("plan-prior-mfr").hidden = prior !== "mfr";
 }
 
-async function runPlan(): Promise<void> {
-  if (state.busy) return;
-  const section = byId("planner-section");
-  clearFieldErrors(section);
-  setBusy(true);
-  const status = byId("plan-status");
-  try {
-    status.textContent = "Planning…";
-    const out = runPlanner(readPlannerForm());
-    const flagged = out.plan.dies.reduce((n, d) => n + d.steps.filter((s) => s.flag !== "ok" || !s.withinCapacity).length, 0);
-    if (state.mode.kind === "excel") {
-      let plan = buildPlannerPlan(out, { ...panelMeta(), name: SHEET_BASE_NAMES.plan });
-      const name = await writeNewSheet(excelBatch, SHEET_BASE_NAMES.plan, (n) => (plan = buildPlannerPlan(out, { ...panelMeta(), name: n })));
-      status.textContent = `Done: wrote “${name}”; ${flagged} step(s) flagged, ${out.plan.warnings.length} warning(s).`;
-      byId("plan-results").innerHTML = `<details><summary>Quick look</summary>${sheetPlanHtml(plan)}</details>`;
-    } else {
-      const plan = buildPlannerPlan(out, { ...panelMeta(), name: SHEET_BASE_NAMES.plan });
-      byId("plan-results").innerHTML = `<p class="summary-box">Preview on the invented demo plan: in Excel this goes to a new sheet.</p>${sheetPlanHtml(plan)}`;
-      status.textContent = `Plan ready: ${out.plan.dies.length} die(s), ${flagged} step(s) flagged, ${out.plan.warnings.length} warning(s).`;
-    }
-  } catch (error) {
-    status.textContent = "Stopped; nothing was written.";
-    failPanel(error, "planRun");
-  } finally {
-    setBusy(false);
-  }
+function runPlan(): Promise<void> {
+  return runToSheet({
+    panel: plannerPanel,
+    statusId: "plan-status",
+    resultsId: "plan-results",
+    working: "Planning…",
+    compute: async () => runPlanner(readPlannerForm()),
+    plans: (out, [name], meta) => [buildPlannerPlan(out, { ...meta, name: name as string })],
+    render: (_out, [plan], written) =>
+      written ? `<details><summary>Quick look</summary>${sheetPlanHtml(plan as SheetPlan)}</details>` : `<p class="summary-box">Preview on the invented demo plan: in Excel this goes to a new sheet.</p>${sheetPlanHtml(plan as SheetPlan)}`,
+    done: (out, written) => {
+      const flagged = out.plan.dies.reduce((n, d) => n + d.steps.filter((st) => st.flag !== "ok" || !st.withinCapacity).length, 0);
+      return written
+        ? `Done: wrote “${written[0]}”; ${flagged} step(s) flagged, ${out.plan.warnings.length} warning(s).`
+        : `Plan ready: ${out.plan.dies.length} die(s), ${flagged} step(s) flagged, ${out.plan.warnings.length} warning(s).`;
+    },
+  });
 }
 
 /** Fills the Planner with empty fields (Excel) and attaches its controls. */
@@ -107,8 +100,8 @@ export function wirePlanner(): void {
   });
 }
 
-/** Preview mode: the Planner holds the invented demo plan. */
-export function previewPlanner(): void {
-  writePlannerForm(demoPlannerForm());
-  byId("planRun").textContent = "Plan the demo test";
+/** Preview mode: the Planner holds the invented demo plan; in Excel it starts empty. */
+export function plannerMode(mode: HostMode): void {
+  writePlannerForm(mode.kind === "preview" ? demoPlannerForm() : { ...demoPlannerForm(), ...EMPTY_PLANNER });
+  byId("planRun").textContent = mode.kind === "preview" ? "Plan the demo test" : "Plan into a new sheet";
 }

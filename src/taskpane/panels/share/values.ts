@@ -5,8 +5,8 @@
  * older hosts get threaded comments (1.10), and hosts without either get a list of the replaced
  * formulas below the copied cells.
  */
-import { ExcelBatch, deleteSheets, uniqueSheetName } from "./excelWriter";
-import { a1 } from "./sheetPlan";
+import { ExcelBatch, TEXT_FORMAT, deleteSheets, uniqueSheetName } from "../../excelWriter";
+import { a1 } from "../../sheetPlan";
 
 /** A formula of this add-in (the RHEO namespace, also under an Excel prefix such as _xldudf_). */
 export const ADDIN_FORMULA = /(^|[^A-Za-z0-9_.])(_xldudf_)?RHEO\.[A-Z]+\s*\(/i;
@@ -26,18 +26,28 @@ export interface ReplacedFormula {
  * `formulas` and `values` are the used range's `formulas` and `values` (same shape).
  * @example valuesCopyGrid([["=RHEO.FLOWRATE(A1,B1)"]], [[2.5]]).grid // [[2.5]]
  */
-export function valuesCopyGrid(formulas: readonly (readonly unknown[])[], values: readonly (readonly unknown[])[]): { grid: unknown[][]; replaced: ReplacedFormula[] } {
+export function valuesCopyGrid(formulas: readonly (readonly unknown[])[], values: readonly (readonly unknown[])[]): { grid: unknown[][]; replaced: ReplacedFormula[]; text: { row: number; col: number }[] } {
   const replaced: ReplacedFormula[] = [];
+  const text: { row: number; col: number }[] = [];
   const grid = formulas.map((row, r) =>
     row.map((f, c) => {
+      const value = values[r]?.[c];
       if (typeof f === "string" && f.startsWith("=") && ADDIN_FORMULA.test(f)) {
         replaced.push({ row: r, col: c, formula: f });
-        return values[r]?.[c] ?? "";
+        if (readsAsFormula(value)) text.push({ row: r, col: c });
+        return value ?? "";
       }
+      // a text cell whose text reads like a formula: its "formula" is its own text
+      if (typeof f === "string" && f === value && readsAsFormula(f)) text.push({ row: r, col: c });
       return f;
     }),
   );
-  return { grid, replaced };
+  return { grid, replaced, text };
+}
+
+/** True for text Excel would take as a formula or an entry command when written as a value. */
+export function readsAsFormula(value: unknown): boolean {
+  return typeof value === "string" && /^[=+\-@\t\r]/.test(value);
 }
 
 /** How formulas can be kept on this host, best first. */
@@ -80,8 +90,11 @@ export async function copySheetAsValues(
         await context.sync();
         return { name, replaced: 0, keeper };
       }
-      const { grid, replaced } = valuesCopyGrid(used.formulas, used.values);
-      copy.getRange(a1(used.rowIndex, used.columnIndex, used.rowCount, used.columnCount)).formulas = grid;
+      const { grid, replaced, text } = valuesCopyGrid(used.formulas, used.values);
+      const target = copy.getRange(a1(used.rowIndex, used.columnIndex, used.rowCount, used.columnCount));
+      // text that reads like a formula (a value replacing a formula, or a text cell "=…", "+…", "-…", "@…") stays text
+      for (const t of text) copy.getRange(a1(used.rowIndex + t.row, used.columnIndex + t.col)).numberFormat = [[TEXT_FORMAT]];
+      target.formulas = grid;
       const at = (f: ReplacedFormula) => a1(used.rowIndex + f.row, used.columnIndex + f.col);
       if (keeper === "notes") {
         for (const f of replaced) copy.notes.add(at(f), noteText(f.formula));
@@ -90,7 +103,10 @@ export async function copySheetAsValues(
       } else if (replaced.length > 0) {
         const top = used.rowIndex + used.rowCount + 1;
         const list = [["Rheoledger formulas replaced by their values", ""], ...replaced.map((f) => [at(f), f.formula])];
-        copy.getRange(a1(top, used.columnIndex, list.length, 2)).values = list;
+        const listRange = copy.getRange(a1(top, used.columnIndex, list.length, 2));
+        // the formulas are listed as text: "Text" format before the values, or "=RHEO…" would be a formula again
+        listRange.numberFormat = list.map((row) => row.map(() => TEXT_FORMAT));
+        listRange.values = list;
       }
       copy.activate();
       await context.sync();

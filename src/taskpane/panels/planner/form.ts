@@ -3,9 +3,9 @@
  * workbooks/demo-plan.json): each value read by the shared reader into SI, then shown in the
  * panel's units. Pure.
  */
-import { readPlanValue, PLAN_SETTING_KEYS, PLAN_DIE_KEYS, PLAN_TRANSDUCER_KEYS } from "../io/planOptions";
-import { fromSI, type Quantity } from "../core/units";
-import type { PlannerForm } from "./plannerPanel";
+import { readPlanValue, PLAN_SETTING_KEYS, PLAN_DIE_KEYS, PLAN_TRANSDUCER_KEYS } from "../../../io/planOptions";
+import { fromSI, type Quantity } from "../../../core/units";
+import type { PlannerForm } from "./plan";
 
 type Kind = Parameters<typeof readPlanValue>[1];
 

@@ -5,11 +5,12 @@
  * plan tables (src/io/planTables.ts) and conditional formats on the range and barrel columns.
  * Pure: no DOM, no Office.
  */
-import { RheoError, type Warning } from "../core/errors";
-import { planTest, type Plan } from "../core/planner";
-import { PLAN_SHEET_UNITS, readPlanOptions } from "../io/planOptions";
-import { planStepTable, planSummaryTable, RANGE_FLAG_TEXT } from "../io/planTables";
-import { CellBlock, CellValue, ConditionalFormatSpec, SheetPlan, blockLayout } from "./sheetPlan";
+import { PaneFieldError, detailOf } from "../../panelContract";
+import { RheoError, type Warning } from "../../../core/errors";
+import { planTest, type Plan } from "../../../core/planner";
+import { PLAN_SHEET_UNITS, readPlanOptions } from "../../../io/planOptions";
+import { planStepTable, planSummaryTable, RANGE_FLAG_TEXT } from "../../../io/planTables";
+import { CellBlock, CellValue, ConditionalFormatSpec, SheetPlan, blockLayout } from "../../sheetPlan";
 
 /** The Planner panel's fields, as typed (numbers in the units the labels give). */
 export interface PlannerForm {
@@ -80,16 +81,8 @@ export const PLANNER_HELP = {
   dwell: "Minimum time per step; with the melt's compressibility a longer settling time may apply.",
 } as const;
 
-/** An error for one Planner field. */
-export class PlannerError extends Error {
-  constructor(
-    readonly field: PlannerFieldId,
-    message: string,
-  ) {
-    super(message);
-    this.name = "PlannerError";
-  }
-}
+/** A problem for one Planner field. */
+const plannerError = (field: PlannerFieldId, message: string) => new PaneFieldError({ field, message });
 
 const splitLines = (text: string) => text.split(/\r?\n/).map((l) => l.trim()).filter((l) => l !== "" && !l.startsWith("#"));
 const parts = (line: string) => line.split(/[,;]/).map((p) => p.trim());
@@ -97,34 +90,34 @@ const parts = (line: string) => line.split(/[,;]/).map((p) => p.trim());
 /** Die lines as the settings reader's die entries (sizes as typed: bare numbers are mm). */
 export function readDieLines(text: string): Record<string, string>[] {
   const lines = splitLines(text);
-  if (lines.length === 0) throw new PlannerError("planDies", "List at least one die, e.g. “L20, capillary, 1, 20”.");
+  if (lines.length === 0) throw plannerError("planDies", "List at least one die, e.g. “L20, capillary, 1, 20”.");
   return lines.map((line, i) => {
     const [name = "", type = "", ...sizes] = parts(line);
     const kind = type.toLowerCase();
     const where = `Die line ${i + 1} (“${line}”)`;
-    if (name === "") throw new PlannerError("planDies", `${where}: start with the die's name.`);
+    if (name === "") throw plannerError("planDies", `${where}: start with the die's name.`);
     if (kind === "slit") {
-      if (sizes.length !== 3) throw new PlannerError("planDies", `${where}: a slit needs width, height and length in mm.`);
+      if (sizes.length !== 3) throw plannerError("planDies", `${where}: a slit needs width, height and length in mm.`);
       return { name, type: kind, width: sizes[0] as string, height: sizes[1] as string, length: sizes[2] as string };
     }
     if (kind === "capillary" || kind === "orifice") {
       const min = kind === "orifice" ? 1 : 2;
-      if (sizes.length < min || sizes.length > 2) throw new PlannerError("planDies", `${where}: ${kind === "orifice" ? "an orifice die needs its bore (and optionally its land length)" : "a capillary needs bore and length"} in mm.`);
+      if (sizes.length < min || sizes.length > 2) throw plannerError("planDies", `${where}: ${kind === "orifice" ? "an orifice die needs its bore (and optionally its land length)" : "a capillary needs bore and length"} in mm.`);
       const entry: Record<string, string> = { name, type: kind, diameter: sizes[0] as string };
       if (sizes[1] !== undefined && sizes[1] !== "") entry.length = sizes[1];
       return entry;
     }
-    throw new PlannerError("planDies", `${where}: the second item is the die type: capillary, orifice or slit.`);
+    throw plannerError("planDies", `${where}: the second item is the die type: capillary, orifice or slit.`);
   });
 }
 
 /** Transducer lines as the settings reader's entries (full scale in bar, accuracy in %). */
 export function readTransducerLines(text: string): Record<string, string>[] {
   const lines = splitLines(text);
-  if (lines.length === 0) throw new PlannerError("planTransducers", "List at least one transducer, e.g. “P200, 200, 0.25”.");
+  if (lines.length === 0) throw plannerError("planTransducers", "List at least one transducer, e.g. “P200, 200, 0.25”.");
   return lines.map((line, i) => {
     const [name = "", fullScale = "", accuracy] = parts(line);
-    if (name === "" || fullScale === "") throw new PlannerError("planTransducers", `Transducer line ${i + 1} (“${line}”): give name, full scale [bar] and, optionally, accuracy [%].`);
+    if (name === "" || fullScale === "") throw plannerError("planTransducers", `Transducer line ${i + 1} (“${line}”): give name, full scale [bar] and, optionally, accuracy [%].`);
     const entry: Record<string, string> = { name, fullScale };
     // a bare accuracy is a percentage here (the label says so), never a fraction
     if (accuracy !== undefined && accuracy !== "") entry.accuracy = /%\s*$/.test(accuracy) ? accuracy : `${accuracy} %`;
@@ -152,12 +145,12 @@ export function plannerSettings(form: PlannerForm): Record<string, unknown> {
   if (form.prior === "power-law") {
     const K = Number(form.powerLawK.replace(",", "."));
     const n = Number(form.powerLawN.replace(",", "."));
-    if (form.powerLawK.trim() === "" || !(K > 0)) throw new PlannerError("planK", "Give K in Pa·s^n as a number greater than zero.");
-    if (form.powerLawN.trim() === "" || !(n > 0)) throw new PlannerError("planN", "Give n as a number greater than zero (melts: 0.2–0.8).");
+    if (form.powerLawK.trim() === "" || !(K > 0)) throw plannerError("planK", "Give K in Pa·s^n as a number greater than zero.");
+    if (form.powerLawN.trim() === "" || !(n > 0)) throw plannerError("planN", "Give n as a number greater than zero (melts: 0.2–0.8).");
     s.priorModel = "power-law";
     s.priorParameters = { K, n };
   } else if (form.prior === "model") {
-    if (form.priorModel.trim() === "") throw new PlannerError("planModel", "Choose a model, or press “Use the last fit”.");
+    if (form.priorModel.trim() === "") throw plannerError("planModel", "Choose a model, or press “Use the last fit”.");
     s.priorModel = form.priorModel;
     s.priorParameters = form.priorParameters;
   } else {
@@ -204,7 +197,7 @@ export interface PlannerOutput {
 
 /**
  * Reads the form and plans the test with the core.
- * @throws PlannerError naming the field at fault.
+ * @throws PaneFieldError naming the field at fault.
  */
 export function runPlanner(form: PlannerForm): PlannerOutput {
   try {
@@ -212,8 +205,7 @@ export function runPlanner(form: PlannerForm): PlannerOutput {
     return { plan: planTest(parsed.input, parsed.options), priorDescription: parsed.priorDescription, form };
   } catch (error) {
     if (error instanceof RheoError) {
-      const message = error.message.trim();
-      throw new PlannerError(plannerFieldOf(error, form.prior), message.charAt(0).toUpperCase() + message.slice(1));
+      throw plannerError(plannerFieldOf(error, form.prior), detailOf(error));
     }
     throw error;
   }
@@ -274,7 +266,7 @@ export function buildPlannerPlan(out: PlannerOutput, meta: { name: string; versi
     ],
   });
   const summary = planSummaryTable(out.plan);
-  s.add({ id: "plan-summary", role: "table", title: "Per die (one barrel load each)", header: summary.header, rows: summary.rows, numberFormats: [null, null, "0", null, "0.00", "0.00", "0.00", "0.00", "0.0", "0.0"] });
+  s.add({ id: "plan-summary", role: "table", title: "Per die (one barrel load each)", header: summary.header, rows: summary.rows, numberFormats: [null, null, "0", null, "0.00", "0.00", "0.00", "0.00", "0.0", "0.0"], keyColumns: [0, 1, 5, 8] });
   const steps = planStepTable(out.plan);
   const block = s.add({
     id: "plan-steps",
@@ -283,6 +275,8 @@ export function buildPlannerPlan(out: PlannerOutput, meta: { name: string; versi
     header: steps.header,
     rows: steps.rows,
     numberFormats: [null, "0", "0.00", "0.00", "0.0", "0.000", "0.000", "0.000", "0.00", null, "0.0", null, "0", "0.000", "0.000", "0.00", null],
+    // die, piston speed, pressure, range flag: what the operator sets and watches
+    keyColumns: [0, 6, 8, 11],
   });
   s.add({ id: "plan-warnings", role: "list", title: `Warnings (${out.plan.warnings.length})`, header: ["code", "message"], rows: warningRows(out.plan.warnings) });
   const rangeColumn = steps.header.indexOf("range");

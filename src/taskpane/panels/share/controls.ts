@@ -2,10 +2,10 @@
  * The Share command (copy a sheet with Rheoledger formulas replaced by values) and the workbook
  * lists the pane offers (tables for the data source, sheets to share). Excel only.
  */
-import { excelBatch, listTablesAndSheets, supportsExcelApi } from "./officeHost";
-import { byId, clearFieldErrors, showFieldError } from "./paneDom";
-import { fail, setBusy, state } from "./paneState";
-import { copySheetAsValues } from "./shareValues";
+import { excelBatch, listTablesAndSheets, supportsExcelApi, type HostMode } from "../../officeHost";
+import { byId, clearFieldErrors } from "../../paneDom";
+import { fail, setBusy, showProblems, state } from "../../paneState";
+import { copySheetAsValues } from "./values";
 
 /** Refills the table picker and the share-sheet list from the workbook (Excel mode only). */
 export async function refreshWorkbookLists(): Promise<void> {
@@ -19,10 +19,11 @@ export async function refreshWorkbookLists(): Promise<void> {
 }
 
 async function share(): Promise<void> {
-  clearFieldErrors();
+  if (state.busy) return;
+  clearFieldErrors(byId("share-section"));
   const name = byId<HTMLSelectElement>("share-sheet").value;
   if (!name) {
-    showFieldError("share", "Choose a sheet to copy.");
+    showProblems([{ field: "share", message: "Choose a sheet to copy." }], "shareRun");
     return;
   }
   setBusy(true);
@@ -34,7 +35,7 @@ async function share(): Promise<void> {
     void refreshWorkbookLists();
   } catch (error) {
     byId("share-status").textContent = "";
-    fail(error, "share");
+    fail(error, "shareRun");
   } finally {
     setBusy(false);
   }
@@ -46,7 +47,12 @@ export function wireShare(): void {
   byId("share-sheet").addEventListener("focus", () => void refreshWorkbookLists().catch(() => undefined));
 }
 
-/** Preview mode: sharing needs Excel; the help says what it would do. */
-export function previewShare(): void {
-  byId("share-help").textContent = "Needs Excel: in the workbook it copies a sheet with Rheoledger formulas replaced by values (formulas kept in notes).";
+/** Preview mode: sharing needs Excel (the button is disabled and says why); in Excel, the workbook's sheets. */
+export function shareMode(mode: HostMode): void {
+  byId("share-help").textContent =
+    mode.kind === "preview"
+      ? "Needs Excel, so it is switched off here: in the workbook it copies a sheet with Rheoledger formulas replaced by values (formulas kept in notes)."
+      : "Makes a copy in which Rheoledger formulas become plain numbers (each formula kept in a note), for colleagues without the add-in.";
+  byId<HTMLSelectElement>("share-sheet").disabled = mode.kind === "preview";
+  if (mode.kind === "excel") void refreshWorkbookLists().catch((e) => fail(e, "shareRun"));
 }

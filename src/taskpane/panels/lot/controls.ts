@@ -3,15 +3,17 @@
  * reduction, a model), "use the last fit" and the run that writes a lot sheet (Excel) or shows it
  * (preview). The comparison itself: lotPanel.ts.
  */
-import { DEFAULT_LOT_COMPARISON_OPTIONS } from "../core/lotComparison";
-import { DEMO_LOT_LABEL, DEMO_REFERENCE_LABEL, demoLotCells } from "./demoData";
-import { SHEET_BASE_NAMES, writeNewSheet } from "./excelWriter";
-import { LOT_HELP, LotCurveInput, LotError, ReferenceInput, buildLotPlan, runLotCheck } from "./lotPanel";
-import { excelBatch, readSource } from "./officeHost";
-import { byId, clearFieldErrors, fillModelSelect } from "./paneDom";
-import { bestFit, failPanel, panelMeta, parameterText, plainOfficeMessage, setBusy, state } from "./paneState";
-import { sheetPlanHtml } from "./preview";
-import { RunOutput, groupLabel } from "./runReduction";
+import { DEFAULT_LOT_COMPARISON_OPTIONS } from "../../../core/lotComparison";
+import { DEMO_LOT_LABEL, DEMO_REFERENCE_LABEL, demoLotCells } from "../../demoData";
+import { LOT_HELP, LotCurveInput, ReferenceInput, lotError, buildLotPlan, runLotCheck } from "./check";
+import { excelBatch, readSource, type HostMode } from "../../officeHost";
+import { byId, fillModelSelect } from "../../paneDom";
+import { bestFit, parameterText, plainOfficeMessage, state } from "../../paneState";
+import { runToSheet } from "../../runToSheet";
+import type { SheetPlan } from "../../sheetPlan";
+import { lotPanel } from "./index";
+import { sheetPlanHtml } from "../../preview";
+import { RunOutput, groupLabel } from "../../runReduction";
 
 function updateLotFields(): void {
   byId("lot-range-field").hidden = byId<HTMLSelectElement>("lotSource").value !== "range";
@@ -35,7 +37,7 @@ export function offerRunCurves(output: RunOutput): void {
 /** Reads a range or table for the lot or the reference; an Office failure names `field`. */
 async function readRange(field: "lotRange" | "refRange", text: string): Promise<{ values: unknown[][]; address: string }> {
   return readSource(excelBatch, text).catch((e: unknown) => {
-    throw new LotError(field, plainOfficeMessage(e instanceof Error ? e : new Error(String(e))));
+    throw lotError(field, plainOfficeMessage(e instanceof Error ? e : new Error(String(e))));
   });
 }
 
@@ -44,13 +46,13 @@ async function lotInput(): Promise<LotCurveInput> {
   if (source.startsWith("run-")) {
     const i = Number(source.slice(4));
     const g = state.lastRun?.result.groups[i];
-    if (!g) throw new LotError("lotSource", "Run a reduction first, or choose a range.");
+    if (!g) throw lotError("lotSource", "Run a reduction first, or choose a range.");
     const rows = g.flowCurve.filter((f) => f.shearRateWall !== null && f.viscosity !== null);
     return { kind: "curve", curve: { shearRate: rows.map((f) => f.shearRateWall as number), viscosity: rows.map((f) => f.viscosity as number) }, label: `last reduction, ${groupLabel(g)}` };
   }
   if (state.mode.kind === "preview") return { kind: "cells", cells: demoLotCells().lot, label: DEMO_LOT_LABEL };
   const text = byId<HTMLInputElement>("lotRange").value.trim();
-  if (text === "") throw new LotError("lotRange", "Give the lot's range (e.g. Lot!A1:B12) or table name.");
+  if (text === "") throw lotError("lotRange", "Give the lot's range (e.g. Lot!A1:B12) or table name.");
   const read = await readRange("lotRange", text);
   return { kind: "cells", cells: read.values, label: read.address };
 }
@@ -64,38 +66,28 @@ async function referenceInput(): Promise<ReferenceInput> {
   }
   if (state.mode.kind === "preview") return { kind: "table", cells: demoLotCells().reference, label: DEMO_REFERENCE_LABEL };
   const text = byId<HTMLInputElement>("refRange").value.trim();
-  if (text === "") throw new LotError("refRange", "Give the reference range (e.g. Reference!A1:B8) or table name.");
+  if (text === "") throw lotError("refRange", "Give the reference range (e.g. Reference!A1:B8) or table name.");
   const read = await readRange("refRange", text);
   return { kind: "table", cells: read.values, label: read.address };
 }
 
-async function runLot(): Promise<void> {
-  if (state.busy) return;
-  clearFieldErrors(byId("lot-section"));
-  setBusy(true);
-  const status = byId("lot-status");
-  try {
-    status.textContent = "Comparing…";
-    const out = runLotCheck(await lotInput(), await referenceInput(), byId<HTMLInputElement>("lotTolerance").value);
-    const c = out.comparison;
-    const worst = c.worst ? ` Worst point ${Number(((c.worst.deviation ?? 0) * 100).toFixed(1))} % at ${Number(c.worst.shearRate.toPrecision(4))} 1/s.` : "";
-    const verdict = `${c.verdict === "pass" ? "PASS" : c.verdict === "fail" ? "FAIL" : "NOT JUDGED"}: ${c.compared - c.failed} of ${c.compared} point(s) within ±${Number((c.tolerance * 100).toPrecision(6))} %.${worst}`;
-    if (state.mode.kind === "excel") {
-      let plan = buildLotPlan(out, { ...panelMeta(), name: SHEET_BASE_NAMES.lot });
-      const name = await writeNewSheet(excelBatch, SHEET_BASE_NAMES.lot, (n) => (plan = buildLotPlan(out, { ...panelMeta(), name: n })));
-      status.textContent = `Done: wrote “${name}”. ${verdict}`;
-      byId("lot-results").innerHTML = `<details><summary>Quick look</summary>${sheetPlanHtml(plan)}</details>`;
-    } else {
-      const plan = buildLotPlan(out, { ...panelMeta(), name: SHEET_BASE_NAMES.lot });
-      byId("lot-results").innerHTML = `<p class="summary-box">Preview on the invented demo lot: in Excel this goes to a new sheet.</p>${sheetPlanHtml(plan)}`;
-      status.textContent = verdict;
-    }
-  } catch (error) {
-    status.textContent = "Stopped; nothing was written.";
-    failPanel(error, "lotRun");
-  } finally {
-    setBusy(false);
-  }
+function runLot(): Promise<void> {
+  return runToSheet({
+    panel: lotPanel,
+    statusId: "lot-status",
+    resultsId: "lot-results",
+    working: "Comparing…",
+    compute: async () => runLotCheck(await lotInput(), await referenceInput(), byId<HTMLInputElement>("lotTolerance").value),
+    plans: (out, [name], meta) => [buildLotPlan(out, { ...meta, name: name as string })],
+    render: (_out, [plan], written) =>
+      written ? `<details><summary>Quick look</summary>${sheetPlanHtml(plan as SheetPlan)}</details>` : `<p class="summary-box">Preview on the invented demo lot: in Excel this goes to a new sheet.</p>${sheetPlanHtml(plan as SheetPlan)}`,
+    done: (out, written) => {
+      const c = out.comparison;
+      const worst = c.worst ? ` Worst point ${Number(((c.worst.deviation ?? 0) * 100).toFixed(1))} % at ${Number(c.worst.shearRate.toPrecision(4))} 1/s.` : "";
+      const verdict = `${c.verdict === "pass" ? "PASS" : c.verdict === "fail" ? "FAIL" : "NOT JUDGED"}: ${c.compared - c.failed} of ${c.compared} point(s) within ±${Number((c.tolerance * 100).toPrecision(6))} %.${worst}`;
+      return written ? `Done: wrote “${written[0]}”. ${verdict}` : verdict;
+    },
+  });
 }
 
 /** Sets the Lot check's defaults and attaches its controls. */
@@ -117,13 +109,14 @@ export function wireLot(): void {
   updateLotFields();
 }
 
-/** Preview mode: the lot and the reference are the invented demo tables. */
-export function previewLot(): void {
+/** Preview mode: the lot and the reference are the invented demo tables; in Excel, ranges. */
+export function lotMode(mode: HostMode): void {
+  const preview = mode.kind === "preview";
   for (const [id, label] of [["lotRange", DEMO_LOT_LABEL], ["refRange", DEMO_REFERENCE_LABEL]] as const) {
     const input = byId<HTMLInputElement>(id);
-    input.value = label;
-    input.readOnly = true;
+    input.value = preview ? label : "";
+    input.readOnly = preview;
   }
-  byId<HTMLSelectElement>("lotSource").options[0]!.text = `Demo lot (${DEMO_LOT_LABEL})`;
-  byId("lotRun").textContent = "Check the demo lot";
+  byId<HTMLSelectElement>("lotSource").options[0]!.text = preview ? `Demo lot (${DEMO_LOT_LABEL})` : "A range (shear rate, viscosity)";
+  byId("lotRun").textContent = preview ? "Check the demo lot" : "Check into a new sheet";
 }

@@ -6,13 +6,14 @@
  * "Rheo lot check" sheet with PASS/FAIL conditional formats and an XY chart of the lot over the
  * band. Pure: no DOM, no Office.
  */
-import { RheoError, type Warning } from "../core/errors";
-import { compareLot, DEFAULT_LOT_COMPARISON_OPTIONS, type FlowCurveTable, type LotComparison, type LotReference } from "../core/lotComparison";
-import { readFlowCurveTable } from "../io/flowCurveTable";
-import { readParameters } from "../io/planOptions";
-import { LOT_STATUS_TEXT, PLAN_TABLE_UNITS, lotChartSeries, lotComparisonTable, lotVerdictTable } from "../io/planTables";
-import { FLAG_COLOURS, stackBlocks, warningRows } from "./plannerPanel";
-import { CellValue, ChartSpec, ConditionalFormatSpec, SheetPlan, SeriesSpec, blockLayout } from "./sheetPlan";
+import { PaneFieldError, detailOf } from "../../panelContract";
+import { RheoError, type Warning } from "../../../core/errors";
+import { compareLot, DEFAULT_LOT_COMPARISON_OPTIONS, type FlowCurveTable, type LotComparison, type LotReference } from "../../../core/lotComparison";
+import { readFlowCurveTable } from "../../../io/flowCurveTable";
+import { readParameters } from "../../../io/planOptions";
+import { LOT_STATUS_TEXT, PLAN_TABLE_UNITS, lotChartSeries, lotComparisonTable, lotVerdictTable } from "../../../io/planTables";
+import { FLAG_COLOURS, stackBlocks, warningRows } from "../planner/plan";
+import { CellValue, ChartSpec, ConditionalFormatSpec, SheetPlan, SeriesSpec, blockLayout } from "../../sheetPlan";
 
 /** The Lot check panel's fields a message can be shown next to. */
 export type LotFieldId = "lotSource" | "lotRange" | "refKind" | "refRange" | "refModel" | "refParameters" | "lotTolerance" | "lotRun";
@@ -27,16 +28,6 @@ export const LOT_HELP = {
   tolerance: "Half-width of the band in %: a point passes when the lot is within ± this of the reference.",
 } as const;
 
-/** A failure meant for one field of the Lot check panel. */
-export class LotError extends Error {
-  constructor(
-    readonly field: LotFieldId,
-    message: string,
-  ) {
-    super(message);
-    this.name = "LotError";
-  }
-}
 
 /** Where the lot's curve comes from: cells as read, or a flow curve already in SI. */
 export type LotCurveInput = { kind: "cells"; cells: unknown[][]; label: string } | { kind: "curve"; curve: FlowCurveTable; label: string };
@@ -55,20 +46,21 @@ export interface LotOutput {
 
 /**
  * Reads a tolerance typed in percent: "10" or "10 %" → 0.1.
- * @throws LotError for anything but a number above 0 and below 100.
+ * @throws PaneFieldError for anything but a number above 0 and below 100.
  */
 export function readTolerancePercent(text: string): number {
   const t = text.trim().replace(/\s*%$/, "").replace(",", ".");
   const v = t === "" ? DEFAULT_LOT_COMPARISON_OPTIONS.tolerance * 100 : Number(t);
-  if (!Number.isFinite(v) || !(v > 0) || v >= 100) throw new LotError("lotTolerance", `Give the tolerance in % as a number above 0 and below 100 (got “${text}”).`);
+  if (!Number.isFinite(v) || !(v > 0) || v >= 100) throw lotError("lotTolerance", `Give the tolerance in % as a number above 0 and below 100 (got “${text}”).`);
   return v / 100;
 }
 
-const sentence = (t: string) => t.charAt(0).toUpperCase() + t.slice(1);
+/** A problem for one Lot check field. */
+export const lotError = (field: LotFieldId, message: string) => new PaneFieldError({ field, message });
 
 /**
  * Runs a lot check.
- * @throws LotError naming the field at fault (bad ranges, parameters, tolerance).
+ * @throws PaneFieldError naming the field at fault (bad ranges, parameters, tolerance).
  */
 export function runLotCheck(lotInput: LotCurveInput, reference: ReferenceInput, tolerancePercent: string): LotOutput {
   const tolerance = readTolerancePercent(tolerancePercent);
@@ -81,7 +73,7 @@ export function runLotCheck(lotInput: LotCurveInput, reference: ReferenceInput, 
       warnings.push(...read.warnings);
     } else lot = lotInput.curve;
   } catch (error) {
-    if (error instanceof RheoError) throw new LotError(lotInput.kind === "cells" ? "lotRange" : "lotSource", sentence(error.message));
+    if (error instanceof RheoError) throw lotError(lotInput.kind === "cells" ? "lotRange" : "lotSource", detailOf(error));
     throw error;
   }
   let ref: LotReference;
@@ -91,11 +83,11 @@ export function runLotCheck(lotInput: LotCurveInput, reference: ReferenceInput, 
       ref = { kind: "table", ...read.table };
       warnings.push(...read.warnings);
     } else {
-      if (reference.model.trim() === "") throw new LotError("refModel", "Choose the reference model.");
+      if (reference.model.trim() === "") throw lotError("refModel", "Choose the reference model.");
       ref = { kind: "model", model: reference.model, parameters: readParameters(reference.parameters, "parameters") };
     }
   } catch (error) {
-    if (error instanceof RheoError) throw new LotError(reference.kind === "table" ? "refRange" : "refParameters", sentence(error.message));
+    if (error instanceof RheoError) throw lotError(reference.kind === "table" ? "refRange" : "refParameters", detailOf(error));
     throw error;
   }
   try {
@@ -106,7 +98,7 @@ export function runLotCheck(lotInput: LotCurveInput, reference: ReferenceInput, 
     if (error instanceof RheoError) {
       const a = error.argument;
       const field: LotFieldId = /^lot/.test(a) ? (lotInput.kind === "cells" ? "lotRange" : "lotSource") : a === "tolerance" ? "lotTolerance" : reference.kind === "table" ? "refRange" : "refParameters";
-      throw new LotError(field, sentence(error.message));
+      throw lotError(field, detailOf(error));
     }
     throw error;
   }
@@ -133,7 +125,7 @@ export function buildLotPlan(out: LotOutput, meta: { name: string; version: stri
   const verdict = lotVerdictTable(c);
   const verdictBlock = s.add({ id: "lot-verdict", role: "list", title: "Verdict", header: ["item", "value"], rows: [verdict.header as CellValue[], ...verdict.rows] });
   const table = lotComparisonTable(c, unit);
-  const points = s.add({ id: "lot-points", role: "table", title: "Per rate (lot interpolated log–log at the reference rates)", header: table.header, rows: table.rows, numberFormats: ["0.00", "0.0", "0.0", "0.0", "0.0", "0.00", null] });
+  const points = s.add({ id: "lot-points", role: "table", title: "Per rate (lot interpolated log–log at the reference rates)", header: table.header, rows: table.rows, numberFormats: ["0.00", "0.0", "0.0", "0.0", "0.0", "0.00", null], keyColumns: [0, 4, 5, 6] });
   s.add({ id: "lot-warnings", role: "list", title: `Warnings (${out.warnings.length})`, header: ["code", "message"], rows: warningRows(out.warnings) });
   const rules: ConditionalFormatSpec["rules"] = [
     { text: LOT_STATUS_TEXT.fail, ...FLAG_COLOURS.fail, tone: "fail" },
