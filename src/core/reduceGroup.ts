@@ -12,7 +12,7 @@ import { RheoError, Warning, warning } from "./errors";
 import { BagleyRow, bagleyCorrection } from "./bagley";
 import { rabinowitschCorrection } from "./rabinowitsch";
 import { slitWarnings } from "./slit";
-import { DEFAULT_ORIFICE_OPTIONS, OrificeOptions, compareEntrancePressures, orificeCorrection } from "./orifice";
+import { DEFAULT_ORIFICE_OPTIONS, OrificeOptions, compareEntrancePressures, orificeCorrection, orificeLandCorrection, shortestOrificeDie } from "./orifice";
 import { geometricMean, interpolateLogLog } from "./interpolate";
 import { bagleyStressUncertainty } from "./uncertainty";
 import type { CurveSource } from "./reduceMethods";
@@ -49,7 +49,10 @@ export function reduceGroup(
     return die;
   });
   const longDies = byLength.filter((g) => !isOrifice((g[0] as PointRow).dieLength));
-  const orificePoints = points.filter((p) => isOrifice(p.dieLength)).sort((a, b) => a.shearRateApparent - b.shearRateApparent);
+  // the orifice die (the shortest, when several); its land is subtracted (orifice.ts)
+  const orificeDie = shortestOrificeDie(points.filter((p) => isOrifice(p.dieLength)));
+  const orificePoints = orificeDie?.points ?? [];
+  const orificeLength = orificeDie?.dieLength ?? 0;
   const warnings: Warning[] = slit ? slitWarnings(slit.width, slit.height) : [];
   const ratioName = slit ? "L/H" : "L/D";
   if (longDies.length === 0) {
@@ -57,7 +60,7 @@ export function reduceGroup(
   }
   if (orificePoints.length > 0 && opt.endCorrection !== "orifice") {
     warnings.push(
-      warning("ORIFICE_DIE_NOT_ON_BAGLEY", `The die of ${ratioName} < ${orificeOpt.maxLengthOverDiameter} (L = ${millimetres((orificePoints[0] as PointRow).dieLength)}) is treated as an orifice die: it is kept off the Bagley line and its entrance pressure is listed beside Bagley's.`),
+      warning("ORIFICE_DIE_NOT_ON_BAGLEY", `The die of ${ratioName} < ${orificeOpt.maxLengthOverDiameter} (L = ${millimetres((orificePoints[0] as PointRow).dieLength)}) is treated as an orifice die: it is kept off the Bagley line and its entrance pressure (its reading less its land) is listed beside Bagley's.${orificeDie && orificeDie.otherLengths.length > 0 ? ` The other orifice dies (L = ${orificeDie.otherLengths.map(millimetres).join(", ")}) are not used.` : ""}`),
     );
   }
   if (opt.endCorrection === "orifice" && orificePoints.length === 0) {
@@ -66,6 +69,15 @@ export function reduceGroup(
   const orificeRates = orificePoints.map((p) => p.shearRateApparent);
   const orificePressures = orificePoints.map((p) => p.pressure);
   const orificeAt = (rate: number) => (orificePoints.length > 0 ? (interpolateLogLog(orificeRates, orificePressures, rate) ?? null) : null);
+  // land-corrected orifice entrance pressure at a rate, with τ_w from Bagley or, failing that, from
+  // the longest die paired with the orifice (ΔP_long at this rate)
+  const orificeEntranceAt = (rate: number, bagleyStress: number | null, longPressure: number | null): number | null => {
+    const pO = orificeAt(rate);
+    if (pO === null) return null;
+    if (bagleyStress !== null) return pO - 2 * bagleyStress * xOf(orificeLength);
+    if (longPressure === null || !(longPressure > pO)) return null;
+    return orificeLandCorrection(longPressure, xOf(longestLength), pO, xOf(orificeLength)).entrancePressure;
+  };
   let bagley: BagleyRow[] = [];
   const wantBagley = opt.endCorrection === "bagley" || (opt.endCorrection === "orifice" && longDies.length >= 2);
   if (wantBagley) {
@@ -111,10 +123,10 @@ export function reduceGroup(
         shearRateApparent: longest.map((p) => p.shearRateApparent),
         pressure: longest.map((p) => p.pressure),
       },
-      { shearRateApparent: orificeRates, pressure: orificePressures },
+      { shearRateApparent: orificeRates, pressure: orificePressures, dieLength: orificeLength },
     );
     warnings.push(...corrected.warnings);
-    const g = stressFactor(longestLength);
+    const g = stressFactor(longestLength - orificeLength);
     curve = corrected.rows
       .map((r) => ({
         rate: r.shearRateApparent,
@@ -131,7 +143,7 @@ export function reduceGroup(
       .map((p) => ({
         rate: p.shearRateApparent,
         stress: p.wallShearStressApparent,
-        source: { pressure: p.pressure, entrancePressure: orificeAt(p.shearRateApparent), stressUncertainty: (uP: number) => uP * g, bagleyPoints: null },
+        source: { pressure: p.pressure, entrancePressure: orificeEntranceAt(p.shearRateApparent, null, p.pressure), stressUncertainty: (uP: number) => uP * g, bagleyPoints: null },
       }))
       .sort((a, b) => a.rate - b.rate);
   }
@@ -139,13 +151,16 @@ export function reduceGroup(
   if (orificePoints.length > 0 && (bagley.length > 0 || opt.endCorrection !== "bagley")) {
     const rates = bagley.length > 0 ? bagley.map((r) => r.shearRateApparent) : curve.map((c) => c.rate);
     const fromBagley = rates.map((rate) => bagley.find((r) => r.shearRateApparent === rate)?.entrancePressure ?? null);
-    const fromOrifice = rates.map(orificeAt);
-    const cmp = compareEntrancePressures(rates, fromBagley, fromOrifice, orificeOpt.maxDisagreement);
+    const bagleyStress = (rate: number) => bagley.find((r) => r.shearRateApparent === rate)?.wallShearStress ?? null;
+    const longAt = (rate: number) => curve.find((c) => c.rate === rate)?.source.pressure ?? null;
+    const fromOrifice = rates.map((rate) => orificeEntranceAt(rate, bagleyStress(rate), longAt(rate)));
+    const cmp = compareEntrancePressures(rates, fromBagley, fromOrifice, orificeOpt.maxDisagreement, orificeLength / (slit ? slit.height : dieDiameter));
     warnings.push(...cmp.warnings);
     entrancePressures = rates.map((rate, i) => ({
       shearRateApparent: rate,
       entrancePressure: fromBagley[i] ?? null,
       entrancePressureOrifice: fromOrifice[i] ?? null,
+      orificePressure: orificeAt(rate),
       difference: cmp.difference[i] ?? null,
     }));
   }

@@ -128,8 +128,13 @@ export interface EntrancePressureRow {
   shearRateApparent: number;
   /** Bagley intercept, or null where no Bagley line exists at this rate */
   entrancePressure: number | null;
-  /** orifice die's pressure at this rate (interpolated log–log), or null outside its range */
+  /**
+   * entrance pressure from the orifice die: its reading at this rate (interpolated log–log) minus
+   * the pressure of its own land, 2τ_w·L_o/R (orifice.ts); null outside its range
+   */
   entrancePressureOrifice: number | null;
+  /** the orifice die's reading at this rate (entrance plus its land), Pa, or null outside its range */
+  orificePressure: number | null;
   /** (Bagley − orifice)/orifice, or null */
   difference: number | null;
 }
