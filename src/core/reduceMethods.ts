@@ -60,7 +60,13 @@ export interface GroupMethodResults {
   uncertainty?: UncertaintyRow[];
   heating?: { temperatureCoefficient: number; temperatureCoefficientSource: "given" | "fitted"; rows: HeatingRow[] };
   extensional?: CogswellRow[];
-  pressureDependence?: { pressureCoefficient: number | null; rows: PressureDependenceRow[] };
+  pressureDependence?: {
+    /** @deprecated median β_γ (constant rate); use pressureCoefficientConstantStress */
+    pressureCoefficient: number | null;
+    /** median constant-stress β, 1/Pa */
+    pressureCoefficientConstantStress: number | null;
+    rows: PressureDependenceRow[];
+  };
 }
 
 const on = <T extends object>(v: boolean | T): T | undefined => (v === false ? undefined : v === true ? ({} as T) : v);
@@ -124,10 +130,10 @@ export function applyGroupMethods(
   const pd = on(opt.pressureDependence);
   if (pd) {
     const lines = fc
-      .map((f, i) => ({ shearRateApparent: f.shearRateApparent, points: (sources[i] as CurveSource).bagleyPoints }))
-      .filter((l): l is { shearRateApparent: number; points: { lengthOverRadius: number; pressure: number }[] } => l.points !== null);
+      .map((f, i) => ({ shearRateApparent: f.shearRateApparent, points: (sources[i] as CurveSource).bagleyPoints, nPrime: f.nPrime }))
+      .filter((l): l is { shearRateApparent: number; points: { lengthOverRadius: number; pressure: number }[]; nPrime: number } => l.points !== null);
     const r = pressureDependence(lines, pd);
-    results.pressureDependence = { pressureCoefficient: r.pressureCoefficient, rows: r.rows };
+    results.pressureDependence = { pressureCoefficient: r.pressureCoefficient, pressureCoefficientConstantStress: r.pressureCoefficientConstantStress, rows: r.rows };
     warnings.push(...r.warnings);
   }
   return { results, warnings };

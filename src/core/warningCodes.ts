@@ -74,6 +74,7 @@ export const WARNING_CODES = Object.freeze({
   PRESSURE_CURVATURE_DOWNWARD: "caution",
   PRESSURE_FEW_DIES: "info",
   PRESSURE_FIT_NOT_CONVERGED: "caution",
+  PRESSURE_EXACT_FIT: "caution",
   TRANSDUCER_LOW_READING: "caution",
   TRANSDUCER_OVER_RANGE: "serious",
   MFR_APPARENT_POINT: "info",

@@ -60,6 +60,7 @@ export const WARNING_CATALOG: Readonly<Record<WarningCode, WarningText>> = Objec
   PRESSURE_CURVATURE_DOWNWARD: { title: "Bagley lines bend downwards", description: "Downward curvature is not pressure dependence: look for slip, heating or a die-length error." },
   PRESSURE_FEW_DIES: { title: "Pressure dependence needs three dies", description: "The curvature of a Bagley line needs three or more die lengths." },
   PRESSURE_FIT_NOT_CONVERGED: { title: "Pressure-dependence fit failed", description: "The curved Bagley fit did not converge at some rates." },
+  PRESSURE_EXACT_FIT: { title: "Curvature fitted exactly by three dies", description: "Three dies fit the three parameters of the curved Bagley line exactly: the pressure coefficient has no standard error; add a fourth die length." },
   TRANSDUCER_LOW_READING: { title: "Low transducer reading", description: "Readings below the usable fraction of the transducer's full scale have a large relative uncertainty." },
   TRANSDUCER_OVER_RANGE: { title: "Transducer over range", description: "A reading exceeds the transducer's full scale." },
   MFR_APPARENT_POINT: { title: "Melt-flow-rate point is apparent", description: "The MFR point is uncorrected (no Bagley, no Rabinowitsch) and is shown for comparison only." },
