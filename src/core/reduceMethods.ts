@@ -105,9 +105,10 @@ export function applyGroupMethods(
     if (!temperatureCoefficient) {
       throw new RheoError("missing", "heating.temperatureCoefficient", "give b = −d ln η/dT (1/K), or measure at two or more temperatures so it can be fitted");
     }
+    const longest = Math.max(...group.dies.filter((d) => !d.orifice).map((d) => d.dieLength));
     const h = heatingTable(
-      fc.map((f, i) => ({ shearRateApparent: f.shearRateApparent, pressure: (sources[i] as CurveSource).pressure, shearRateWall: f.shearRateWall, viscosity: f.viscosity })),
-      radius,
+      fc.map((f, i) => ({ shearRateApparent: f.shearRateApparent, pressure: (sources[i] as CurveSource).pressure, nPrime: f.nPrime, shearRateWall: f.shearRateWall, viscosity: f.viscosity })),
+      { geometry, radius, dieLength: longest },
       { ...opt.heating, temperatureCoefficient: temperatureCoefficient.value },
       opt.heating,
     );
