@@ -121,7 +121,7 @@ export function applyGroupMethods(
       warnings.push(warning("COGSWELL_ROUND_ONLY", "The Cogswell analysis here is for round dies; it was not applied to the slit."));
     } else {
       const c = cogswellTable(
-        fc.map((f, i) => ({ shearRateApparent: f.shearRateApparent, shearRateWall: f.shearRateWall, viscosity: f.viscosity, nPrime: f.nPrime, entrancePressure: (sources[i] as CurveSource).entrancePressure })),
+        fc.map((f, i) => ({ shearRateApparent: f.shearRateApparent, shearRateWall: f.shearRateWall, viscosity: f.viscosity, viscosityApparent: f.viscosityApparent, nPrime: f.nPrime, entrancePressure: (sources[i] as CurveSource).entrancePressure })),
         ext,
       );
       results.extensional = c.rows;
