@@ -91,7 +91,7 @@ export function applyGroupMethods(
   const stresses = fc.map((f) => f.wallShearStress);
   const rep = on(opt.representativeRate);
   if (rep && geometry === "round") {
-    const r = representativeRateCheck(rates, stresses, fc.map((f) => f.shearRateWall), fc.map((f) => f.viscosity), rep);
+    const r = representativeRateCheck(rates, stresses, fc.map((f) => f.shearRateWall), fc.map((f) => f.viscosity), rep, fc.map((f) => f.nPrime));
     results.representativeRate = r.rows;
     warnings.push(...r.warnings);
   }
