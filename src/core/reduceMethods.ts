@@ -6,7 +6,8 @@
  * feeds them the group's data and gathers their results and warnings.
  */
 import { RheoError, Warning, warning } from "./errors";
-import type { ReductionGroup } from "./reduce";
+import type { FlowCurveRow, ReductionGroup } from "./reduce";
+import { slitEdgeCorrection } from "./slit";
 import { RepresentativeRateOptions, RepresentativeRateRow, representativeRateCheck } from "./representativeRate";
 import { Transducer, UncertaintyOptions, UncertaintyRow, flowCurveUncertainty, pressureStandardUncertainty, transducerWarnings, DEFAULT_UNCERTAINTY_OPTIONS } from "./uncertainty";
 import { HeatingOptions, HeatingProperties, HeatingRow, heatingTable, temperatureCoefficientFromShift } from "./viscousHeating";
@@ -30,6 +31,8 @@ export interface MethodOptions {
   transducer: (Transducer & Partial<UncertaintyOptions>) | null;
   /** Mooney slip analysis across die diameters at each temperature */
   slip: boolean | Partial<SlipOptions>;
+  /** slit groups: divide the true wall rate by the channel's Newtonian shape factor (slitFlow.ts) */
+  slitEdgeCorrection: boolean;
 }
 
 /** Defaults of {@link MethodOptions}: every method off. */
@@ -40,6 +43,7 @@ export const DEFAULT_METHOD_OPTIONS: Readonly<MethodOptions> = Object.freeze({
   pressureDependence: false,
   transducer: null,
   slip: false,
+  slitEdgeCorrection: false,
 });
 
 /** Where a flow-curve point came from, as the methods need it. */
@@ -56,6 +60,10 @@ export interface CurveSource {
 
 /** The optional results of one group (each present only when its method was asked for). */
 export interface GroupMethodResults {
+  /** the flow curve after the slit edge correction (slit groups with slitEdgeCorrection only) */
+  flowCurve?: FlowCurveRow[];
+  /** the Newtonian shape factor F applied to a slit's flow curve */
+  slitShapeFactor?: number;
   representativeRate?: RepresentativeRateRow[];
   uncertainty?: UncertaintyRow[];
   heating?: { temperatureCoefficient: number; temperatureCoefficientSource: "given" | "fitted"; rows: HeatingRow[] };
@@ -86,7 +94,14 @@ export function applyGroupMethods(
 ): { results: GroupMethodResults; warnings: Warning[] } {
   const results: GroupMethodResults = {};
   const warnings: Warning[] = [];
-  const fc = group.flowCurve;
+  let fc = group.flowCurve;
+  if (opt.slitEdgeCorrection && geometry === "slit" && group.slitWidth !== undefined && group.slitHeight !== undefined) {
+    const edge = slitEdgeCorrection(fc, group.slitWidth, group.slitHeight);
+    fc = edge.rows;
+    results.flowCurve = fc;
+    results.slitShapeFactor = edge.shapeFactor;
+    warnings.push(...edge.warnings);
+  }
   const rates = fc.map((f) => f.shearRateApparent);
   const stresses = fc.map((f) => f.wallShearStress);
   const rep = on(opt.representativeRate);

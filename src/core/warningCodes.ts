@@ -60,6 +60,7 @@ export const WARNING_CODES = Object.freeze({
   // Optional checks
   REPRESENTATIVE_RATE_DISAGREES: "caution",
   SLIT_NARROW: "caution",
+  SLIT_EDGE_CORRECTED: "info",
   SLIP_ONE_DIAMETER: "caution",
   SLIP_FEW_DIAMETERS: "caution",
   SLIP_STRESS_OVERLAP_NARROW: "caution",
