@@ -65,6 +65,7 @@ export const WARNING_CODES = Object.freeze({
   SLIP_FEW_DIAMETERS: "caution",
   SLIP_STRESS_OVERLAP_NARROW: "caution",
   SLIP_NEGATIVE_VELOCITY: "serious",
+  SLIP_LOW_R2: "caution",
   SLIP_CORRECTED_RATE_NONPOSITIVE: "serious",
   COGSWELL_ROUND_ONLY: "info",
   COGSWELL_POINT_SKIPPED: "info",
