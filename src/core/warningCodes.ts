@@ -90,6 +90,8 @@ export const WARNING_CODES = Object.freeze({
   FIT_FAILED: "caution",
   FIT_SKIPPED: "info",
   REFERENCE_OUTSIDE_DATA: "caution",
+  WLF_C2_UNIVERSAL: "info",
+  WLF_C2_POORLY_DETERMINED: "caution",
 
   // Planner and lot check
   PLAN_PRESSURE_OVER_FULL_SCALE: "serious",

@@ -74,6 +74,8 @@ export const WARNING_CATALOG: Readonly<Record<WarningCode, WarningText>> = Objec
   FIT_FAILED: { title: "Model not fitted", description: "A model could not be fitted to a group; the reason is given." },
   FIT_SKIPPED: { title: "No model fitted", description: "A group had too few corrected points for a model fit." },
   REFERENCE_OUTSIDE_DATA: { title: "Reference temperature outside the data", description: "The master curve is extrapolated to a reference temperature outside the measured range." },
+  WLF_C2_UNIVERSAL: { title: "WLF C2 from the universal value", description: "The data could not determine C2: it was held at the universal 51.6 K converted to the reference temperature with the given glass transition temperature." },
+  WLF_C2_POORLY_DETERMINED: { title: "WLF C2 poorly determined", description: "The fitted C2 is not positive or its standard error exceeds it; give the glass transition temperature to hold C2 at the converted universal value." },
   PLAN_PRESSURE_OVER_FULL_SCALE: { title: "Predicted pressure over full scale", description: "A planned step's predicted pressure exceeds the transducer's full scale." },
   PLAN_PRESSURE_NEAR_FULL_SCALE: { title: "Predicted pressure near full scale", description: "A planned step's predicted pressure is close to the transducer's full scale." },
   PLAN_PRESSURE_LOW: { title: "Predicted pressure low", description: "A planned step's predicted pressure is a small fraction of full scale." },
