@@ -9,7 +9,12 @@ import { RheoError, Warning, warning } from "./errors";
 import type { FlowCurveRow, ReductionGroup } from "./reduce";
 import { slitEdgeCorrection } from "./slit";
 import { RepresentativeRateOptions, RepresentativeRateRow, representativeRateCheck } from "./representativeRate";
-import { Transducer, UncertaintyOptions, UncertaintyRow, flowCurveUncertainty, pressureStandardUncertainty, transducerWarnings, DEFAULT_UNCERTAINTY_OPTIONS } from "./uncertainty";
+import { Transducer, UncertaintyOptions, UncertaintyRow, transducerWarnings } from "./uncertainty";
+import { BudgetPoint, UncertaintyBudgetOptions, UncertaintyBudgetRow, uncertaintyBudget } from "./uncertaintyBudget";
+import { apparentPoint } from "./grouping";
+import { reduceGroup } from "./reduceGroup";
+import { geometricMean } from "./interpolate";
+import type { Measurement, ReduceOptions } from "./reduceTypes";
 import { HeatingOptions, HeatingProperties, HeatingRow, heatingTable, temperatureCoefficientFromShift } from "./viscousHeating";
 import { CogswellOptions, CogswellRow, cogswellTable } from "./cogswell";
 import { PressureDependenceOptions, PressureDependenceRow, pressureDependence } from "./pressureDependence";
@@ -27,8 +32,10 @@ export interface MethodOptions {
   heating: (HeatingProperties & Partial<HeatingOptions>) | null;
   /** curvature of the Bagley lines and the pressure coefficient of viscosity */
   pressureDependence: boolean | Partial<PressureDependenceOptions>;
-  /** transducer range and accuracy: low-reading flags and ± columns */
+  /** transducer range and accuracy: low-reading flags and the uncertainty budget (± columns) */
   transducer: (Transducer & Partial<UncertaintyOptions>) | null;
+  /** tolerances of the uncertainty budget (used when a transducer is given) */
+  uncertainty: Partial<UncertaintyBudgetOptions>;
   /** Mooney slip analysis across die diameters at each temperature */
   slip: boolean | Partial<SlipOptions>;
   /** slit groups: divide the true wall rate by the channel's Newtonian shape factor (slitFlow.ts) */
@@ -42,6 +49,7 @@ export const DEFAULT_METHOD_OPTIONS: Readonly<MethodOptions> = Object.freeze({
   heating: null,
   pressureDependence: false,
   transducer: null,
+  uncertainty: {},
   slip: false,
   slitEdgeCorrection: false,
 });
@@ -65,7 +73,10 @@ export interface GroupMethodResults {
   /** the Newtonian shape factor F applied to a slit's flow curve */
   slitShapeFactor?: number;
   representativeRate?: RepresentativeRateRow[];
+  /** expanded uncertainties (k·u_c) of τ_w, γ̇_w and η per flow-curve point, from the budget */
   uncertainty?: UncertaintyRow[];
+  /** the full budget per flow-curve point: each input's contribution, u_c and U */
+  uncertaintyBudget?: UncertaintyBudgetRow[];
   heating?: { temperatureCoefficient: number; temperatureCoefficientSource: "given" | "fitted"; rows: HeatingRow[] };
   extensional?: CogswellRow[];
   pressureDependence?: {
@@ -82,14 +93,14 @@ const on = <T extends object>(v: boolean | T): T | undefined => (v === false ? u
 /**
  * Applies the asked-for methods to a reduced group; returns their results and warnings.
  * @param radius R (m) of a round die, H/2 for a slit (for the Nahme number)
- * @param temperatureCoefficient b for this group's temperature (1/K), when heating is on
+ * @param temperatureCoefficient b for this group's temperature (1/K): given or fitted across temperatures
  */
 export function applyGroupMethods(
   group: ReductionGroup,
   sources: CurveSource[],
   geometry: "round" | "slit",
   radius: number,
-  opt: MethodOptions,
+  opt: ReduceOptions,
   temperatureCoefficient: { value: number; source: "given" | "fitted" } | null,
 ): { results: GroupMethodResults; warnings: Warning[] } {
   const results: GroupMethodResults = {};
@@ -111,9 +122,25 @@ export function applyGroupMethods(
     warnings.push(...r.warnings);
   }
   if (opt.transducer) {
-    const uP = pressureStandardUncertainty(opt.transducer);
-    const uTau = sources.map((s) => s.stressUncertainty(uP));
-    results.uncertainty = flowCurveUncertainty(rates, stresses, uTau, fc.map((f) => f.nPrime), fc.map((f) => f.shearRateWall), fc.map((f) => f.viscosity), geometry, opt.transducer.coverageFactor ?? DEFAULT_UNCERTAINTY_OPTIONS.coverageFactor);
+    const budget = uncertaintyBudget(
+      {
+        points: group.points.map((p) => ({ dieDiameter: p.dieDiameter, slitWidth: p.slitWidth, slitHeight: p.slitHeight, dieLength: p.dieLength, flowRate: p.flowRate, pressure: p.pressure, pressureStd: p.pressureStd })),
+        flowCurve: fc,
+        rerun: rerunGroup(group, geometry, opt),
+        geometry,
+        rabinowitsch: opt.rabinowitsch,
+        bagleyStressStandardError: fc.map((f) => {
+          const line = group.bagley.find((b) => b.shearRateApparent === f.shearRateApparent);
+          return opt.endCorrection === "bagley" && line && line.diesUsed >= 3 ? line.slopeStandardError / 2 : null;
+        }),
+        temperatureCoefficient: temperatureCoefficient?.value ?? null,
+      },
+      opt.transducer,
+      { ...(opt.transducer.coverageFactor !== undefined ? { coverageFactor: opt.transducer.coverageFactor } : {}), ...opt.uncertainty },
+    );
+    results.uncertaintyBudget = budget.rows;
+    results.uncertainty = budget.rows.map((r) => ({ wallShearStress: r.expanded.wallShearStress, shearRateWall: r.expanded.shearRateWall, viscosity: r.expanded.viscosity }));
+    warnings.push(...budget.warnings);
     warnings.push(...transducerWarnings(group.points.map((p) => p.pressure), opt.transducer, opt.transducer));
   }
   if (opt.heating) {
@@ -153,6 +180,31 @@ export function applyGroupMethods(
     warnings.push(...r.warnings);
   }
   return { results, warnings };
+}
+
+/**
+ * The group's reduction as a function of (perturbed) input points, for the uncertainty budget:
+ * the same pipeline and options, warnings dropped; null when the perturbed data cannot be reduced.
+ */
+function rerunGroup(group: ReductionGroup, geometry: "round" | "slit", opt: ReduceOptions): (points: BudgetPoint[], stressOnly?: boolean) => FlowCurveRow[] | null {
+  // the stresses do not depend on the smoother: the cheapest one serves when only they are read
+  const cheap: ReduceOptions = { ...opt, rabinowitsch: { ...opt.rabinowitsch, method: "difference" } };
+  return (points, stressOnly = false) => {
+    try {
+      const rows = points.map((p, i) => {
+        const m: Measurement =
+          geometry === "slit"
+            ? { slitWidth: p.slitWidth, slitHeight: p.slitHeight, dieLength: p.dieLength, flowRate: p.flowRate, pressure: p.pressure }
+            : { dieDiameter: p.dieDiameter, dieLength: p.dieLength, flowRate: p.flowRate, pressure: p.pressure };
+        return apparentPoint(m, i);
+      });
+      const slit = geometry === "slit" ? { width: geometricMean(rows.map((r) => r.slitWidth as number)), height: geometricMean(rows.map((r) => r.slitHeight as number)) } : undefined;
+      return reduceGroup(rows, group.temperature, stressOnly ? cheap : opt, slit).group.flowCurve;
+    } catch (e) {
+      if (e instanceof RheoError) return null;
+      throw e;
+    }
+  };
 }
 
 /**

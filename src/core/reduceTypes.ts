@@ -23,7 +23,10 @@ export interface Measurement {
   flowRate: number;
   /** measured pressure drop ΔP (includes entrance and exit losses), Pa */
   pressure: number;
-  /** standard deviation of the plateau pressure, Pa (a step read off a pressure–time trace) */
+  /**
+   * standard deviation of the plateau pressure, Pa (a step read off a pressure–time trace;
+   * optional, ≥ 0): the reading's own scatter, propagated by the uncertainty budget (uncertaintyBudget.ts)
+   */
   pressureStd?: number;
   /** melt temperature, K (optional; points without one form their own group) */
   temperature?: number;
@@ -76,6 +79,8 @@ export interface PointRow {
   dieLength: number;
   flowRate: number;
   pressure: number;
+  /** plateau standard deviation of the pressure, Pa (when given) */
+  pressureStd?: number;
   /** γ̇_a, 1/s */
   shearRateApparent: number;
   /** τ_w,app = ΔP·D/(4L) (ΔP·H/(2L) for a slit), Pa */

@@ -79,6 +79,9 @@ export const WARNING_CODES = Object.freeze({
   PRESSURE_EXACT_FIT: "caution",
   TRANSDUCER_LOW_READING: "caution",
   TRANSDUCER_OVER_RANGE: "serious",
+  UNCERTAINTY_NO_SCATTER: "caution",
+  UNCERTAINTY_TEMPERATURE_OMITTED: "info",
+  UNCERTAINTY_PARTIAL: "caution",
   MFR_APPARENT_POINT: "info",
   MFR_UNUSUAL_LOAD: "caution",
 
