@@ -102,6 +102,7 @@ export const WARNING_CODES = Object.freeze({
   PLAN_PRESSURE_LOW: "caution",
   PLAN_NO_TRANSDUCER_COVERS: "serious",
   PLAN_BARREL_CAPACITY_EXCEEDED: "serious",
+  PLAN_PRIOR_NOT_SHIFTED: "caution",
   LOT_NOTHING_COMPARED: "serious",
   LOT_POINTS_NOT_COMPARED: "info",
 

@@ -83,6 +83,7 @@ export const WARNING_CATALOG: Readonly<Record<WarningCode, WarningText>> = Objec
   PLAN_PRESSURE_NEAR_FULL_SCALE: { title: "Predicted pressure near full scale", description: "A planned step's predicted pressure is close to the transducer's full scale." },
   PLAN_PRESSURE_LOW: { title: "Predicted pressure low", description: "A planned step's predicted pressure is a small fraction of full scale." },
   PLAN_NO_TRANSDUCER_COVERS: { title: "No transducer covers the step", description: "No transducer of the list covers a planned step's predicted pressure." },
+  PLAN_PRIOR_NOT_SHIFTED: { title: "Prior at another temperature", description: "The prior viscosity belongs to another temperature than the test's and no shift law was given: it was used unshifted." },
   PLAN_BARREL_CAPACITY_EXCEEDED: { title: "Barrel too small for the plan", description: "The planned ladder needs more melt than one barrel filling holds." },
   LOT_NOTHING_COMPARED: { title: "Lot not compared", description: "No lot point lies in the reference's rate range." },
   LOT_POINTS_NOT_COMPARED: { title: "Lot points outside the reference", description: "Lot points outside the reference's rate range were not compared." },
