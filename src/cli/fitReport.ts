@@ -48,13 +48,14 @@ export function fitTopJson(report: FitReport): Record<string, unknown> {
   const constants =
     fit.law === "arrhenius"
       ? { activationEnergy: fit.activationEnergy, activationEnergyStandardError: fit.activationEnergyStandardError }
-      : { C1: fit.C1, C2: fit.C2, C1StandardError: fit.C1StandardError, C2StandardError: fit.C2StandardError };
+      : { C1: fit.C1, C2: fit.C2, C1StandardError: fit.C1StandardError, C2StandardError: fit.C2StandardError, C2Source: fit.C2Source, universalAtReference: fit.universalAtReference };
   return {
     shift: {
       law: fit.law,
       referenceTemperature: fit.referenceTemperature,
       ...constants,
-      factors: fit.factors.map((f) => ({ temperature: f.temperature, aT: f.aT })),
+      ...(fit.verticalShift ? { verticalShift: fit.verticalShift } : {}),
+      factors: fit.factors.map((f) => (fit.verticalShift ? { temperature: f.temperature, aT: f.aT, bT: f.bT } : { temperature: f.temperature, aT: f.aT })),
       dieDiameter,
       rmse: fit.rmse,
       converged: fit.converged,

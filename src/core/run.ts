@@ -18,6 +18,7 @@ import {
   type MasterCurve,
   type ShiftLaw,
   type TemperatureCurve,
+  type VerticalShift,
   type WlfShiftFit,
 } from "./temperature";
 import type { TraceSteps } from "./steps/traceSteps";
@@ -30,8 +31,12 @@ export interface FitRequest {
   compare?: readonly string[];
   /** rank the default models even when `compare` is not given (the summary and the workbook use it) */
   rank?: boolean;
-  /** temperature shift over the groups; referenceTemperature K, or null for the middle temperature */
-  shift?: { law: "arrhenius" | "wlf"; referenceTemperature: number | null };
+  /**
+   * temperature shift over the groups; referenceTemperature K, or null for the middle temperature;
+   * glassTransitionTemperature (K, WLF) converts the universal constants when C2 cannot be fitted;
+   * verticalShift applies b_T = ρ(T)T/(ρ_ref T_ref) (temperature/shiftFactors.ts)
+   */
+  shift?: { law: "arrhenius" | "wlf"; referenceTemperature: number | null; glassTransitionTemperature?: number; verticalShift?: VerticalShift };
 }
 
 /** The temperature shift of a run. */
@@ -98,13 +103,21 @@ export function shiftCurves(groups: readonly ReductionGroup[]): { curves: Temper
 /**
  * Fits a temperature shift law over the groups and reduces every point onto the master curve.
  * @param referenceTemperature K, or null for the middle measured temperature
+ * @param options WLF's glass transition temperature (K) and the optional vertical shift
  */
-export function shiftAcrossGroups(groups: readonly ReductionGroup[], law: "arrhenius" | "wlf", referenceTemperature: number | null): RunShift {
+export function shiftAcrossGroups(
+  groups: readonly ReductionGroup[],
+  law: "arrhenius" | "wlf",
+  referenceTemperature: number | null,
+  options: { glassTransitionTemperature?: number; verticalShift?: VerticalShift } = {},
+): RunShift {
   const { curves, dieDiameter } = shiftCurves(groups);
   const temps = curves.map((c) => c.temperature);
   const reference = referenceTemperature ?? (temps[temps.length >> 1] as number);
-  const fit = law === "arrhenius" ? fitArrheniusShift(curves, reference) : fitWlfShift(curves, reference);
-  const shiftLaw: ShiftLaw = fit.law === "arrhenius" ? { law: "arrhenius", referenceTemperature: reference, activationEnergy: fit.activationEnergy } : { law: "wlf", referenceTemperature: reference, C1: fit.C1, C2: fit.C2 };
+  const fit = law === "arrhenius" ? fitArrheniusShift(curves, reference, { verticalShift: options.verticalShift }) : fitWlfShift(curves, reference, options);
+  const vertical = options.verticalShift ? { verticalShift: options.verticalShift } : {};
+  const shiftLaw: ShiftLaw =
+    fit.law === "arrhenius" ? { law: "arrhenius", referenceTemperature: reference, activationEnergy: fit.activationEnergy, ...vertical } : { law: "wlf", referenceTemperature: reference, C1: fit.C1, C2: fit.C2, ...vertical };
   return { fit, law: shiftLaw, master: masterCurve(curves, shiftLaw), dieDiameter, referenceChoice: referenceTemperature === null ? "middle" : "given" };
 }
 
@@ -142,7 +155,11 @@ export function runReduction(measurements: Measurement[], options: Partial<Reduc
     result.groups.forEach((g, i) => warnings.push(...comparisonWarnings(g, run.comparisons?.[i] as GroupFits)));
   }
   if (fits.shift) {
-    run.shift = shiftAcrossGroups(result.groups, fits.shift.law, fits.shift.referenceTemperature);
+    const { glassTransitionTemperature, verticalShift } = fits.shift;
+    run.shift = shiftAcrossGroups(result.groups, fits.shift.law, fits.shift.referenceTemperature, {
+      ...(glassTransitionTemperature !== undefined ? { glassTransitionTemperature } : {}),
+      ...(verticalShift ? { verticalShift } : {}),
+    });
     warnings.push(...run.shift.fit.warnings.map((w) => scoped(w, "temperature shift")));
   }
   return run;

@@ -69,12 +69,20 @@ export const REDUCE_SETTINGS: readonly ReduceSettingSpec[] = Object.freeze<Reduc
   { key: "rabinowitschMethod", flag: "method", kind: { type: "choice", choices: RABINOWITSCH_METHODS }, section: "reduction" },
   { key: "rabinowitschDegree", flag: "degree", kind: { type: "count", min: 1, max: 3 }, section: "reduction" },
   { key: "rabinowitschWindow", flag: "window", kind: { type: "count", min: 3, max: 99 }, section: "reduction" },
+  { key: "slitEdgeCorrection", flag: "slit-edge", kind: { type: "switch" }, section: "reduction" },
   { key: "transducer", flag: "transducer", kind: { type: "spec" }, section: "checks" },
   { key: "transducerFullScale", flag: null, kind: { type: "quantity", quantity: "pressure", positive: true }, unit: "bar", section: "checks" },
   { key: "transducerAccuracy", flag: null, kind: { type: "quantity", quantity: "ratio", positive: true }, unit: "%", section: "checks" },
+  { key: "transducerZeroOffset", flag: "zero-offset", kind: { type: "quantity", quantity: "pressure", positive: false }, unit: "bar", section: "checks" },
+  { key: "transducerGainError", flag: "gain-error", kind: { type: "quantity", quantity: "ratio", positive: false }, unit: "%", section: "checks" },
+  { key: "dieBoreTolerance", flag: "bore-tolerance", kind: { type: "quantity", quantity: "length", positive: false }, unit: "mm", section: "checks" },
+  { key: "dieLengthTolerance", flag: "length-tolerance", kind: { type: "quantity", quantity: "length", positive: false }, unit: "mm", section: "checks" },
+  { key: "meltTemperatureTolerance", flag: "temperature-tolerance", kind: { type: "quantity", quantity: "temperatureDifference", positive: false }, unit: "K", section: "checks" },
+  { key: "pistonSpeedTolerance", flag: "speed-tolerance", kind: { type: "quantity", quantity: "ratio", positive: false }, unit: "%", section: "checks" },
   { key: "representativeRate", flag: "representative", kind: { type: "switch" }, section: "checks" },
   { key: "slip", flag: "slip", kind: { type: "switch" }, section: "checks" },
   { key: "extensional", flag: "extensional", kind: { type: "switch" }, section: "checks" },
+  { key: "cogswellShearRate", flag: "cogswell-rate", kind: { type: "choice", choices: ["apparent", "wall"] }, section: "checks" },
   { key: "pressureDependence", flag: "pressure", kind: { type: "switch" }, section: "checks" },
   { key: "heating", flag: "heating", kind: { type: "spec" }, section: "checks" },
   { key: "heatingDensity", flag: null, kind: { type: "quantity", quantity: "density", positive: true }, unit: "g/cm³", section: "checks" },
@@ -86,6 +94,8 @@ export const REDUCE_SETTINGS: readonly ReduceSettingSpec[] = Object.freeze<Reduc
   { key: "compare", flag: "compare", kind: { type: "models" }, section: "fits" },
   { key: "shift", flag: "shift", kind: { type: "choice", choices: ["none", "arrhenius", "wlf"] }, section: "fits" },
   { key: "referenceTemperature", flag: "tref", kind: { type: "quantity", quantity: "temperature", positive: true }, unit: "°C", section: "fits" },
+  { key: "glassTransitionTemperature", flag: "tg", kind: { type: "quantity", quantity: "temperature", positive: true }, unit: "°C", section: "fits" },
+  { key: "verticalShift", flag: "vertical-shift", kind: { type: "quantity", quantity: "inverseTemperature", positive: false }, unit: "1/K", section: "fits" },
   { key: "si", flag: "si", kind: { type: "switch" }, section: "input" },
 ]);
 
@@ -380,6 +390,7 @@ function buildRequest(
     fail(new RheoError("value", nameOfKey("rabinowitschWindow"), `must hold at least degree + 2 = ${(degree ?? DEFAULT_RABINOWITSCH_OPTIONS.degree) + 2} points so the local fit is smoothed, got ${window}`));
   }
   o.rabinowitsch = rab;
+  if (get<boolean>("slitEdgeCorrection")) o.slitEdgeCorrection = true;
   const barrel = get<number>("barrelDiameter");
   if (barrel !== undefined) input.barrelDiameter = barrel;
   const density = get<number>("density");
@@ -392,6 +403,27 @@ function buildRequest(
   for (const [key, option] of [["slip", "slip"], ["representativeRate", "representativeRate"], ["extensional", "extensional"], ["pressureDependence", "pressureDependence"]] as const) {
     if (get<boolean>(key)) o[option] = true;
   }
+  const cogswellRate = get<"apparent" | "wall">("cogswellShearRate");
+  if (cogswellRate !== undefined) {
+    if (!get<boolean>("extensional")) fail(new RheoError("value", nameOfKey("cogswellShearRate"), `sets the shear rate of the extensional analysis; give ${nameOfKey("extensional")} too`));
+    else o.extensional = { shearRate: cogswellRate };
+  }
+  // tolerances of the uncertainty budget (half-widths, zero or more)
+  const budget: NonNullable<ReduceOptions["uncertainty"]> = {};
+  for (const [key, option] of [
+    ["transducerZeroOffset", "zeroOffset"],
+    ["transducerGainError", "gainError"],
+    ["dieBoreTolerance", "dieBoreTolerance"],
+    ["dieLengthTolerance", "dieLengthTolerance"],
+    ["meltTemperatureTolerance", "meltTemperatureTolerance"],
+    ["pistonSpeedTolerance", "pistonSpeedTolerance"],
+  ] as const) {
+    const value = get<number>(key);
+    if (value === undefined) continue;
+    if (!(value >= 0)) fail(new RheoError("domain", nameOfKey(key), `is a tolerance (±) and must be zero or more, got ${value}`));
+    else budget[option] = value;
+  }
+  if (Object.keys(budget).length > 0) o.uncertainty = budget;
   const fullScale = get<number>("transducerFullScale");
   const accuracy = get<number>("transducerAccuracy");
   // the full scale switches the transducer check on; an accuracy alone (a form's default) is not used
@@ -438,11 +470,28 @@ function buildRequest(
   if (compare !== undefined) fits.compare = compare;
   const shift = get<string>("shift");
   const tref = get<number>("referenceTemperature");
+  const tg = get<number>("glassTransitionTemperature");
+  const vertical = get<number>("verticalShift");
   if (shift !== undefined && shift !== "none") {
     if (tref === undefined && src.requireReferenceTemperature) fail(new RheoError("missing", nameOfKey("referenceTemperature"), `is required with ${nameOfKey("shift")}, e.g. "210 C"`));
-    else fits.shift = { law: shift as "arrhenius" | "wlf", referenceTemperature: tref ?? null };
-  } else if (tref !== undefined && src.requireReferenceTemperature) {
-    fail(new RheoError("value", nameOfKey("referenceTemperature"), `is the reference temperature of ${nameOfKey("shift")}; give ${nameOfKey("shift")} arrhenius or wlf too`));
+    else {
+      fits.shift = { law: shift as "arrhenius" | "wlf", referenceTemperature: tref ?? null };
+      if (tg !== undefined) {
+        if (shift !== "wlf") fail(new RheoError("value", nameOfKey("glassTransitionTemperature"), `is used by the WLF shift only; give ${nameOfKey("shift")} wlf, or leave it out`));
+        else fits.shift.glassTransitionTemperature = tg;
+      }
+      if (vertical !== undefined) {
+        if (!(vertical >= 0)) fail(new RheoError("domain", nameOfKey("verticalShift"), `is the melt's volumetric expansion coefficient and must be zero or more, got ${vertical}`));
+        else fits.shift.verticalShift = { thermalExpansion: vertical };
+      }
+    }
+  } else {
+    if (tref !== undefined && src.requireReferenceTemperature) {
+      fail(new RheoError("value", nameOfKey("referenceTemperature"), `is the reference temperature of ${nameOfKey("shift")}; give ${nameOfKey("shift")} arrhenius or wlf too`));
+    }
+    for (const key of ["glassTransitionTemperature", "verticalShift"] as const) {
+      if (get<number>(key) !== undefined && src.requireReferenceTemperature) fail(new RheoError("value", nameOfKey(key), `belongs to the temperature shift; give ${nameOfKey("shift")} too`));
+    }
   }
   return { options: o, input, fits, steps };
 }

@@ -7,6 +7,7 @@
 import { DEFAULT_ORIFICE_OPTIONS } from "../core/orifice";
 import { DEFAULT_RABINOWITSCH_OPTIONS } from "../core/rabinowitsch";
 import { DEFAULT_UNCERTAINTY_OPTIONS } from "../core/uncertainty";
+import { DEFAULT_UNCERTAINTY_BUDGET_OPTIONS } from "../core/uncertaintyBudget";
 import { MODEL_IDS } from "../core/models";
 import { DEFAULT_FLOW_CURVE_MODELS } from "../core/flowCurveFits";
 import { REDUCE_SETTINGS } from "./reduceOptions";
@@ -111,6 +112,10 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
     label: "Points per local fit",
     help: `points per local fit (odd, at least 3; default ${DEFAULT_RABINOWITSCH_OPTIONS.window})`,
   },
+  slitEdgeCorrection: {
+    label: "Slit edge correction",
+    help: "slit dies: divide the true wall rate by the channel's Newtonian shape factor (finite width; 6.7 % at W/H = 10)",
+  },
   transducer: {
     label: "Pressure transducer",
     help: 'pressure transducer "full scale, accuracy", e.g. "1000 bar, 0.25 %": low-reading flags and ± columns (k = 2)',
@@ -123,6 +128,30 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
     label: "Transducer accuracy",
     help: "accuracy in % of full scale from the transducer's certificate; gives the ± columns (k = 2, about 95 %)",
   },
+  transducerZeroOffset: {
+    label: "Transducer zero offset (±)",
+    help: "± zero offset of the transducer, shared by every reading (default: the accuracy × full scale); cancels in the Bagley slope",
+  },
+  transducerGainError: {
+    label: "Transducer gain error (±)",
+    help: "± gain (span) error of the transducer in % of the reading, shared by every reading (default: the accuracy)",
+  },
+  dieBoreTolerance: {
+    label: "Die bore tolerance (±)",
+    help: `± tolerance of each die's bore (slit: gap and width) for the uncertainty budget (default ${DEFAULT_UNCERTAINTY_BUDGET_OPTIONS.dieBoreTolerance * 1e3} mm)`,
+  },
+  dieLengthTolerance: {
+    label: "Die length tolerance (±)",
+    help: `± tolerance of each die's length for the uncertainty budget (default ${DEFAULT_UNCERTAINTY_BUDGET_OPTIONS.dieLengthTolerance * 1e3} mm)`,
+  },
+  meltTemperatureTolerance: {
+    label: "Melt temperature tolerance (±)",
+    help: `± deviation of the melt from its set temperature, propagated through the shift law (default ${DEFAULT_UNCERTAINTY_BUDGET_OPTIONS.meltTemperatureTolerance} K)`,
+  },
+  pistonSpeedTolerance: {
+    label: "Piston speed tolerance (±)",
+    help: `± error of the flow rate (piston speed and barrel bore) in % (default ${DEFAULT_UNCERTAINTY_BUDGET_OPTIONS.pistonSpeedTolerance * 100} %)`,
+  },
   representativeRate: {
     label: "Representative-rate cross-check",
     help: "representative-rate (Schümmer) viscosity beside the Rabinowitsch result",
@@ -134,6 +163,14 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
   extensional: {
     label: "Extensional viscosity (Cogswell)",
     help: "Cogswell extensional viscosity and Trouton ratio from the entrance pressure",
+  },
+  cogswellShearRate: {
+    label: "Cogswell shear rate",
+    help: "shear rate of the Cogswell formulas: apparent (default, as Cogswell 1972) or wall (Rabinowitsch-corrected); the Trouton ratio is the same",
+    choiceHelp: {
+      apparent: "Apparent wall rate 4Q/(πR³) with the apparent viscosity, as in Cogswell's derivation (default).",
+      wall: "True (Rabinowitsch-corrected) wall rate with the true viscosity: extension rate higher and extensional viscosity lower by (3n′+1)/(4n′).",
+    },
   },
   pressureDependence: {
     label: "Pressure dependence",
@@ -157,7 +194,7 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
   },
   heatingTemperatureCoefficient: {
     label: "Temperature coefficient b",
-    help: "b = −d ln η/dT; leave empty to fit it across the temperatures of the data",
+    help: "b = −d ln aT/dT, the shift-law coefficient (Ea/(R·T²)); leave empty to fit it across the temperatures of the data",
   },
   meltFlowRate: {
     label: "Melt-flow-rate result",
@@ -183,6 +220,14 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
   referenceTemperature: {
     label: "Reference temperature",
     help: 'reference temperature of the shift, e.g. "210 C" or "483.15 K" (pane: empty = the middle temperature of the data)',
+  },
+  glassTransitionTemperature: {
+    label: "Glass transition temperature",
+    help: 'WLF: when the data cannot fit C2, hold it at the universal 51.6 K converted to the reference temperature with this Tg, e.g. "100 C"',
+  },
+  verticalShift: {
+    label: "Vertical shift (melt expansion)",
+    help: 'apply the vertical shift ρ(T)T/(ρref·Tref) to the viscosities, with the melt\'s volumetric expansion coefficient, e.g. "7e-4 1/K" (0: T/Tref only)',
   },
   si: {
     label: "Bare numbers are SI",

@@ -19,6 +19,7 @@ import { DEFAULT_REDUCE_OPTIONS } from "../core/reduceTypes";
 import type { RunSteps } from "../core/steps/runSteps";
 import { runsByGroup } from "../core/steps/groupSteps";
 import { stepNote } from "./stepRecord";
+import { UNCERTAINTY_SOURCES, type UncertaintySource } from "../core/uncertaintyBudget";
 
 /** One cell: a number in the column's unit, text, a flag, or null for an empty cell. */
 export type ResultCell = number | string | boolean | null;
@@ -170,18 +171,28 @@ function flowCurveTable(g: ReductionGroup): ResultTable {
   ];
   const rep = g.representativeRate;
   const unc = g.uncertainty;
-  if (rep) columns.push(num("shearRateRepresentative", "Representative rate", "1/s"), num("viscosityRepresentative", "Representative viscosity", "Pa·s"), num("representativeDeviation", "Representative vs Rabinowitsch", "%", 3));
+  if (rep) {
+    columns.push(
+      num("shearRateRepresentative", "Representative rate", "1/s"),
+      num("viscosityRepresentative", "Representative viscosity", "Pa·s"),
+      num("representativeDeviation", "Representative vs Rabinowitsch", "%", 3),
+      num("representativeExpectedDeviation", "Method's own bias at n′", "%", 3),
+      num("representativeDeviationCorrected", "Difference beyond the bias", "%", 3),
+    );
+  }
   if (unc) columns.push(num("wallShearStressUncertainty", "± wall shear stress (k = 2)", "kPa", 2), num("shearRateWallUncertainty", "± true wall rate (k = 2)", "1/s", 2), num("viscosityUncertainty", "± viscosity (k = 2)", "Pa·s", 2));
   const rows = g.flowCurve.map((f, i): ResultCell[] => {
     const row: ResultCell[] = [f.shearRateApparent, v(f.wallShearStress, KPA), v(f.nPrime), v(f.shearRateWall), v(f.viscosity), v(f.viscosityApparent)];
     const r = rep?.[i];
-    if (rep) row.push(v(r?.shearRateRepresentative), v(r?.viscosityRepresentative), v(r?.deviation, 100));
+    if (rep) row.push(v(r?.shearRateRepresentative), v(r?.viscosityRepresentative), v(r?.deviation, 100), v(r?.expectedDeviation, 100), v(r?.deviationCorrected, 100));
     const u = unc?.[i];
     if (unc) row.push(v(u?.wallShearStress, KPA), v(u?.shearRateWall), v(u?.viscosity));
     return row;
   });
   const notes: string[] = [];
   if (g.flowCurve.some((f) => f.shearRateWall === null)) notes.push("Empty true wall rate and viscosity: the smoothed slope n′ is not positive there, so no Rabinowitsch correction exists.");
+  if (g.slitShapeFactor !== undefined) notes.push(`Slit edge correction: true wall rates divided, viscosities multiplied, by the Newtonian shape factor ${Number(g.slitShapeFactor.toPrecision(4))}.`);
+  if (rep) notes.push("Representative rate: for a power law the method itself reads ((3n+1)/(4n))^n·(4/π)^(n−1) of the true viscosity; the last column is what is left once that is divided out.");
   return {
     id: "flowCurve",
     title: "Flow curve (Rabinowitsch-corrected)",
@@ -230,15 +241,75 @@ function viscosityModelTable(run: ReductionRun, g: ReductionGroup, i: number): R
   };
 }
 
+const SOURCE_HEADERS: Record<UncertaintySource, string> = {
+  zero: "Transducer zero",
+  gain: "Transducer gain",
+  scatter: "Reading scatter",
+  dieBore: "Die bore",
+  dieLength: "Die length",
+  pistonSpeed: "Piston speed",
+  temperature: "Melt temperature",
+};
+
+/** The uncertainty budget of the viscosity: each input's share, u_c and U (k = 2), relative, per point. */
+function uncertaintyBudgetTable(g: ReductionGroup): ResultTable | null {
+  const budget = g.uncertaintyBudget;
+  if (!budget) return null;
+  const sources = UNCERTAINTY_SOURCES.filter((src) => budget.some((r) => r.contributions.some((c) => c.source === src)));
+  const k = budget[0]?.coverageFactor ?? 2;
+  const rel = (x: number | null | undefined, of: number | null) => (x === null || x === undefined || of === null || !(of > 0) ? null : v((x / of) * 100));
+  return {
+    id: "uncertaintyBudget",
+    title: "Uncertainty budget of the viscosity",
+    scope: groupLabel(g),
+    columns: [
+      num("shearRateApparent", "Apparent shear rate", "1/s"),
+      num("viscosity", "Viscosity", "Pa·s"),
+      ...sources.map((src) => num(src, `u(η): ${SOURCE_HEADERS[src].toLowerCase()}`, "%", 2)),
+      num("combined", "u_c(η)", "%", 2),
+      num("expanded", `U(η), k = ${k}`, "%", 2),
+      num("expandedWallShearStress", `U(τ_w), k = ${k}`, "%", 2),
+      num("nPrimeUncertainty", "u(n′)", "", 2),
+    ],
+    rows: budget.map((r, i) => {
+      const f = g.flowCurve[i];
+      const eta = f?.viscosity ?? null;
+      return [
+        r.shearRateApparent,
+        v(eta),
+        ...sources.map((src) => rel(r.contributions.find((c) => c.source === src)?.viscosity, eta)),
+        rel(r.combined.viscosity, eta),
+        rel(r.expanded.viscosity, eta),
+        rel(r.expanded.wallShearStress, f?.wallShearStress ?? null),
+        v(r.combined.nPrime),
+      ];
+    }),
+    notes: [
+      "Standard uncertainties u of the viscosity at each point's apparent rate, in % of it, one column per input; u_c is their root sum of squares (inputs independent), U = k·u_c (about 95 %).",
+      "Transducer zero and gain are one error shared by every reading: the zero cancels in the Bagley slope. Each die's bore and length are independent. Every input passes through the smoother's n′.",
+    ],
+    keyColumns: ["shearRateApparent", "combined", "expanded"],
+  };
+}
+
 function entrancePressureTable(g: ReductionGroup): ResultTable | null {
   if (!g.entrancePressures) return null;
   return {
     id: "entrancePressures",
     title: "Entrance pressure: Bagley and orifice die",
     scope: groupLabel(g),
-    columns: [num("shearRateApparent", "Apparent shear rate", "1/s"), num("entrancePressure", "Bagley", "bar"), num("entrancePressureOrifice", "Orifice die", "bar"), num("difference", "Difference", "%", 3)],
-    rows: g.entrancePressures.map((e) => [e.shearRateApparent, v(e.entrancePressure, BAR), v(e.entrancePressureOrifice, BAR), v(e.difference, 100)]),
-    notes: ["Empty: that estimate does not exist at this rate (no Bagley line, or outside the orifice die's range)."],
+    columns: [
+      num("shearRateApparent", "Apparent shear rate", "1/s"),
+      num("entrancePressure", "Bagley", "bar"),
+      num("entrancePressureOrifice", "Orifice die, land removed", "bar"),
+      num("orificePressure", "Orifice die reading", "bar"),
+      num("difference", "Difference", "%", 3),
+    ],
+    rows: g.entrancePressures.map((e) => [e.shearRateApparent, v(e.entrancePressure, BAR), v(e.entrancePressureOrifice, BAR), v(e.orificePressure, BAR), v(e.difference, 100)]),
+    notes: [
+      "Empty: that estimate does not exist at this rate (no Bagley line, or outside the orifice die's range).",
+      "The orifice die's reading includes its own land; 2τ_w·L/R of the land is removed before the comparison.",
+    ],
   };
 }
 
@@ -249,14 +320,21 @@ function extensionalTable(g: ReductionGroup): ResultTable | null {
     title: "Extensional viscosity (Cogswell)",
     scope: groupLabel(g),
     columns: [
+      num("shearRateApparent", "Apparent shear rate", "1/s"),
       num("shearRateWall", "True wall shear rate", "1/s"),
+      num("shearRate", "Shear rate used", "1/s"),
       num("entrancePressure", "Entrance pressure", "bar"),
       num("tensileStress", "Tensile stress", "kPa"),
       num("extensionRate", "Extension rate", "1/s"),
       num("extensionalViscosity", "Extensional viscosity", "Pa·s"),
       num("troutonRatio", "Trouton ratio", "", 3),
     ],
-    rows: g.extensional.map((e) => [v(e.shearRateWall), v(e.entrancePressure, BAR), v(e.tensileStress, KPA), v(e.extensionRate), v(e.extensionalViscosity), v(e.troutonRatio)]),
+    rows: g.extensional.map((e) => [v(e.shearRateApparent), v(e.shearRateWall), v(e.shearRate), v(e.entrancePressure, BAR), v(e.tensileStress, KPA), v(e.extensionRate), v(e.extensionalViscosity), v(e.troutonRatio)]),
+    notes: [
+      g.extensional[0]?.shearRateBasis === "wall"
+        ? "Shear rate used: the true (Rabinowitsch-corrected) wall rate with the true viscosity."
+        : "Shear rate used: the apparent wall rate 4Q/(πR³) with the apparent viscosity, as in Cogswell's derivation. The Trouton ratio does not depend on the choice.",
+    ],
     keyColumns: ["extensionRate", "extensionalViscosity", "troutonRatio"],
   };
 }
@@ -268,9 +346,22 @@ function heatingTable(g: ReductionGroup): ResultTable | null {
     id: "heating",
     title: "Viscous heating",
     scope: groupLabel(g),
-    columns: [num("shearRateApparent", "Apparent shear rate", "1/s"), num("pressure", "Pressure", "bar"), num("adiabaticTemperatureRise", "Adiabatic rise", "K", 3), num("nahmeNumber", "Nahme–Griffith number", "", 3)],
-    rows: h.rows.map((r) => [r.shearRateApparent, v(r.pressure, BAR), v(r.adiabaticTemperatureRise), v(r.nahmeNumber)]),
-    notes: [`b = ${Number(h.temperatureCoefficient.toPrecision(3))} 1/K (${h.temperatureCoefficientSource}).`],
+    columns: [
+      num("shearRateApparent", "Apparent shear rate", "1/s"),
+      num("pressure", "Pressure", "bar"),
+      num("adiabaticTemperatureRise", "Adiabatic rise", "K", 3),
+      num("meanVelocity", "Mean velocity", "mm/s", 3),
+      num("nahmeGriffithNumber", "Nahme–Griffith number", "", 3),
+      num("brinkmanNumber", "Brinkman number", "", 3),
+      num("graetzNumber", "Graetz number", "", 3),
+      text("heatRegime", "Heat"),
+    ],
+    rows: h.rows.map((r) => [r.shearRateApparent, v(r.pressure, BAR), v(r.adiabaticTemperatureRise), v(r.meanVelocity, MM), v(r.nahmeGriffithNumber), v(r.brinkmanNumber), v(r.graetzNumber), r.heatRegime]),
+    notes: [
+      `b = ${Number(h.temperatureCoefficient.toPrecision(3))} 1/K (${h.temperatureCoefficientSource}).`,
+      "b is the shift-law (constant-stress) coefficient; the Nahme–Griffith number uses n′·b, the coefficient at the held rate.",
+      "Na = n′·b·η·V²/k: developed flow reads the viscosity low by about Na/2. Graetz number ≤ 5: heat conducted to the wall; above 50: kept in the melt (the adiabatic rise bounds it).",
+    ],
   };
 }
 
@@ -283,14 +374,32 @@ function pressureDependenceTable(g: ReductionGroup): ResultTable | null {
     scope: groupLabel(g),
     columns: [
       num("shearRateApparent", "Apparent shear rate", "1/s"),
-      num("pressureCoefficient", "β", "1/GPa", 3),
+      num("pressureCoefficientConstantStress", "β (constant stress)", "1/GPa", 3),
+      num("pressureCoefficientConstantStressStandardError", "± β (1 s.e.)", "1/GPa", 2),
+      num("pressureCoefficientConstantRate", "Curvature coefficient n′β", "1/GPa", 3),
+      num("nPrime", "n′", "", 3),
+      flag("significant", "Curvature beyond scatter"),
       num("wallShearStressAtZeroPressure", "Wall shear stress at p = 0", "kPa"),
       num("entrancePressure", "Entrance pressure", "bar"),
       num("logViscosityRise", "ln viscosity rise", "", 3),
       num("diesUsed", "Dies", ""),
     ],
-    rows: pd.rows.map((r) => [r.shearRateApparent, v(r.pressureCoefficient, 1e9), v(r.wallShearStressAtZeroPressure, KPA), v(r.entrancePressure, BAR), v(r.logViscosityRise), r.diesUsed]),
-    notes: [pd.pressureCoefficient === null ? "No median β: no rate had a converged curved fit." : `Median β = ${Number((pd.pressureCoefficient * 1e9).toPrecision(3))} 1/GPa.`],
+    rows: pd.rows.map((r) => [
+      r.shearRateApparent,
+      v(r.pressureCoefficientConstantStress, 1e9),
+      v(r.pressureCoefficientConstantStressStandardError, 1e9),
+      v(r.pressureCoefficientConstantRate, 1e9),
+      v(r.nPrime),
+      r.significant,
+      v(r.wallShearStressAtZeroPressure, KPA),
+      v(r.entrancePressure, BAR),
+      v(r.logViscosityRise),
+      r.diesUsed,
+    ]),
+    notes: [
+      pd.pressureCoefficientConstantStress === null ? "No median β: no rate had a converged curved fit with a positive n′." : `Median β at constant stress = ${Number((pd.pressureCoefficientConstantStress * 1e9).toPrecision(3))} 1/GPa (compare this one with literature values).`,
+      "The curvature of a Bagley line at a held flow rate measures n′·β; β = (n′β)/n′. Empty ± and curvature test: three dies fit the three parameters exactly.",
+    ],
   };
 }
 
@@ -304,13 +413,15 @@ function slipTable(run: ReductionRun): ResultTable | null {
       num("temperature", "Temperature", "°C"),
       num("wallShearStress", "Wall shear stress", "kPa"),
       num("slipVelocity", "Slip velocity", "mm/s", 3),
+      flag("slipApplied", "Slip corrected"),
       num("slipVelocityStandardError", "± slip velocity (1 s.e.)", "mm/s", 2),
       num("shearRateApparentCorrected", "Slip-corrected apparent rate", "1/s"),
       num("shearRateWall", "True wall shear rate", "1/s"),
       num("viscosity", "Viscosity", "Pa·s"),
       num("r2", "R²", "", 4),
     ],
-    rows: slip.map((s) => [celsius(s.temperature), v(s.wallShearStress, KPA), v(s.slipVelocity, MM), v(s.slipVelocityStandardError, MM), v(s.shearRateApparentCorrected), v(s.shearRateWall), v(s.viscosity), v(s.r2)]),
+    notes: slip.some((s) => !s.slipApplied) ? ["Not slip corrected: the fitted slip velocity is negative (no slip detectable); the corrected rate is the bores' mean."] : undefined,
+    rows: slip.map((s) => [celsius(s.temperature), v(s.wallShearStress, KPA), v(s.slipVelocity, MM), s.slipApplied, v(s.slipVelocityStandardError, MM), v(s.shearRateApparentCorrected), v(s.shearRateWall), v(s.viscosity), v(s.r2)]),
     keyColumns: ["wallShearStress", "slipVelocity", "viscosity"],
   };
 }
@@ -398,13 +509,18 @@ function shiftTable(run: ReductionRun): ResultTable | null {
   const notes =
     f.law === "arrhenius"
       ? [`Arrhenius: Ea = ${Number((f.activationEnergy / 1e3).toPrecision(4))} ± ${Number((f.activationEnergyStandardError / 1e3).toPrecision(2))} kJ/mol (1 s.e.).`]
-      : [`WLF: C1 = ${Number(f.C1.toPrecision(4))} ± ${Number(f.C1StandardError.toPrecision(2))}, C2 = ${Number(f.C2.toPrecision(4))} ± ${Number(f.C2StandardError.toPrecision(2))} K (1 s.e.).`];
+      : [
+          `WLF: C1 = ${Number(f.C1.toPrecision(4))} ± ${Number(f.C1StandardError.toPrecision(2))}, C2 = ${Number(f.C2.toPrecision(4))}${f.C2Source === "fitted" ? ` ± ${Number(f.C2StandardError.toPrecision(2))}` : ""} K (1 s.e.)${
+            f.C2Source === "universal" ? "; C2 held at the universal 51.6 K converted to the reference temperature" : f.C2Source === "held" ? "; C2 held" : ""
+          }.`,
+        ];
+  if (f.verticalShift) notes.push(`Vertical shift bT = ρ(T)T/(ρref·Tref) with a melt expansion coefficient of ${f.verticalShift.thermalExpansion} 1/K.`);
   notes.push(`Reference temperature ${Number((f.referenceTemperature - 273.15).toPrecision(5))} °C (${s.referenceChoice === "given" ? "given" : "the middle measured temperature"}); die diameter ${Number((s.dieDiameter * MM).toPrecision(4))} mm.`);
   return {
     id: "shift",
     title: `Temperature shift (${f.law === "arrhenius" ? "Arrhenius" : "WLF"})`,
-    columns: [num("temperature", "Temperature", "°C"), num("aT", "Shift factor aT", "", 4)],
-    rows: f.factors.map((x) => [celsius(x.temperature), v(x.aT)]),
+    columns: f.verticalShift ? [num("temperature", "Temperature", "°C"), num("aT", "Shift factor aT", "", 4), num("bT", "Vertical factor bT", "", 4)] : [num("temperature", "Temperature", "°C"), num("aT", "Shift factor aT", "", 4)],
+    rows: f.factors.map((x) => (f.verticalShift ? [celsius(x.temperature), v(x.aT), v(x.bT)] : [celsius(x.temperature), v(x.aT)])),
     notes,
   };
 }
@@ -466,7 +582,7 @@ export function resultTables(run: ReductionRun): ResultTable[] {
   run.result.groups.forEach((g, i) => {
     const runs = steps?.byGroup[i] ?? [];
     if (runs.length > 0) tables.push(stepsTable(runs, groupLabel(g)));
-    tables.push(bagleyTable(g), bagleyPointsTable(g), flowCurveTable(g), rabinowitschTable(g), viscosityModelTable(run, g, i), entrancePressureTable(g), extensionalTable(g), heatingTable(g), pressureDependenceTable(g));
+    tables.push(bagleyTable(g), bagleyPointsTable(g), flowCurveTable(g), uncertaintyBudgetTable(g), rabinowitschTable(g), viscosityModelTable(run, g, i), entrancePressureTable(g), extensionalTable(g), heatingTable(g), pressureDependenceTable(g));
   });
   if (steps && steps.unassigned.length > 0) tables.push({ ...stepsTable(steps.unassigned), title: "Steps of die runs with no point in the flow curve" });
   if (run.steps) tables.push(thermalChecksTable(run.steps.runs));
