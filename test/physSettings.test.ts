@@ -107,3 +107,32 @@ describe("rheoledger reduce --json: additive keys", () => {
     expect(g.heating.rows[0]).toEqual(expect.objectContaining({ nahmeNumber: expect.any(Number), nahmeGriffithNumber: expect.any(Number), graetzNumber: expect.any(Number) }));
   });
 });
+
+import { equationsUsed } from "../src/io/methodEquations";
+import { reduce, type Measurement } from "../src/core/reduce";
+
+describe("equationsUsed(inputs): the method record follows the geometry", () => {
+  // Newtonian slit data (plane Poiseuille: ΔP = 12μQL/(WH³)) with a constant entrance loss
+  const slit: Measurement[] = [10e-3, 20e-3, 40e-3].flatMap((L) =>
+    [10, 100].map((rate) => {
+      const Q = (rate * 10e-3 * 1e-6) / 6;
+      return { slitWidth: 10e-3, slitHeight: 1e-3, dieLength: L, flowRate: Q, pressure: 2e5 + (12 * 500 * Q * L) / (10e-3 * 1e-9) };
+    }),
+  );
+  test("a slit run states the slit formulas, not the round ones; the edge correction when applied", () => {
+    const result = reduce(slit, { slitEdgeCorrection: true });
+    const eq = equationsUsed({ result, endCorrection: "bagley", rabinowitschMethod: "transition", flowSource: "flow_rate", fittedModels: [], shiftLaw: null });
+    const formulas = eq.map((l) => l[1]).join(" | ");
+    expect(formulas).toContain("γ̇_a = 6Q/(W·H²)");
+    expect(formulas).toContain("τ_app = ΔP·H/(2L)");
+    expect(formulas).toContain("γ̇_w = γ̇_a·(2n' + 1)/(3n')");
+    expect(formulas).not.toContain("32Q/(π·D³)");
+    expect(eq.map((l) => l[0])).toContain("Slit edge correction");
+  });
+  test("a round run states the round formulas only", () => {
+    const result = reduce(slit.map(({ slitWidth: _w, slitHeight: _h, ...m }) => ({ ...m, dieDiameter: 1e-3 })));
+    const formulas = equationsUsed({ result, endCorrection: "bagley", rabinowitschMethod: "transition", flowSource: null, fittedModels: [], shiftLaw: null }).map((l) => l[1]).join(" | ");
+    expect(formulas).toContain("32Q/(π·D³)");
+    expect(formulas).not.toContain("6Q/(W·H²)");
+  });
+});
