@@ -41,9 +41,10 @@ const DEV_PORT = 3000;
  * copy of the core (docs/performance.md has the figures before and after). Since then the functions
  * read lab tables as the command line does (one decimal mark per table, row account, plausibility,
  * temperature set-points: +12 KB) and RHEO.PLATEAUS carries the step detection of pressure
- * recordings (src/core/steps: +21 KB).
+ * recordings (src/core/steps: +21 KB), and RHEO.REDUCE the uncertainty budget and the secondary
+ * corrections' new quantities (+23 KB).
  */
-const FUNCTIONS_BUDGET_BYTES = 215 * 1024;
+const FUNCTIONS_BUDGET_BYTES = 240 * 1024;
 /** The scripts the worksheet functions need, in load order (their sum is held to the budget). */
 const FUNCTIONS_SCRIPTS = ["runtime.js", "core.js", "functions.js"];
 

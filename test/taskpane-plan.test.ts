@@ -269,14 +269,19 @@ describe("optional checks and the temperature shift", () => {
     expect(run.warnings.map((w) => w.code)).not.toContain("TRANSDUCER_LOW_RANGE");
   });
 
-  test("± stress without end correction is k·u_P·D/(4L), u_P = a·FS/√3 (JCGM 100:2008 §4.3.7, rectangular; k = 2)", async () => {
+  test("± stress without end correction: the core budget's U (k = 2), whose zero-offset part is k·u_P·D/(4L), u_P = a·FS/√3 (JCGM 100:2008 §4.3.7)", async () => {
     const none = await runReduction({ cells: demo, columns: detectColumns(demo[0] ?? []), dies: [], sourceLabel: "x" }, { ...DEFAULT_PANE_SETTINGS, models: [], endCorrection: "none", transducerRangeBar: 1000, transducerAccuracyPercent: 0.25 });
     const plan = buildWorkbookPlan(none, META).results;
     const flow = findBlock(plan, "flow-1");
     const col = (flow.header ?? []).indexOf("± wall shear stress [kPa]");
     expect(col).toBe(7);
     const uP = (0.0025 * 1000e5) / Math.sqrt(3);
-    for (const row of flow.rows) expectClose(row[col] as number, (2 * uP * (1 / (4 * 30))) / 1e3, { rel: 1e-9 }); // D = 1 mm, longest L = 30 mm
+    const budget = none.result.groups[0]!.uncertaintyBudget!;
+    flow.rows.forEach((row, i) => {
+      expectClose(row[col] as number, budget[i]!.expanded.wallShearStress / 1e3, { rel: 1e-9 });
+      // on a single die the zero offset does not cancel: its share is u_P·D/(4L) (D = 1 mm, longest L = 30 mm)
+      expectClose(budget[i]!.contributions.find((c) => c.source === "zero")!.wallShearStress, uP / (4 * 30), { rel: 1e-9 });
+    });
   });
 
   test("the Schümmer column places τ_w/γ̇_a at (π/4)·γ̇_a (Schümmer & Worthoff 1978)", () => {

@@ -3,7 +3,8 @@
  * standard uncertainty u is carried to the readings it affects, the reduction (end correction)
  * is re-run on the moved readings, and the stresses' changes go through the smoother's
  * sensitivity matrix ∂n′_i/∂ln τ_j to n′, γ̇_w and η (numerical sensitivity coefficients, GUM
- * §5.1.3; one-sided steps of one standard uncertainty, 1e-4 in ln τ for the smoother).
+ * §5.1.3; steps of one standard uncertainty, 1e-4 in ln τ for the smoother; the readings are
+ * moved linearly, Δ = c·u, and the stresses' relative changes taken to first order).
  * Contributions of independent inputs add in quadrature; U = k·u_c, k = 2 (about 95 %). The
  * results are the uncertainties of τ_w, γ̇_w, η and n′ at each point's reported apparent rate,
  * i.e. of the flow curve there.
@@ -13,7 +14,7 @@
  *   in the Bagley slope and in the orifice difference, not in a single die's stress.
  * - transducer gain: one relative error shared by every reading (correlated). Every step of the
  *   reduction is homogeneous in pressure and the smoother sees ln τ shifted by a constant, so
- *   exactly u_r(τ_w) = u_r(η) = ln(1 + u_g), with n′ and γ̇_w unchanged.
+ *   exactly u_r(τ_w) = u_r(η) = u_g, with n′ and γ̇_w unchanged.
  * - scatter, independent per reading: the plateau standard deviation of each reading when given
  *   (Measurement.pressureStd), each reading moved in turn, so a reading shared by two rates
  *   (interpolation) counts with its correlation. Without plateau deviations: the Bagley line's own
@@ -28,8 +29,8 @@
  *   by 4δ/D: η ∝ D⁴ at a given pressure and flow rate (Hagen–Poiseuille).
  * - piston speed (flow rate; one relative error for every step) and melt temperature (the shift
  *   law multiplies the rate by a_T = exp(−b·ΔT), b the shift-law coefficient, E_a/(RT²) for
- *   Arrhenius): each reading is its die's pressure at the scaled rate, Δln ΔP = s·ln(1 + u_v) or
- *   s·b·u_T, so at the held rate τ_w moves by about n′ times the log of the rate scale.
+ *   Arrhenius): each reading is its die's pressure at the scaled rate, Δln ΔP = s·u_v or
+ *   s·b·u_T, so at the held rate τ_w moves by about n′ times the relative rate change.
  * Checked against a Monte Carlo propagation of distributions (JCGM 101:2008, GUM Supplement 1)
  * that simulates the instrument with every input drawn from its distribution, on two data sets,
  * in test/uncertaintyBudget.test.ts.
@@ -135,7 +136,7 @@ export interface BudgetInput {
   temperatureCoefficient: number | null;
 }
 
-/** Changes of one point's ln τ_w, ln γ̇_w, ln η and n′ caused by one input moved by its u. */
+/** Relative changes (first order) of one point's τ_w, γ̇_w and η, and the change of n′, caused by one input moved by its u. */
 type Delta = { lnTau: number; lnWall: number | null; lnEta: number | null; nPrime: number };
 
 /** d ln f/dn′ of the Rabinowitsch factor f: −1/(n′(3n′+1)) round, −1/(n′(2n′+1)) slit. */
@@ -202,7 +203,8 @@ export function uncertaintyBudget(input: BudgetInput, transducer: Transducer, op
       lost++;
       return null;
     }
-    return throughSmoother(run.map((c, j) => Math.log(c.wallShearStress) - Math.log((stressBase[j] as BudgetCurvePoint).wallShearStress)));
+    // first-order relative change (the end correction is linear in the readings)
+    return throughSmoother(run.map((c, j) => c.wallShearStress / (stressBase[j] as BudgetCurvePoint).wallShearStress - 1));
   };
   const propagate = (source: UncertaintySource, pressure: (p: BudgetPoint, k: number) => number) => {
     const d = readingsMoved(pressure);
@@ -210,8 +212,8 @@ export function uncertaintyBudget(input: BudgetInput, transducer: Transducer, op
   };
   const shape = readingShape(input.points, base, input.geometry);
   if (uZero > 0) propagate("zero", (p) => p.pressure + uZero);
-  // gain: every step is homogeneous in pressure, so exactly u_r(τ_w) = u_r(η) = ln(1 + u_g), n′ unchanged
-  if (uGain > 0) add("gain", base.map((b) => ({ lnTau: Math.log1p(uGain), lnWall: b.shearRateWall === null ? null : 0, lnEta: b.shearRateWall === null ? null : Math.log1p(uGain), nPrime: 0 })));
+  // gain: every step is homogeneous in pressure, so exactly u_r(τ_w) = u_r(η) = u_g, n′ unchanged
+  if (uGain > 0) add("gain", base.map((b) => ({ lnTau: uGain, lnWall: b.shearRateWall === null ? null : 0, lnEta: b.shearRateWall === null ? null : uGain, nPrime: 0 })));
 
   const withStd = input.points.some((p) => p.pressureStd !== undefined && p.pressureStd > 0);
   if (withStd) {
@@ -224,7 +226,7 @@ export function uncertaintyBudget(input: BudgetInput, transducer: Transducer, op
     add("scatter", base.map(() => ({ lnTau: 0, lnWall: 0, lnEta: 0, nPrime: 0 })));
     input.bagleyStressStandardError.forEach((se, j) => {
       if (se === null || !(se > 0)) return;
-      add("scatter", throughSmoother(base.map((b, i) => (i === j ? Math.log1p(se / b.wallShearStress) : 0))));
+      add("scatter", throughSmoother(base.map((b, i) => (i === j ? se / b.wallShearStress : 0))));
     });
   } else {
     warnings.push(
@@ -240,23 +242,23 @@ export function uncertaintyBudget(input: BudgetInput, transducer: Transducer, op
     if (uBore > 0) {
       // round: γ̇_a ∝ D⁻³, die pressure ∝ 1/D; slit gap: γ̇_a ∝ H⁻², die pressure ∝ 1/H
       const rateExponent = input.geometry === "slit" ? 2 : 3;
-      propagate("dieBore", (p, k) => (ofDie(p) ? p.pressure * Math.exp(-(rateExponent * (shape[k] as Shape).slope + (shape[k] as Shape).dieFraction) * Math.log1p(uBore / size(p))) : p.pressure));
+      propagate("dieBore", (p, k) => (ofDie(p) ? p.pressure * (1 - (rateExponent * (shape[k] as Shape).slope + (shape[k] as Shape).dieFraction) * (uBore / size(p))) : p.pressure));
       if (input.geometry === "slit") {
         // slit width: γ̇_a ∝ 1/W
-        propagate("dieBore", (p, k) => (ofDie(p) ? p.pressure * Math.exp(-(shape[k] as Shape).slope * Math.log1p(uBore / (p.slitWidth as number))) : p.pressure));
+        propagate("dieBore", (p, k) => (ofDie(p) ? p.pressure * (1 - (shape[k] as Shape).slope * (uBore / (p.slitWidth as number))) : p.pressure));
       }
     }
     if (uLength > 0) propagate("dieLength", (p, k) => (ofDie(p) ? p.pressure * (1 + (shape[k] as Shape).dieFraction * (uLength / p.dieLength)) : p.pressure));
   }
   // a common scale of the flow rate (speed), or of the rate by the temperature shift
   // (a_T = exp(−b·ΔT) multiplies the rate): each reading is its die's pressure at the scaled rate
-  if (uSpeed > 0) propagate("pistonSpeed", (p, k) => p.pressure * Math.exp((shape[k] as Shape).slope * Math.log1p(uSpeed)));
+  if (uSpeed > 0) propagate("pistonSpeed", (p, k) => p.pressure * (1 + (shape[k] as Shape).slope * uSpeed));
   if (uTemperature > 0) {
     const b = opt.temperatureCoefficient ?? input.temperatureCoefficient;
     if (b === null) {
       warnings.push(warning("UNCERTAINTY_TEMPERATURE_OMITTED", "The melt-temperature tolerance was not propagated: give the temperature coefficient b (or measure at two or more temperatures so it can be fitted)."));
     } else {
-      propagate("temperature", (p, k) => p.pressure * Math.exp((shape[k] as Shape).slope * b * uTemperature));
+      propagate("temperature", (p, k) => p.pressure * (1 + (shape[k] as Shape).slope * b * uTemperature));
     }
   }
   if (lost > 0) {
