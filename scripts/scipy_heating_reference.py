@@ -6,7 +6,7 @@ inlet temperature; solved with scipy.integrate.solve_bvp.
 Writes test/fixtures/scipy-heating.json. Run with Debian's python3 (python3-scipy):
     /usr/bin/python3 scripts/scipy_heating_reference.py
 
-Model (Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed. 2002, §10.4, with a
+Model (Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed. 2002, ch. 10, from memory, with a
 temperature-dependent viscosity): eta = eta_w exp(-b (T - T_w)); pressure gradient G gives
 tau(r) = G r / 2 and rate(r) = tau / eta(T(r)); energy k (1/r) d/dr(r dT/dr) = -tau * rate,
 dT/dr = 0 at the axis, T = T_w at the wall. With s = r/R and theta = b (T - T_w):

@@ -85,6 +85,7 @@ describe("Cogswell on the apparent rate (default) and on the true wall rate", ()
       expect(w.shearRateBasis).toBe("wall");
       expectClose(a.shearRate, a.shearRateApparent, { rel: 1e-15 });
       expectClose(w.shearRate, w.shearRateWall, { rel: 1e-15 });
+// @check cogswell | apparent and wall rate: same Trouton ratio (9(n+1)²ΔP²/(32τ²) = 35.28) and σ_E; ε̇ and η_E apart by (3n+1)/(4n), 5 rates | Cogswell, Polym. Eng. Sci. 12 (1972) 64; Rabinowitsch, Z. Phys. Chem. A145 (1929) 1 | rel 1e-6 | 25
       expectClose(a.troutonRatio, w.troutonRatio, { rel: 1e-9 });
       // Trouton = 9(n+1)²ΔP²/(32τ²) with ΔP_ent = 8τ: 9·1.96·64/32 = 35.28
       expectClose(a.troutonRatio, (9 * (n + 1) ** 2 * 64) / 32, { rel: 1e-6 });

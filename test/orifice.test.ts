@@ -71,6 +71,7 @@ describe("orifice core functions", () => {
 describe("orifice land subtraction", () => {
   test("orificeLandCorrection(10.5e6, 20, 1.4e6, 1.8): τ_w = 2.5e5 Pa, ΔP_ent = 0.5e6 Pa (by hand)", () => {
     const r = orificeLandCorrection(10.5e6, 20, 1.4e6, 1.8);
+    // @check orifice | two-die Bagley line: τ_w = ΔΔP/(2Δx) and ΔP_ent = ΔP_o − 2τ_w·x_o by hand | Bagley, J. Appl. Phys. 28 (1957) 624 | rel 1e-15 | 2
     expectClose(r.wallShearStress, 9.1e6 / 36.4, { rel: 1e-15 });
     expectClose(r.entrancePressure, 1.4e6 - 2 * (9.1e6 / 36.4) * 1.8, { rel: 1e-15 });
     expect(() => orificeLandCorrection(1e7, 20, 1e6, 20)).toThrow(/orificeLengthOverRadius: must be below the long die's \(20\)/);
@@ -84,6 +85,7 @@ describe("orifice land subtraction", () => {
       { shearRateApparent: RATES, pressure: orifice.map((m) => m.pressure), dieLength: 0.9e-3 },
     );
     r.rows.forEach((row) => {
+// @check orifice | L/D 0.9 orifice on Hagen–Poiseuille data: τ_w = μγ̇, the entrance loss and the orifice reading exact at 5 rates | Hagen–Poiseuille; Bagley, J. Appl. Phys. 28 (1957) 624 | rel 1e-12 | 15
       expectClose(row.wallShearStress, MU * row.shearRateApparent, { rel: 1e-12 });
       expectClose(row.entrancePressureOrifice, entrance(row.shearRateApparent), { rel: 1e-12 });
       expectClose(row.orificePressure, entrance(row.shearRateApparent) + 4 * MU * row.shearRateApparent * 0.9, { rel: 1e-12 });
@@ -92,6 +94,7 @@ describe("orifice land subtraction", () => {
       { dieDiameter: D, dieLength: 10e-3, shearRateApparent: RATES, pressure: long.map((m) => m.pressure) },
       { shearRateApparent: RATES, pressure: orifice.map((m) => m.pressure) },
     );
+// @check orifice | ignoring the land biases τ_w by −L_o/L (−9 %) at 5 rates | Hagen–Poiseuille; Bagley, J. Appl. Phys. 28 (1957) 624 | rel 1e-12 | 5
     blind.rows.forEach((row) => expectClose(row.wallShearStress / (MU * row.shearRateApparent), 1 - 0.9 / 10, { rel: 1e-12 }));
     expect(() => orificeCorrection({ dieDiameter: D, dieLength: 10e-3, shearRateApparent: [10], pressure: [1e7] }, { shearRateApparent: [10], pressure: [1e6], dieLength: 10e-3 })).toThrow(/orificeLength: must be shorter than the long die/);
   });
@@ -118,6 +121,7 @@ describe("orifice land subtraction", () => {
     const r = reduce(data, { endCorrection: "orifice", extensional: true });
     const g = r.groups[0]!;
     g.flowCurve.forEach((f) => expectClose(f.wallShearStress, MU * f.shearRateApparent, { rel: 1e-12 }));
+// @check orifice, reduceGroup | through reduce with the orifice correction: τ_w = μγ̇ and the land-free entrance loss handed to Cogswell, 5 rates | Hagen–Poiseuille; Bagley, J. Appl. Phys. 28 (1957) 624 | rel 1e-12 | 10
     g.extensional!.forEach((x) => expectClose(x.entrancePressure, entrance(x.shearRateApparent), { rel: 1e-12 }));
   });
   test("reduce, none: the entrance pressure handed to Cogswell pairs the longest die with the orifice", () => {

@@ -295,6 +295,7 @@ describe("the prior's temperature and the plan's caution", () => {
   const law = { law: "arrhenius" as const, referenceTemperature: 463.15, activationEnergy: Ea };
   const a = arrheniusShiftFactor(483.15, 463.15, Ea);
   test("shiftPriorViscosity: 1000 Pa·s at 190 °C is 584.2 Pa·s at 210 °C (Ea 50 kJ/mol); a power law gets K·a^n", () => {
+// @check priorViscosity | a prior moved by an Arrhenius shift, and a power law gaining a_T^n | Dealy & Wang, Melt Rheology (2013), ch. 4 (from memory) | rel 1e-13 | 3
     expectClose(shiftPriorViscosity(() => 1000, law, 463.15, 483.15)(10), 1000 * Math.exp((Ea / 8.314462618) * (1 / 483.15 - 1 / 463.15)), { rel: 1e-14 });
     expectClose(shiftPriorViscosity(() => 1000, law, 463.15, 483.15)(10), 584.2187, { rel: 1e-6 });
     expectClose(shiftPriorViscosity(powerLawViscosity(1e4, 0.4), law, 463.15, 483.15)(50), 1e4 * a ** 0.4 * 50 ** -0.6, { rel: 1e-13 });
@@ -302,6 +303,7 @@ describe("the prior's temperature and the plan's caution", () => {
   test("planTest shifts a prior with a law: the Newtonian pressures scale by a_T", () => {
     const plain = planTest(input({ viscosity: () => 800 }));
     const shifted = planTest(input({ viscosity: () => 800, priorTemperature: 463.15, testTemperature: 483.15, priorShift: law }));
+// @check planner, priorViscosity | shifted Newtonian prior: Hagen–Poiseuille pressures scale by a_T at 3 steps | Hagen–Poiseuille; Dealy & Wang, Melt Rheology (2013), ch. 4 (from memory) | rel 1e-6 | 3
     shifted.dies[0]!.steps.forEach((st, i) => expectClose(st.pressure, a * plain.dies[0]!.steps[i]!.pressure, { rel: 1e-6 }));
     expect(shifted.caution[0]).toBe(PLAN_CAUTION_PRESSURE);
     expect(shifted.caution[1]).toBe("The prior viscosity was shifted from 190 °C to the test's 210 °C (Arrhenius, Ea = 50 kJ/mol).");

@@ -104,6 +104,7 @@ describe("Barus fit against scipy curve_fit", () => {
       expect(f.converged).toBe(true);
       expect(f.degreesOfFreedom).toBe(1);
       // curve_fit stops on its own tolerances: agreement to 1e-6 of the value, or of the standard error where β is noise
+// @check pressureDependence | Barus fit of a Bagley line (β_γ, τ_0, ΔP_ent), 3 data sets × 5 rates | scipy.optimize.curve_fit (scripts/scipy_barus_reference.py) | rel 1e-6 | 45
       expectClose(f.pressureCoefficient, l.fit.betaRate, { rel: 1e-6, abs: 1e-3 * l.fit.seBetaRate }, `β_γ at ${l.shearRateApparent}`);
       expectClose(f.wallShearStressAtZeroPressure, l.fit.tau0, { rel: 1e-6 }, `τ0 at ${l.shearRateApparent}`);
       expectClose(f.entrancePressure, l.fit.entrancePressure, { rel: 1e-6 }, `ΔP_ent at ${l.shearRateApparent}`);
@@ -113,6 +114,7 @@ describe("Barus fit against scipy curve_fit", () => {
     for (const l of set("cross-noisy").lines) {
       const f = fitBarusBagley(set("cross-noisy").lengthOverRadius, l.pressure);
       // scipy's Jacobian is a forward difference: its covariance is good to ~1e-4
+// @check pressureDependence | standard errors s²(JᵀJ)⁻¹ of β_γ, τ_0 and ΔP_ent, 5 rates | scipy.optimize.curve_fit pcov (scripts/scipy_barus_reference.py) | rel 2e-3 | 15
       expectClose(f.pressureCoefficientStandardError as number, l.fit.seBetaRate, { rel: 2e-3 }, `SE β at ${l.shearRateApparent}`);
       expectClose(f.wallShearStressAtZeroPressureStandardError as number, l.fit.seTau0, { rel: 2e-3 }, `SE τ0 at ${l.shearRateApparent}`);
       expectClose(f.entrancePressureStandardError as number, l.fit.seEntrancePressure, { rel: 2e-3 }, `SE ΔP_ent at ${l.shearRateApparent}`);
@@ -125,6 +127,7 @@ describe("constant-rate and constant-stress coefficients", () => {
     const pd = reduce(measurements("power-law"), { pressureDependence: true }).groups[0]!.pressureDependence!;
     expect(pd.rows).toHaveLength(5);
     pd.rows.forEach((r) => {
+// @check pressureDependence, reduceMethods | power law with time–pressure superposition: curvature n·β and β back, 5 rates | scipy solve_ivp die pressures (scripts/scipy_barus_reference.py); Laun, Rheol. Acta 43 (2004) 509 (from memory) | rel 1e-5 | 10
       expectClose(r.pressureCoefficientConstantRate, 0.35 * 15e-9, { rel: 1e-6 });
       expect(r.pressureCoefficient).toBe(r.pressureCoefficientConstantRate);
       expectClose(r.nPrime as number, 0.35, { rel: 1e-6 });
@@ -135,6 +138,7 @@ describe("constant-rate and constant-stress coefficients", () => {
   test("Cross liquid: β_γ/n′ is β within 0.4 % with the exact n′ (local power law along the die)", () => {
     const d = set("cross");
     const pd = reduce(measurements("cross"), { pressureDependence: true }).groups[0]!.pressureDependence!;
+// @check pressureDependence | Cross liquid: β_γ/n′ = β within 0.4 % at 5 rates | scipy solve_ivp die pressures (scripts/scipy_barus_reference.py) | rel 4e-3 | 5
     pd.rows.forEach((r, i) => expectClose(r.pressureCoefficientConstantRate / d.lines[i]!.nPrimeAtZeroPressure, 15e-9, { rel: 0.004 }, `β at ${r.shearRateApparent}`));
   });
   test("Cross liquid through reduce: β within 7 %, limited by n′ of five rates over two decades (6 % at the ends)", () => {

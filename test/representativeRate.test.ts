@@ -39,6 +39,7 @@ describe("representativeRateCheck against the exact power-law ratio", () => {
     });
   }
   test("representativeRateBias(n) is that ratio; with n′ given the bias is divided out and nothing is flagged", () => {
+// @check representativeRate | the method's own power-law ratio at n = 0.5, 0.15, 0.2 and 1 | Schümmer & Worthoff, Chem. Eng. Sci. 33 (1978) 759 (from memory); Rabinowitsch, Z. Phys. Chem. A145 (1929) 1 | rel 1e-14 | 4
     expectClose(representativeRateBias(0.5), 0.9908318244015027, { rel: 1e-14 });
     expectClose(representativeRateBias(0.15), 0.9296273919361291, { rel: 1e-14 });
     // n = 0.2: 2^0.2·(4/π)^(−0.8) = 0.94690 (the −5 % of the review that asked for the correction)
@@ -84,6 +85,7 @@ describe("reduce(…, { representativeRate: true }) on a very shear-thinning pow
     const rows = r.groups[0]!.representativeRate!.filter((x) => x.deviation !== null);
     expect(rows.length).toBeGreaterThanOrEqual(4);
     rows.forEach((x) => {
+// @check representativeRate, reduceMethods | through reduce, power law n = 0.2: raw deviation −5.3 % and bias-corrected 0 at ≥ 4 rates | Schümmer & Worthoff, Chem. Eng. Sci. 33 (1978) 759 (from memory) | abs 2e-3 | 8
       expectClose(x.deviation as number, representativeRateBias(n) - 1, { abs: 2e-3 });
       expectClose(x.deviationCorrected as number, 0, { abs: 2e-3 });
     });

@@ -132,7 +132,7 @@ describe("readRawTable() with slit_width and slit_height", () => {
 
 /**
  * Finite width: Newtonian flow in a rectangular duct, Q = (WH³ΔP/(12μL))·F (Boussinesq series;
- * White, Viscous Fluid Flow, eq. 3-48). Check values: the Poiseuille numbers f·Re of rectangular
+ * White, Viscous Fluid Flow, ch. 3, from memory). Check values: the Poiseuille numbers f·Re of rectangular
  * ducts (Shah & London, Laminar Flow Forced Convection in Ducts, 1978; from memory), which give F
  * through f·Re = 24/((1 + α)²·F), α = H/W (D_h = 2WH/(W + H)).
  */
@@ -144,6 +144,7 @@ describe("slit shape factor and edge correction", () => {
     [0.125, 20.585],
     [0.1, 21.169],
   ])("α = H/W = %f: f·Re = %f (Shah & London 1978)", (alpha, fRe) => {
+// @check slitFlow | Newtonian shape factor of a rectangular duct through its Poiseuille number f·Re, 5 aspect ratios | Shah & London, Laminar Flow Forced Convection in Ducts (1978) (from memory) | rel 1e-4 | 5
     expectClose(24 / ((1 + alpha) ** 2 * slitShapeFactor(1, alpha)), fRe, { rel: 1e-4 });
   });
   test("F → 1 for wide slits; bad sizes are refused", () => {
@@ -163,6 +164,7 @@ describe("slit shape factor and edge correction", () => {
   );
   test("uncorrected, a 5:1 slit overstates η by 1/F − 1 = 14 % and says so (SLIT_NARROW)", () => {
     const r = reduce(duct);
+// @check slit, slitFlow | a 5:1 Newtonian duct read as parallel plates overstates η by 1/F, 4 rates | White, Viscous Fluid Flow (1974), ch. 3 (from memory) | rel 1e-6 | 4
     r.groups[0]!.flowCurve.forEach((f) => expectClose(f.viscosity as number, mu / F, { rel: 1e-6 }));
     const narrow = r.warnings.find((x) => x.code === "SLIT_NARROW")!;
     expect(narrow.message).toMatch(/understate the wall rate and overstate the viscosity \(by about 14 %/);
@@ -173,6 +175,7 @@ describe("slit shape factor and edge correction", () => {
     const g = r.groups[0]!;
     expectClose(g.slitShapeFactor as number, F, { rel: 1e-15 });
     g.flowCurve.forEach((f, i) => {
+// @check slit, reduceMethods | edge correction: η = μ of the 5:1 Newtonian duct at 4 rates | White, Viscous Fluid Flow (1974), ch. 3 (from memory) | rel 1e-6 | 4
       expectClose(f.viscosity as number, mu, { rel: 1e-6 });
       expect(f.shearRateApparent).toBe(plain.flowCurve[i]!.shearRateApparent);
       expect(f.wallShearStress).toBe(plain.flowCurve[i]!.wallShearStress);

@@ -154,6 +154,7 @@ describe("wlfConstantsAtReference(T_ref, T_g)", () => {
     expectClose(c.C2, 151.6, { rel: 1e-14 });
     expectClose(c.C1, (17.44 * 51.6) / 151.6, { rel: 1e-14 });
     for (const T of [393.15, 453.15, 473.15, 533.15]) {
+// @check temperature/shiftFactors | universal WLF constants moved from T_g to T_ref give the same a_T at 4 temperatures | Williams, Landel & Ferry, J. Am. Chem. Soc. 77 (1955) 3701; Ferry, Viscoelastic Properties of Polymers (1980), ch. 11 (from memory) | rel 1e-12 | 4
       expectClose(wlfShiftFactor(T, 473.15, c.C1, c.C2), wlfShiftFactor(T, 373.15, 17.44, 51.6) / wlfShiftFactor(473.15, 373.15, 17.44, 51.6), { rel: 1e-12 });
     }
     expect(() => wlfConstantsAtReference(300, 373.15)).toThrow(/^glassTransitionTemperature: must be below T_ref \+ 51.6 K/);
@@ -181,6 +182,7 @@ describe("vertical shift factor", () => {
   });
   test("the fit with the vertical shift recovers Ea; the master curve collapses onto η_ref", () => {
     const fit = fitArrheniusShift(curves, 473.15, { verticalShift: { thermalExpansion: alpha } });
+// @check temperature/fitShift, temperature/masterCurve | curves built with the vertical factor ρ(T)T/(ρ_ref T_ref): Ea back only when the fit divides it out | Ferry, Viscoelastic Properties of Polymers (1980), ch. 11 (from memory) | rel 1e-7 | 1
     expectClose(fit.activationEnergy, Ea, { rel: 1e-7 });
     fit.factors.forEach((f) => expectClose(f.bT, verticalShiftFactor(f.temperature, 473.15, alpha), { rel: 1e-14 }));
     const master = masterCurve(curves, fit);

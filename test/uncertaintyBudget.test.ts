@@ -35,6 +35,7 @@ describe("single die, no end correction: the budget by hand", () => {
       const f = g.flowCurve[i]!;
       const c = contribution(row, "dieBore")!;
       const lr = (4 * uBore) / D;
+// @check uncertaintyBudget | bore sensitivity of one Newtonian die: τ_w and η ∝ D⁴ at the reported rate, 5 rates | Hagen–Poiseuille; JCGM 100:2008 (GUM), 5.1 | rel 1e-6 | 10
       expectClose(c.wallShearStress, f.wallShearStress * lr, { rel: 1e-6 });
       expect(c.shearRateWall as number).toBeLessThan(1e-9 * (f.shearRateWall as number));
       expectClose(c.viscosity as number, (f.viscosity as number) * lr, { rel: 1e-6 });
@@ -106,7 +107,7 @@ describe("Bagley: the zero offset cancels, the line's scatter is the random part
  * reading's scatter (normal, its plateau standard deviation) — and reduced with the nominal inputs.
  * The standard deviation of each output is compared with the budget's u_c (within 10 %; M = 2000
  * draws estimate a standard deviation to 1.6 %), and the GUM interval y ± U with the Monte Carlo
- * 95 % probabilistically symmetric interval (JCGM 101 §7.7) by the validation of §8: both endpoint
+ * 95 % probabilistically symmetric interval (JCGM 101 §7.7; clause numbers from memory) by the validation of §8: both endpoint
  * differences within δ = ½·10^l, u_c = c·10^l with one significant digit (n_dig = 1, §8.2), plus
  * twice the numerical standard deviation of the Monte Carlo endpoints themselves, estimated from
  * h = 10 blocks of M/h draws (§7.9.4: M = 2000 does not fix the endpoints to δ). The share of draws
@@ -199,6 +200,7 @@ function checkAgainstMonteCarlo(s: Scenario, trials: number, seed: number) {
     const f = group.flowCurve[i]!;
     const sm = samples[i]!;
     // standard deviations: M draws give a relative standard error of 1/√(2M) on each (1.6 % at M = 2000)
+// @check uncertaintyBudget | combined u of η, τ_w and γ̇_w against a Monte Carlo simulation of the instrument (M = 2000), 7 and 8 rates | JCGM 101:2008 (GUM Supplement 1) | rel 0.1 | 45
     expectClose(std(sm.eta), row.combined.viscosity as number, { rel: 0.1 }, `u(η) at ${f.shearRateApparent} 1/s`);
     expectClose(std(sm.tau), row.combined.wallShearStress, { rel: 0.1 }, `u(τ) at ${f.shearRateApparent} 1/s`);
     expectClose(std(sm.wall), row.combined.shearRateWall as number, { rel: 0.1, abs: 1e-3 * (f.shearRateWall as number) }, `u(γ̇w) at ${f.shearRateApparent} 1/s`);

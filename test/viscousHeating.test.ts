@@ -33,13 +33,15 @@ describe("heating formulas by hand", () => {
   });
   // Q = V·πR² and γ̇_a = 4Q/(πR³) give V = γ̇_a·R/4; a slit's Q = V·WH and γ̇_a = 6Q/(WH²) give V = γ̇_a·H/6
   test("meanVelocity: γ̇_a·R/4 round, γ̇_a·H/6 slit", () => {
+// @check viscousHeating | mean velocity from the apparent rate, round and slit | Hagen–Poiseuille and plane Poiseuille flow (Bird, Stewart & Lightfoot 2002, ch. 2, from memory) | rel 1e-15 | 2
     expectClose(meanVelocity(400, 0.5e-3), 0.05, { rel: 1e-15 });
     expectClose(meanVelocity(600, 1e-3, "slit"), 0.1, { rel: 1e-15 });
   });
-  // Na = n′·b·η·V²/k (Bird, Armstrong & Hassager 1987, vol. 1, §4.4, from memory; b_γ = n′·b):
+  // Na = n′·b·η·V²/k (Bird, Armstrong & Hassager 1987, vol. 1, ch. 4, from memory; b_γ = n′·b):
   // 1·0.03·1000·0.05²/0.2 = 0.375; Br = ηV²/(kΔT) = 1000·0.0025/0.2 = 12.5;
   // Gz = ρc_pVR²/(kL) = 750·2500·0.05·0.25e-6/(0.2·0.02) = 5.859375
   test("Nahme–Griffith, Brinkman and Graetz numbers by hand", () => {
+// @check viscousHeating | Nahme–Griffith, Brinkman and Graetz numbers by hand | Bird, Armstrong & Hassager, Dynamics of Polymeric Liquids vol. 1 (1987), ch. 4 (from memory); Winter, Adv. Heat Transfer 13 (1977) 205 (from memory) | rel 1e-14 | 4
     expectClose(nahmeGriffithNumber(0.03, 1, 1000, 0.05, 0.2), 0.375, { rel: 1e-14 });
     expectClose(nahmeGriffithNumber(0.03, 0.4, 1000, 0.05, 0.2), 0.15, { rel: 1e-14 });
     expectClose(brinkmanNumber(1000, 0.05, 0.2, 1), 12.5, { rel: 1e-14 });
@@ -59,6 +61,7 @@ describe("Na/2: the viscosity error of developed flow (against solve_bvp)", () =
     const na = nahmeGriffithNumber(b, 1, eta, c.meanVelocity, k);
     const drop = 1 - c.apparentViscosity / eta;
     // first order in Na: the error of Na/2 grows as Na² (3 % of it at Na = 0.05, 5.3 % at 0.11, 11 % at 0.25)
+// @check viscousHeating | viscosity error ≈ Na/2 and axis rise ≈ ηV²/k of developed heated pipe flow, 5 cases | scipy solve_bvp (scripts/scipy_heating_reference.py); Bird, Stewart & Lightfoot 2002, ch. 10 (from memory) | rel 0.5·Na | 10
     expectClose(drop, na / 2, { rel: 0.5 * na });
     expectClose(c.axisTemperatureRise, (eta * c.meanVelocity ** 2) / k, { rel: 0.25 * na });
   });

@@ -6,7 +6,7 @@
  * order 10–40 GPa⁻¹ for common melts; from memory): η(γ̇, p) = a_p·η_0(a_p·γ̇). In a round die at a
  * held flow rate the wall stress is then τ_w(γ̇_a, p) = τ_w0(a_p·γ̇_a) ≈ τ_0·exp(n′β·p), n′ the
  * local slope d ln τ_w/d ln γ̇_a, so the coefficient seen at constant rate is β_γ = n′·β
- * (Laun, Rheol. Acta 43 (2004) 509; Dealy & Wang 2013, §6.7; from memory). The force balance
+ * (Laun, Rheol. Acta 43 (2004) 509; Dealy & Wang 2013; from memory). The force balance
  * dp/dz = −(2/R)·τ_0·exp(β_γ·p), integrated from the exit (p = 0), gives the die's pressure
  * (Duvdevani & Klein, SPE J. 23 (1967) 41):
  *

@@ -130,7 +130,7 @@ export function powerLawFromMeltFlow(point: MeltFlowPoint): { K: number; n: numb
 
 /**
  * A prior viscosity moved from the temperature it belongs to, T_prior, to the test's, T_test, by
- * time–temperature superposition (Dealy & Wang, Melt Rheology (2013), ch. 4):
+ * time–temperature superposition (Dealy & Wang, Melt Rheology (2013), ch. 4, from memory):
  * η_test(γ̇) = a·b·η_prior(a·γ̇) with a = a_T(T_test)/a_T(T_prior) of the law (and b the ratio of
  * its vertical factors, 1 without a vertical shift).
  * @param temperatures T_prior and T_test, K

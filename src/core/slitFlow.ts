@@ -10,7 +10,7 @@
  *
  * Finite width: a rectangular channel carries less than the parallel-plate flow at the same
  * pressure gradient. For a Newtonian liquid (Boussinesq's series; White, Viscous Fluid Flow,
- * eq. 3-48; Shah & London 1978)
+ * ch. 3; Shah & London 1978; from memory)
  *   Q = (W·H³·ΔP/(12·μ·L))·F,   F = 1 − (192/π⁵)(H/W) Σ_{i odd} tanh(iπW/(2H))/i⁵,
  * so 6Q/(WH²) is F times the wall rate of the plates, and the plates' formulas overstate the
  * viscosity by 1/F − 1 (6.7 % at W/H = 10, 14 % at W/H = 5). {@link slitShapeFactor} gives F.

@@ -7,7 +7,7 @@
  * - A transducer accuracy "±a of full scale" with no stated confidence is read as a rectangular
  *   distribution: u_P = a·FS/√3 (JCGM 100:2008 "GUM", §4.3.7).
  * - Bagley wall stress τ_w = slope/2 of ΔP vs x (x = L/R or L/H): with independent readings of
- *   standard uncertainty u_P the slope's is u_P/√Sxx, Sxx = Σ(x − x̄)² (Draper & Smith 1998, §1.4);
+ *   standard uncertainty u_P the slope's is u_P/√Sxx, Sxx = Σ(x − x̄)² (Draper & Smith 1998, ch. 1, from memory);
  *   the fit's standard error is added in quadrature: u(τ_w) = ½·√(u_P²/Sxx + SE_slope²).
  */
 import { RheoError, Warning, requirePositive, warning } from "./errors";

@@ -1,6 +1,6 @@
 /**
  * Viscous heating in the die (Winter, Adv. Heat Transfer 13 (1977) 205; Bird, Armstrong &
- * Hassager 1987, vol. 1, §4.4; Macosko 1994, §6.2.5; Dealy & Wang 2013, §6.6).
+ * Hassager 1987, vol. 1, ch. 4; Macosko 1994, ch. 6; Dealy & Wang 2013; all from memory).
  *
  * - Adiabatic temperature rise: all the pressure work heats the melt passing the die,
  *   ΔT_ad = ΔP/(ρ·c_p). It bounds the mean rise at the exit from above (the wall conducts heat
@@ -8,7 +8,7 @@
  * - Mean velocity V = Q/A: γ̇_a·R/4 in a round die (γ̇_a = 4V/R), γ̇_a·H/6 in a slit (γ̇_a = 6V/H).
  * - Nahme–Griffith number Na = b_γ·η·V²/k: the viscosity change caused by the temperature scale of
  *   dissipation, ηV²/k (the axis rise of developed Newtonian pipe flow with the wall held at the
- *   melt temperature; Bird, Stewart & Lightfoot 2002, §10.4). b_γ = −(∂ ln η/∂T) at the held rate
+ *   melt temperature; Bird, Stewart & Lightfoot 2002, ch. 10, from memory). b_γ = −(∂ ln η/∂T) at the held rate
  *   is n′ times the shift-law (constant-stress) coefficient b: b_γ = n′·b (a_T multiplies the rate,
  *   τ ∝ a_T^n′ at a held rate). To first order the apparent viscosity of developed flow then reads
  *   low by Na/2 (derived in docs/methods.md; solve_bvp check in test/fixtures/scipy-heating.json:
@@ -17,7 +17,7 @@
  *   difference ΔT_ref, here the temperature deviation the test tolerates (option).
  * - Graetz number Gz = ρ·c_p·V·R²/(k·L) (R → H/2 for a slit): the time to conduct heat across the
  *   die over the residence time. The thermal entry length of laminar pipe flow is about
- *   0.05·Pe·D (Incropera & DeWitt, Fundamentals of Heat and Mass Transfer, §8.3), i.e. the
+ *   0.05·Pe·D (Incropera & DeWitt, Fundamentals of Heat and Mass Transfer, ch. 8, from memory), i.e. the
  *   temperature profile is developed and heat conducted away when Gz ≤ 5; with Gz ≫ 5 the heat
  *   stays in the melt (adiabatic limit, ΔT_ad governs).
  * - With a shift law, b follows from it: Arrhenius b = E_a/(R_gas·T²); WLF
@@ -50,7 +50,7 @@ export interface HeatingOptions {
   maxNahme: number;
   /** ΔT_ref of the Brinkman number: the melt-temperature deviation the test tolerates, K (common practice, no source) */
   brinkmanTemperatureDifference: number;
-  /** Gz at or below this: heat conducted away, profile developed (thermal entry length 0.05·Pe·D; Incropera & DeWitt, §8.3) */
+  /** Gz at or below this: heat conducted away, profile developed (thermal entry length 0.05·Pe·D; Incropera & DeWitt, ch. 8, from memory) */
   conductedGraetz: number;
   /** Gz above this: heat kept in the melt, the adiabatic limit (a tenth of the entry length; common practice, no source) */
   adiabaticGraetz: number;

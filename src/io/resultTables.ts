@@ -354,9 +354,8 @@ function heatingTable(g: ReductionGroup): ResultTable | null {
       num("nahmeGriffithNumber", "Nahme–Griffith number", "", 3),
       num("brinkmanNumber", "Brinkman number", "", 3),
       num("graetzNumber", "Graetz number", "", 3),
-      text("heatRegime", "Heat"),
     ],
-    rows: h.rows.map((r) => [r.shearRateApparent, v(r.pressure, BAR), v(r.adiabaticTemperatureRise), v(r.meanVelocity, MM), v(r.nahmeGriffithNumber), v(r.brinkmanNumber), v(r.graetzNumber), r.heatRegime]),
+    rows: h.rows.map((r) => [r.shearRateApparent, v(r.pressure, BAR), v(r.adiabaticTemperatureRise), v(r.meanVelocity, MM), v(r.nahmeGriffithNumber), v(r.brinkmanNumber), v(r.graetzNumber)]),
     notes: [
       `b = ${Number(h.temperatureCoefficient.toPrecision(3))} 1/K (${h.temperatureCoefficientSource}).`,
       "b is the shift-law (constant-stress) coefficient; the Nahme–Griffith number uses n′·b, the coefficient at the held rate.",
