@@ -53,7 +53,7 @@ describe("reduce settings of the secondary corrections", () => {
 
 function demoRun() {
   const csv = parseCsv(readFileSync(DEMO, "utf8"));
-  const raw = readRawTable(csv.lines.map((l) => l.cells), { rowWord: "line", rowNumbers: csv.lines.map((l) => l.line), headerNumber: 1, decimalComma: csv.decimalComma });
+  const raw = readRawTable(csv.lines.map((l) => l.cells), { rowWord: "line", rowNumbers: csv.lines.map((l) => l.line), headerNumber: 1, decimalMark: csv.delimiter === "," ? "." : undefined });
   return runReduction(
     raw.measurements,
     { representativeRate: true, extensional: true, pressureDependence: true, transducer: { fullScale: 7e7, accuracy: 0.0025 }, heating: { density: 760, heatCapacity: 2300, conductivity: 0.25 } },
