@@ -103,7 +103,7 @@ describe("reduce --out with every option on (film grade: shift, representative r
 
   it("holds every result: the groups first, Charts second, a sheet per result table, Method last", () => {
     expect(run.wb.worksheets.map((w) => w.name)).toEqual([
-      "Groups reduced", "Charts", "Bagley end correction", "Bagley plot data", "Flow curve", "Rabinowitsch correction", "Viscosity and model", "Extensional viscosity", "Viscous heating", "Pressure dependence",
+      "Groups reduced", "Charts", "Bagley end correction", "Bagley plot data", "Flow curve", "Uncertainty budget", "Rabinowitsch correction", "Viscosity and model", "Extensional viscosity", "Viscous heating", "Pressure dependence",
       "Melt-flow-rate point", "Model fits, ranking by AIC", "Model fits, parameters", "Temperature shift", "Temperature shift, constants", "Master curve at 210 °C", "Warnings", "Method",
     ]);
   });
@@ -121,7 +121,7 @@ describe("reduce --out with every option on (film grade: shift, representative r
       }
     }
     // one spelling per unit: never "Pa.s", "Pa s", "C", "1/sec", "mm3/s"
-    expect([...units].sort()).toEqual(["%", "1/GPa", "1/s", "K", "Pa·s", "bar", "kPa", "mm", "mm³/s", "°C"]);
+    expect([...units].sort()).toEqual(["%", "1/GPa", "1/s", "K", "Pa·s", "bar", "kPa", "mm", "mm/s", "mm³/s", "°C"]);
     const flow = sheetRows(run.wb, "Flow curve")[1];
     expect(flow?.slice(0, 7)).toEqual(["Group", "Apparent shear rate [1/s]", "Wall shear stress [kPa]", "n′", "True wall shear rate [1/s]", "Viscosity [Pa·s]", "Apparent viscosity [Pa·s]"]);
   });

@@ -196,7 +196,15 @@ maybe("second readers: openpyxl and LibreOffice open every workbook the project 
     const raw = sheet(xlsx("every"), "Flow curve").values;
     const shown = loSheet("shown", xlsx("every"), "Flow curve");
     // the figures each column asks for (src/io/resultTables.ts): 4 unless listed
-    const digits: Record<string, number> = { "n′": 3, "Representative vs Rabinowitsch [%]": 3, "± wall shear stress (k = 2) [kPa]": 2, "± true wall rate (k = 2) [1/s]": 2, "± viscosity (k = 2) [Pa·s]": 2 };
+    const digits: Record<string, number> = {
+      "n′": 3,
+      "Representative vs Rabinowitsch [%]": 3,
+      "Method's own bias at n′ [%]": 3,
+      "Difference beyond the bias [%]": 3,
+      "± wall shear stress (k = 2) [kPa]": 2,
+      "± true wall rate (k = 2) [1/s]": 2,
+      "± viscosity (k = 2) [Pa·s]": 2,
+    };
     let n = 0;
     raw.slice(2).forEach((r, i) => r.forEach((v, j) => {
       if (typeof v !== "number") return;

@@ -71,7 +71,7 @@ export function equationsUsed(run: EquationInputs): EquationLine[] {
   lines.push(["Viscosity", "η = τ_w/γ̇_w; apparent η_a = τ_w/γ̇_a", "definition"]);
   if (groups.some((g) => g.uncertaintyBudget)) {
     lines.push([
-      "Uncertainty budget (± columns)",
+      "Uncertainty (± columns)",
       `each input moved by its standard uncertainty u = a/√3 (rectangular) through the end correction and the smoother's n′: transducer zero and gain (one error shared by all readings; the zero cancels in the Bagley slope), reading scatter (plateau deviations, else the Bagley standard error), each die's bore and length, piston speed, melt temperature through the shift law; u_c = root sum of squares; shown U = k·u_c, k = 2`,
       "JCGM 100:2008 (GUM), 4.3.7 and 5.1; checked against JCGM 101:2008 (Monte Carlo)",
     ]);

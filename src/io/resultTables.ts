@@ -260,7 +260,7 @@ function uncertaintyBudgetTable(g: ReductionGroup): ResultTable | null {
   const rel = (x: number | null | undefined, of: number | null) => (x === null || x === undefined || of === null || !(of > 0) ? null : v((x / of) * 100));
   return {
     id: "uncertaintyBudget",
-    title: "Uncertainty budget of the viscosity",
+    title: "Uncertainty budget",
     scope: groupLabel(g),
     columns: [
       num("shearRateApparent", "Apparent shear rate", "1/s"),

@@ -34,6 +34,7 @@ export const SHEET_SPECS: SheetSpec[] = [
     columns: {
       "Apparent shear rate": "shearRateApparent", "Wall shear stress": "wallShearStress", "n′": "nPrime", "True wall shear rate": "shearRateWall", Viscosity: "viscosity", "Apparent viscosity": "viscosityApparent",
       "Representative rate": "shearRateRepresentative", "Representative viscosity": "viscosityRepresentative", "Representative vs Rabinowitsch": "representativeDeviation",
+      "Method's own bias at n′": "representativeExpectedDeviation", "Difference beyond the bias": "representativeDeviationCorrected",
       "± wall shear stress (k = 2)": "wallShearStressUncertainty", "± true wall rate (k = 2)": "shearRateWallUncertainty", "± viscosity (k = 2)": "viscosityUncertainty",
     },
   },
@@ -45,17 +46,27 @@ export const SHEET_SPECS: SheetSpec[] = [
   {
     sheet: "Extensional viscosity",
     rows: each("extensional"),
-    columns: { "True wall shear rate": "shearRateWall", "Entrance pressure": "entrancePressure", "Tensile stress": "tensileStress", "Extension rate": "extensionRate", "Extensional viscosity": "extensionalViscosity", "Trouton ratio": "troutonRatio" },
+    columns: {
+      "Apparent shear rate": "shearRateApparent", "True wall shear rate": "shearRateWall", "Shear rate used": "shearRate", "Entrance pressure": "entrancePressure", "Tensile stress": "tensileStress",
+      "Extension rate": "extensionRate", "Extensional viscosity": "extensionalViscosity", "Trouton ratio": "troutonRatio",
+    },
   },
   {
     sheet: "Viscous heating",
     rows: (doc) => groups(doc).flatMap((g) => ((g.heating as { rows: Row[] } | undefined)?.rows ?? [])),
-    columns: { "Apparent shear rate": "shearRateApparent", Pressure: "pressure", "Adiabatic rise": "adiabaticTemperatureRise", "Nahme–Griffith number": "nahmeNumber" },
+    columns: {
+      "Apparent shear rate": "shearRateApparent", Pressure: "pressure", "Adiabatic rise": "adiabaticTemperatureRise", "Mean velocity": "meanVelocity",
+      "Nahme–Griffith number": "nahmeGriffithNumber", "Brinkman number": "brinkmanNumber", "Graetz number": "graetzNumber",
+    },
   },
   {
     sheet: "Pressure dependence",
     rows: (doc) => groups(doc).flatMap((g) => ((g.pressureDependence as { rows: Row[] } | undefined)?.rows ?? [])),
-    columns: { "Apparent shear rate": "shearRateApparent", β: "pressureCoefficient", "Wall shear stress at p = 0": "wallShearStressAtZeroPressure", "Entrance pressure": "entrancePressure", "ln viscosity rise": "logViscosityRise", Dies: "diesUsed" },
+    columns: {
+      "Apparent shear rate": "shearRateApparent", "β (constant stress)": "pressureCoefficientConstantStress", "± β (1 s.e.)": "pressureCoefficientConstantStressStandardError",
+      "Curvature coefficient n′β": "pressureCoefficientConstantRate", "n′": "nPrime", "Wall shear stress at p = 0": "wallShearStressAtZeroPressure", "Entrance pressure": "entrancePressure",
+      "ln viscosity rise": "logViscosityRise", Dies: "diesUsed",
+    },
   },
   {
     sheet: "Temperature shift",
