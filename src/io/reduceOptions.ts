@@ -78,7 +78,7 @@ export const REDUCE_SETTINGS: readonly ReduceSettingSpec[] = Object.freeze<Reduc
   { key: "dieBoreTolerance", flag: "bore-tolerance", kind: { type: "quantity", quantity: "length", positive: false }, unit: "mm", section: "checks" },
   { key: "dieLengthTolerance", flag: "length-tolerance", kind: { type: "quantity", quantity: "length", positive: false }, unit: "mm", section: "checks" },
   { key: "meltTemperatureTolerance", flag: "melt-tolerance", kind: { type: "quantity", quantity: "temperatureDifference", positive: false }, unit: "K", section: "checks" },
-  { key: "pistonSpeedTolerance", flag: "speed-tolerance", kind: { type: "quantity", quantity: "ratio", positive: false }, unit: "%", section: "checks" },
+  { key: "pistonSpeedTolerance", flag: "piston-speed-tolerance", kind: { type: "quantity", quantity: "ratio", positive: false }, unit: "%", section: "checks" },
   { key: "representativeRate", flag: "representative", kind: { type: "switch" }, section: "checks" },
   { key: "slip", flag: "slip", kind: { type: "switch" }, section: "checks" },
   { key: "extensional", flag: "extensional", kind: { type: "switch" }, section: "checks" },
