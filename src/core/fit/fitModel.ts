@@ -11,9 +11,9 @@ import { resolveFitOptions, setupFit, type FitSetup } from "./setup";
 import { boundedLinearTransform, transformFor, type Transform } from "./transforms";
 import { fitStatistics } from "./statistics";
 import { validateFitData, type FitData } from "./validate";
-import { domainInterval } from "./intervals";
 import { tQuantile } from "./studentT";
-import { dataWindows, plateauTest, relativeStandardError, type Undetermined } from "./determination";
+import { dataWindows, plateauTest, type Undetermined } from "./determination";
+import { reportParameters, type ParameterEntry } from "./parameterReport";
 
 /** Everything a fit found out. Parameters in SI; uncertainties for the free parameters only. */
 export interface FitResult {
@@ -54,9 +54,6 @@ export interface FitResult {
   warnings: Warning[];
 }
 
-/** The zero-shear parameter of each plateau model (its other plateau entry is the onset). */
-const PLATEAU_NAMES: Partial<Record<ModelId, string>> = Object.fromEntries(Object.entries(PLATEAU_PARAMETERS).map(([id, v]) => [id, v.plateau]));
-
 /** Relative influence of a free parameter below which it counts as undetermined (on a bound). */
 const NEGLIGIBLE_INFLUENCE = 1e-7;
 
@@ -92,52 +89,31 @@ export function fitModel(model: string, data: FitData, options: Partial<FitOptio
   const stats = fitStatistics(jac.jacobian, jac.residuals, observed, setup.weight, freeIndex.length, opts.confidenceLevel);
 
   const warnings = [...setup.warnings];
-  const limit = opts.maxRelativeStandardError;
-  const undetermined: Record<string, Undetermined> = {};
   if (!solved.converged) {
     warnings.push(warning("NOT_CONVERGED", `${def.id} fit stopped after ${solved.iterations} iterations (${solved.stopReason}) before converging; the parameters are not an optimum`));
   }
   const parameters: Record<string, number> = {};
   def.parameters.forEach((spec, j) => (parameters[spec.name] = p[j] as number));
-  const standardErrors: Record<string, number> = {};
-  const confidenceIntervals: Record<string, [number, number]> = {};
-  const t = tQuantile((1 + opts.confidenceLevel) / 2, setup.rates.length - freeIndex.length);
-  freeIndex.forEach((j, f) => {
-    const spec = def.parameters[j] as ParameterSpec;
-    const value = p[j] as number;
-    const se = stats.standardErrors[f] as number;
-    standardErrors[spec.name] = se;
-    confidenceIntervals[spec.name] = domainInterval(spec, value, se, t);
-    const atBound = solved.atBound.includes(j) || (jac.influence[f] as number) < NEGLIGIBLE_INFLUENCE;
-    const relative = relativeStandardError(value, se);
-    if (atBound) {
-      const bound = Number.isFinite(spec.max) && value > (spec.min + spec.max) / 2 ? spec.max : spec.min;
-      warnings.push(warning("PARAMETER_AT_BOUND", `${spec.name} is at its bound ${bound} (${value.toPrecision(3)}): the data do not call for it; its interval is one-sided`));
-      undetermined[spec.name] = { reason: `at its bound ${bound}`, outsideData: false };
-    } else if (relative > limit) {
-      warnings.push(warning("POORLY_DETERMINED", `${spec.name} = ${value.toPrecision(4)} has a standard error of ${se.toPrecision(3)} (${(100 * relative).toPrecision(2)} % of the value, above the ${100 * limit} % limit)`));
-      undetermined[spec.name] = { reason: `its standard error is ${(100 * relative).toPrecision(2)} % of the value (limit ${100 * limit} %)`, outsideData: false };
-    } else if (!Number.isFinite(se)) {
-      undetermined[spec.name] = { reason: "its standard error is undefined (singular covariance)", outsideData: false };
-    }
+  const windows = dataWindows(setup.rates, setup.viscosity, def.needsTemperature ? setup.temperature : undefined);
+  const plateau = solved.converged ? plateauTest(def.id, parameters, windows) : {};
+  const entries: ParameterEntry[] = def.parameters.map((spec, j) => {
+    const f = freeIndex.indexOf(j);
+    return {
+      spec,
+      value: p[j] as number,
+      free: f >= 0,
+      standardError: f >= 0 ? (stats.standardErrors[f] as number) : NaN,
+      atBound: f >= 0 && (solved.atBound.includes(j) || (jac.influence[f] as number) < NEGLIGIBLE_INFLUENCE),
+      plateau: plateau[spec.name],
+    };
   });
+  const t = tQuantile((1 + opts.confidenceLevel) / 2, setup.rates.length - freeIndex.length);
+  const report = reportParameters(entries, t, opts.maxRelativeStandardError, PLATEAU_PARAMETERS[def.id]?.plateau);
+  warnings.push(...report.warnings);
   if (stats.singular) warnings.push(warning("SINGULAR_COVARIANCE", `the parameters of ${def.id} are not independently determined by these data; no standard errors or intervals`));
   if (stats.ssr === 0) warnings.push(warning("FIT_EXACT", `${def.id} passes through every point (zero residuals): AIC is −∞ and the parameters have no uncertainty estimate`));
   if (!Number.isFinite(stats.r2)) warnings.push(warning("R2_UNDEFINED", `R² of ${def.id} is undefined: every viscosity is the same, so there is no spread to explain`));
-
-  const windows = dataWindows(setup.rates, setup.viscosity, def.needsTemperature ? setup.temperature : undefined);
-  const plateau = solved.converged ? plateauTest(def.id, parameters, windows) : {};
-  for (const [name, u] of Object.entries(plateau)) {
-    if (setup.fixedNames.includes(name)) continue;
-    if (!undetermined[name] || !undetermined[name].outsideData) undetermined[name] = u;
-    const unit = def.parameters.find((q) => q.name === name)?.unit ?? "1";
-    const bound = u.bound ? ` (the data support ${name} ${u.bound.side === "lower" ? "≥" : "≤"} ${Number(u.bound.value.toPrecision(3))}${unit === "1" ? "" : ` ${unit}`})` : "";
-    const message = `${name} is not determined by the data: ${u.reason}${bound}`;
-    if (name === PLATEAU_NAMES[def.id]) warnings.push(warning("ZERO_SHEAR_NOT_DETERMINED", message));
-    else warnings.push(warning("ONSET_NOT_DETERMINED", message));
-  }
-  const determined: Record<string, boolean> = {};
-  def.parameters.forEach((spec, j) => (determined[spec.name] = freeIndex.includes(j) && !(spec.name in undetermined) && Number.isFinite(standardErrors[spec.name] as number)));
+  const { standardErrors, confidenceIntervals, determined, undetermined } = report;
   let rateMin = Infinity;
   let rateMax = -Infinity;
   for (const w of windows) {
