@@ -143,7 +143,7 @@ describe("bad fit flags exit 1 with a message naming the flag and print nothing 
   const oneTemperature = [lines[1], ...lines.filter((l) => l.startsWith("210,"))].join("\n") + "\n";
   const cases: [string, string[], RegExp][] = [
     ["unknown model", ["--model", "carreau-yasudda"], /^rheoledger: --model: unknown model "carreau-yasudda"; accepted: newtonian, power-law, cross/],
-    ["a temperature-dependent model per group", ["--model", "cross-wlf"], /^rheoledger: --model: cross-wlf needs a temperature per point/],
+    ["cross-wlf asked for twice with different fits across temperatures", ["--model", "cross-wlf", "--master", "cross", "--shift", "arrhenius", "--tref", "210 C"], /^rheoledger: --model: cross-wlf is fitted across temperatures, and --master asks for cross; give one of them/],
     ["unknown model in --compare", ["--compare", "cross,karo"], /^rheoledger: --compare: unknown model "karo"/],
     ["--shift without --tref", ["--shift", "arrhenius"], /^rheoledger: --tref: is required with --shift/],
     ["--tref without --shift", ["--tref", "210 C"], /^rheoledger: --tref: is the reference temperature of --shift/],

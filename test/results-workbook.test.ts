@@ -381,9 +381,10 @@ describe("resultsWorkbookBytes(content) on hand-made tables", () => {
 
 describe("results workbook of the invented yield-stress cream", () => {
   it("the Herschel–Bulkley fit is recommended and recovers τy, K, n of the generator (noise 0.8 %)", async () => {
-    const run = await runOut(path.join(ROOT, "workbooks/demo-cream-yield.csv"), ["--summary"]);
+    // a yield-stress material is declared a paste: yield-stress models are in its default list
+    const run = await runOut(path.join(ROOT, "workbooks/demo-cream-yield.csv"), ["--summary", "--material", "paste"]);
     expect(run.code).toBe(0);
-    expect(run.stdout).toContain("best fit herschel-bulkley");
+    expect(run.stdout).toContain("recommended herschel-bulkley (tauY ");
     expect(sheetRows(run.wb, "Groups reduced")[2]?.[9]).toBe("Herschel–Bulkley");
     const rows = sheetRows(run.wb, "Model fits, parameters").filter((r) => r[1] === "Herschel–Bulkley" && r[2] === 1);
     const value = (name: string) => rows.find((r) => r[3] === parameterSymbol(name))?.[5] as number;

@@ -7,7 +7,8 @@
  * the Cox–Merz rule) or `shear_rate [1/s]` + `viscosity [Pa.s]` (steady shear), and optionally
  * `temperature [C]` (one temperature for the whole table). Other columns are ignored with a
  * COLUMN_IGNORED warning; a row with every needed cell blank is skipped silently, one with some
- * blank with ROW_SKIPPED_BLANK.
+ * blank with ROW_SKIPPED_BLANK. Numbers stored as text are read by the shared number reader
+ * (a decimal comma is accepted; a text with two readings, such as "1,000", is refused).
  */
 import { RheoError, warning, type Warning } from "../core/errors";
 import type { RotationalCurve } from "../core/rotationalJoin";
@@ -34,12 +35,11 @@ export interface RotationalTableOptions {
   headerNumber: number;
   /** 1-based numbers of each row (CSV with comments) */
   rowNumbers?: number[];
-  decimalComma: boolean;
   /** the argument messages name, e.g. "--rotational" */
   argument: string;
 }
 
-export const DEFAULT_ROTATIONAL_TABLE_OPTIONS: Readonly<RotationalTableOptions> = Object.freeze({ rowWord: "row", headerNumber: 1, decimalComma: false, argument: "rotational" });
+export const DEFAULT_ROTATIONAL_TABLE_OPTIONS: Readonly<RotationalTableOptions> = Object.freeze({ rowWord: "row", headerNumber: 1, argument: "rotational" });
 
 /** A rotational curve and what reading it found. */
 export interface RotationalTable {
@@ -103,7 +103,7 @@ export function readRotationalTable(cells: unknown[][], options: Partial<Rotatio
     for (const name of used) {
       const col = byName.get(name) as { index: number; header: string; unit: string };
       const where = `${arg} ${col.header} (column ${col.index + 1})`;
-      const v = readNumberCell(rowCells[col.index], where, `${opt.rowWord} ${number}`, opt.decimalComma);
+      const v = readNumberCell(rowCells[col.index], where, `${opt.rowWord} ${number}`);
       if (v === null) {
         blanks.push(name);
         continue;

@@ -438,7 +438,8 @@ function fitCrossWlf(curves: readonly TemperatureCurve[], opts: MasterFitOptions
   const rename = (record: Record<string, number>) => Object.fromEntries(Object.entries(toModel).filter(([, mName]) => mName in record).map(([lit, mName]) => [lit, record[mName] as number]));
   const parameters: Record<string, number> = { ...rename(fit.parameters), D3: 0 };
   const order = (r: Record<string, number>) => Object.fromEntries(known.filter((nm) => nm in r).map((nm) => [nm, r[nm] as number]));
-  const standardErrors = order(rename(fit.standardErrors));
+  const standardErrors: Record<string, number> = order(rename(fit.standardErrors));
+  if (standardErrors.A1 !== undefined) standardErrors.c1 = standardErrors.A1 / Math.LN10;
   const confidenceIntervals: Record<string, [number, number]> = {};
   for (const [lit, mName] of Object.entries(toModel)) if (fit.confidenceIntervals[mName]) confidenceIntervals[lit] = fit.confidenceIntervals[mName] as [number, number];
   const determined: Record<string, boolean> = {};
@@ -449,14 +450,22 @@ function fitCrossWlf(curves: readonly TemperatureCurve[], opts: MasterFitOptions
     const u = mName !== undefined ? fit.undetermined[mName] : undefined;
     if (u) undetermined[lit] = u;
   }
+  determined.c1 = determined.A1 === true;
+  determined.c2 = false;
   const temperatures = [...new Set(data.temperature)].sort((a, b) => a - b);
   const D2 = parameters.D2 as number;
   const A1 = parameters.A1 as number;
   const A2 = parameters.A2tilde as number;
   const aT = (T: number) => Math.exp((-A1 * (T - D2)) / (A2 + T - D2));
   const reduced = data.shearRate.map((g, i) => g * aT(data.temperature[i] as number));
+  const d2Free = !fit.fixed.includes("Tstar");
   const warnings = [
-    ...fit.warnings.map((w) => ({ ...w, message: w.message.replace(/\bTstar\b/g, "D2").replace(/\bA2\b/g, "A2tilde") })),
+    ...fit.warnings.map((w) => {
+      const message = w.message.replace(/\bTstar\b/g, "D2").replace(/\bA2\b/g, "A2tilde");
+      // the usual cause: data without WLF curvature (an Arrhenius-like melt) let D2 drift off with D1 and A1
+      const hint = w.code === "NOT_CONVERGED" && d2Free ? "; D2 is not pinned by these temperatures: hold it (commonly at the glass transition) or fit Cross, Carreau or Carreau–Yasuda with an Arrhenius law" : "";
+      return { ...w, message: message + hint };
+    }),
     warning("MASTER_PRESSURE_TERM_HELD", "Cross-WLF's pressure coefficient D3 is held at 0 (T* = D2, A2 = Ã2): the capillary points carry no separate pressure level to determine it"),
   ];
   return {
