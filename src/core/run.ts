@@ -88,16 +88,6 @@ export interface ReductionRun {
   steps?: TraceSteps;
 }
 
-/** Re-raises a core error with the group in front, keeping kind and code. */
-function inGroup<T>(g: ReductionGroup, call: () => T): T {
-  try {
-    return call();
-  } catch (e) {
-    if (e instanceof RheoError) throw e.retarget({ argument: "model", context: `group ${groupLabel(g)}:` });
-    throw e;
-  }
-}
-
 /**
  * The true flow curves of the round-die bore measured at the most temperatures, one per
  * temperature (slip between bores must not be mistaken for a temperature shift).
