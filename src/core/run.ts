@@ -151,6 +151,14 @@ export function runReduction(measurements: Measurement[], options: Partial<Reduc
       throw new RheoError("convergence", "model", `${context} ${def.id} could not be fitted${failed ? ` (${failed.reason})` : ""}`);
     });
   }
+  if (fits.compare !== undefined) {
+    // the user asked to see these models: their own warnings join the run's (the recommended one's are there already)
+    for (const gf of groupFits) {
+      for (const r of gf.ranked) {
+        if (r.model !== gf.verdict.recommended && r.model !== fits.model) warnings.push(...r.result.warnings.map((w) => scoped({ ...w, message: `${r.model}: ${w.message}` }, gf.label)));
+      }
+    }
+  }
   if (fits.compare !== undefined || fits.rank) run.comparisons = groupFits;
   warnings.push(...verdictAgreement(groupFits));
   if (fits.shift) {
