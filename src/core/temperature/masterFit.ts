@@ -69,6 +69,12 @@ export interface MasterFitOptions {
    * for cross-wlf n, tauStar, D1, D2 (K), D3 (K/Pa, only 0), A1, A2tilde (K).
    */
   fixed: Record<string, number>;
+  /**
+   * Starting values (SI) of free parameters, by the same names as `fixed`; when every free
+   * parameter has one, the automatic start (polynomial shift fit, then the model on its master
+   * curve) is skipped. For cross-wlf they go to the single-curve fitter (fit/fitModel.ts).
+   */
+  initial: Record<string, number>;
   maxIterations: number;
   confidenceLevel: number;
   /** Largest relative standard error of a determined parameter (fit/determination.ts). */
@@ -81,6 +87,7 @@ export const DEFAULT_MASTER_FIT_OPTIONS: Readonly<MasterFitOptions> = Object.fre
   referenceTemperature: null,
   material: "melt",
   fixed: {},
+  initial: {},
   maxIterations: DEFAULT_FIT_OPTIONS.maxIterations,
   confidenceLevel: DEFAULT_FIT_OPTIONS.confidenceLevel,
   maxRelativeStandardError: DEFAULT_FIT_OPTIONS.maxRelativeStandardError,
@@ -231,7 +238,14 @@ function fitShiftedModel(curves: readonly TemperatureCurve[], def: ModelDefiniti
     return (-Math.LN10 * c1 * dT) / den;
   };
 
-  const start = startValues(curves, def, law, Tref, specs, held, opts);
+  for (const [name, value] of Object.entries(opts.initial)) {
+    const spec = specs.find((x) => x.name === name);
+    if (!spec || name in held) throw new RheoError("value", `initial.${name}`, `is not a free parameter of ${def.id} with the ${law} law; free: ${specs.filter((x) => !(x.name in held)).map((x) => x.name).join(", ")}`);
+    if (!(Number.isFinite(value) && value > spec.min && value < spec.max)) throw new RheoError("domain", `initial.${name}`, `must lie inside (${spec.min}, ${spec.max}), got ${value}`);
+  }
+  const everyGiven = specs.every((x) => x.name in held || x.name in opts.initial);
+  const start = everyGiven ? Float64Array.from(specs, (x) => held[x.name] ?? (opts.initial[x.name] as number)) : startValues(curves, def, law, Tref, specs, held, opts);
+  for (const [name, value] of Object.entries(opts.initial)) start[specs.findIndex((x) => x.name === name)] = value;
   const transforms = freeIndex.map((j) => transformFor(specs[j] as ParameterSpec));
   const slope = rateSlope(def);
   const p = Float64Array.from(start);
@@ -428,9 +442,14 @@ function fitCrossWlf(curves: readonly TemperatureCurve[], opts: MasterFitOptions
     viscosity: curves.flatMap((c) => [...c.viscosity]),
     temperature: curves.flatMap((c) => c.shearRate.map(() => c.temperature)),
   };
+  const initial: Record<string, number> = {};
+  for (const [name, value] of Object.entries(opts.initial)) {
+    if (!(name in toModel)) throw new RheoError("value", `initial.${name}`, `is not a fitted Cross-WLF parameter; accepted: ${Object.keys(toModel).join(", ")}`);
+    initial[toModel[name] as string] = value;
+  }
   let fit: FitResult;
   try {
-    fit = fitModel("cross-wlf", data, { fixed, maxIterations: opts.maxIterations, confidenceLevel: opts.confidenceLevel, maxRelativeStandardError: opts.maxRelativeStandardError });
+    fit = fitModel("cross-wlf", data, { fixed, initial, maxIterations: opts.maxIterations, confidenceLevel: opts.confidenceLevel, maxRelativeStandardError: opts.maxRelativeStandardError });
   } catch (e) {
     if (e instanceof RheoError && e.argument === "temperature") throw e.retarget({ argument: "curves" });
     throw e;
