@@ -55,6 +55,7 @@ describe("fitModel(model, data) against scipy.optimize.least_squares", () => {
       const p = fit.parameters[name] as number;
       const se = fit.standardErrors[name] as number;
       const [lo, hi] = fit.confidenceIntervals[name] as [number, number];
+      // @check fit/intervals, fit/parameterReport | 95 % intervals of 4 positive parameters taken in ln p: p·exp(±t·SE/p) | Bates & Watts, Nonlinear Regression Analysis and Its Applications (1988), ch. 3 (delta method; from memory); t from scipy.stats.t.ppf | rel 1e-6 | 8
       expectClose(lo, p * Math.exp((-t * se) / p), { rel: 1e-6 }, `${name} low`);
       expectClose(hi, p * Math.exp((t * se) / p), { rel: 1e-6 }, `${name} high`);
       expect(lo).toBeGreaterThan(0);

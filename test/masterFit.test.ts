@@ -55,6 +55,7 @@ describe("fitMasterCurve against scipy.optimize.least_squares on the same proble
     test(`${c.name}: same optimum to 1e-5, standard errors to 1e-3, same SSR`, () => {
       const fit = fitCase(c);
       expect(fit.converged).toBe(true);
+      // @check temperature/masterFit, fit/parameterReport | fits across temperatures (CY × Arrhenius, Cross × WLF, power law × Arrhenius, Cross-WLF): parameters of 4 cases | scipy 1.10 least_squares on the same points (test/fixtures/scipy-master-fits.json, scripts/scipy_master_fit_reference.py; models coded independently) | rel 1e-5 | 19
       for (const [name, v] of Object.entries(c.parameters)) expectClose(value(fit, name), v, { rel: 1e-5 }, name);
       for (const [name, se] of Object.entries(c.standardErrors)) expectClose(fit.standardErrors[name] as number, se, { rel: 1e-3 }, `SE ${name}`);
       expectClose(fit.ssr, c.ssr, { rel: 1e-7 }, "SSR");
@@ -87,6 +88,7 @@ describe("the joint fit recovers the truth that made the data", () => {
   });
   test("a_T at each temperature is exp[(Ea/R)(1/T − 1/Tref)] with the fitted Ea, 1 at Tref", () => {
     const fit = fitCase(cy);
+    // @check temperature/masterFit | aT at 3 temperatures from the fitted Ea | Arrhenius form of the shift factor: Dealy & Wang, Melt Rheology and Its Applications in the Plastics Industry, 2nd ed. (2013), ch. 4 (from memory); R from CODATA 2018 | rel 1e-12 | 3
     for (const f of fit.factors) expectClose(f.aT, Math.exp(((fit.activationEnergy as number) / 8.314462618) * (1 / f.temperature - 1 / 473.15)), { rel: 1e-12 });
     expectClose(fit.factors.find((f) => f.temperature === 473.15)?.aT as number, 1, { rel: 1e-15 });
   });

@@ -36,6 +36,7 @@ describe("the Cox–Merz join pins down η0 where the capillary curve alone cann
     const fits = fitCurve({ shearRate: joined.shearRate, viscosity: joined.viscosity }, { models: ["carreau-yasuda"] });
     const fit = fits.verdict.fit;
     expect(fit?.model).toBe("carreau-yasuda");
+    // @check rotationalJoin | the Cox–Merz join's Carreau–Yasuda fit: 4 parameters as scipy finds them on the same joined points | scipy 1.10 least_squares (test/fixtures/scipy-master-fits.json, case join); Cox & Merz, J. Polym. Sci. 28 (1958) 619 | rel 1e-5 | 4
     expectClose(fit?.parameters.eta0 as number, J.truth.eta0, { rel: 0.03 }, "eta0 vs truth");
     for (const [name, v] of Object.entries(J.parameters)) expectClose(fit?.parameters[name] as number, v, { rel: 1e-5 }, `${name} vs scipy`);
     for (const [name, se] of Object.entries(J.standardErrors)) expectClose(fit?.standardErrors[name] as number, se, { rel: 1e-3 }, `SE ${name} vs scipy`);
@@ -67,6 +68,7 @@ describe("joinRotational(capillary, rotational): the overlap check", () => {
   test("a rotational curve 1.3× the capillary one: ratio 1.3, largest deviation 30 %, ROTATIONAL_OVERLAP_MISMATCH", () => {
     const rates = [1, 3, 10, 20, 40];
     const j = joinRotational(cap, { kind: "steady", rate: rates, viscosity: law(rates, 1.3) });
+    // @check rotationalJoin | overlap ratio of a power law 1.3 times another: log–log interpolation exact on a straight line | Ostwald–de Waele power law (straight in log–log); Cox & Merz, J. Polym. Sci. 28 (1958) 619 | rel 1e-12 | 2
     expectClose(j.overlap?.ratio as number, 1.3, { rel: 1e-12 });
     expectClose(j.overlap?.maxDeviation as number, 0.3, { rel: 1e-12 });
     expect(j.overlap?.withinTolerance).toBe(false);
@@ -107,6 +109,8 @@ describe("fitJoinedCurve(result, rotational): the capillary groups at the rotati
     expect(j.groups).toEqual(["210 °C, D 1 mm"]);
     expect(j.join.source.filter((s) => s === "capillary")).toHaveLength(4);
     expect(j.fits.verdict.recommended).toBe("newtonian");
+    // @check joinedFit | the joined curve of a 1000 Pa·s Newtonian liquid (capillary by Hagen–Poiseuille with Bagley e = 2, rotational 1000 Pa·s) gives μ = 1000 Pa·s | Hagen–Poiseuille (Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed. (2002), ch. 2; from memory) | rel 1e-9 | 1
+    expectClose(j.fits.verdict.fit?.parameters.mu as number, 1000, { rel: 1e-9 });
     expect(j.warnings.every((w) => w.scope === "rotational + capillary, 210.5 °C")).toBe(true);
   });
   test("a temperature no capillary group has, or none with several capillary temperatures, is refused", () => {

@@ -11,7 +11,8 @@ import { plateauTest, DEFAULT_DETERMINATION_LIMITS } from "../src/core/fit/deter
 import { compareModels, fitModel } from "../src/core/fit";
 import { DEFAULT_FLOW_CURVE_MODELS, defaultModels, fitCurve, fitFlowCurves, materialFixed, verdictAgreement, type GroupFits } from "../src/core/flowCurveFits";
 import { evaluateModel, MODEL_REGISTRY } from "../src/core/models";
-import { MODEL_FAMILY } from "../src/core/models/families";
+import { MODEL_FAMILY, onsetRate } from "../src/core/models/families";
+import { expectClose } from "./helpers/expectClose";
 import { reduce } from "../src/core/reduce";
 import { parseCsv } from "../src/io/csv";
 import { readRawTable } from "../src/io/rawTable";
@@ -70,6 +71,7 @@ describe("decideVerdict(compare): only a well-determined, adequate model is reco
     const g = rates(0.1, 1000, 25);
     const eta = ripple(evaluateModel("cross", { eta0: 5000, etaInf: 0, lambda: 0.5, m: 0.7 }, g));
     const v = fitCurve({ shearRate: g, viscosity: eta }, { models: ["power-law", "cross"] }).verdict;
+    // @check fit/verdict | a model with ΔAIC > 10 is not adequate: the power law on a Cross curve | Burnham & Anderson, Model Selection and Multimodel Inference, 2nd ed. (2002), ch. 2 (ΔAIC > 10: essentially no support; from memory) | exact | 1
     expect(v.recommended).toBe("cross");
     expect(v.status).toBe("well-determined");
     const pl = v.candidates.find((c) => c.model === "power-law");
@@ -119,6 +121,7 @@ describe("plateauTest(model, parameters, windows): is the plateau inside the mea
   const w = { shearRateMin: 10, shearRateMax: 1000, viscosityMax: 900 };
   test("onset 1/λ below the data: η0 ≥ the highest viscosity, λ > 1/γ̇min", () => {
     const u = plateauTest("cross", { eta0: 5000, etaInf: 0, lambda: 1, m: 0.7 }, [w]);
+    // @check fit/determination | bounds the data support when Cross's onset lies below them: η0 ≥ ηmax, λ > 1/γ̇min | Cross, J. Colloid Sci. 20 (1965) 417 (η non-increasing in γ̇, η = η0/2 at λγ̇ = 1); the rule itself common practice, no source | exact | 2
     expect(u.eta0?.bound).toEqual({ side: "lower", value: 900 });
     expect(u.lambda?.bound).toEqual({ side: "lower", value: 0.1 });
   });
@@ -139,6 +142,20 @@ describe("plateauTest(model, parameters, windows): is the plateau inside the mea
     const poor = Object.entries(fit.standardErrors).filter(([n, se]) => se / Math.abs(fit.parameters[n] as number) > 0.25).map(([n]) => n);
     for (const n of poor) expect(fit.determined[n]).toBe(false);
     expect(fit.wellDetermined).toBe(false);
+  });
+});
+
+describe("onsetRate(model, parameters): where shear thinning sets in", () => {
+  test("Cross: η(γ̇c) = η0/2; Carreau–Yasuda: η(γ̇c) = η0·2^((n−1)/a); Cross-WLF: the stress η0·γ̇c equals τ*", () => {
+    const cross = { eta0: 4000, etaInf: 0, lambda: 0.25, m: 0.6 };
+    const cy = { eta0: 4000, etaInf: 0, lambda: 0.25, n: 0.4, a: 0.8 };
+    const cw = { D1: 3e12, A1: 28, A2: 51.6, Tstar: 373, tauStar: 3e4, n: 0.28 };
+    // @check models/families | the onset rates of Cross, Carreau–Yasuda and Cross-WLF at their defining points | Cross, J. Colloid Sci. 20 (1965) 417; Yasuda, Armstrong & Cohen, Rheol. Acta 20 (1981) 163; Hieber & Shen, J. Non-Newt. Fluid Mech. 7 (1980) 1 | rel 1e-12 | 3
+    expectClose(evaluateModel("cross", cross, [onsetRate("cross", cross) as number])[0] as number, 2000, { rel: 1e-12 });
+    expectClose(evaluateModel("carreau-yasuda", cy, [onsetRate("carreau-yasuda", cy) as number])[0] as number, 4000 * Math.pow(2, (0.4 - 1) / 0.8), { rel: 1e-12 });
+    const eta0At473 = 3e12 * Math.exp((-28 * (473.15 - 373)) / (51.6 + 473.15 - 373));
+    expectClose((onsetRate("cross-wlf", cw, 473.15) as number) * eta0At473, 3e4, { rel: 1e-12 });
+    expect(onsetRate("power-law", { K: 1, n: 0.5 })).toBeNull();
   });
 });
 
