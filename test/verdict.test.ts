@@ -8,6 +8,7 @@
 import { readFileSync } from "node:fs";
 import { decideVerdict, DEFAULT_VERDICT_OPTIONS } from "../src/core/fit/verdict";
 import { plateauTest, DEFAULT_DETERMINATION_LIMITS } from "../src/core/fit/determination";
+import { extrapolationCheck } from "../src/core/fit/extrapolation";
 import { compareModels, fitModel } from "../src/core/fit";
 import { DEFAULT_FLOW_CURVE_MODELS, defaultModels, fitCurve, fitFlowCurves, materialFixed, verdictAgreement, type GroupFits } from "../src/core/flowCurveFits";
 import { evaluateModel, MODEL_REGISTRY } from "../src/core/models";
@@ -186,6 +187,16 @@ describe("material class and the one default model list", () => {
     expect(err({ models: ["cross-wlf"] })).toMatch(/^models: cross-wlf depends on temperature/);
     expect(err({ models: ["krosss"] })).toMatch(/^models: unknown model "krosss"/);
     expect(err({ maxDeltaAic: 0 })).toBe("maxDeltaAic: must be a number greater than zero, got 0");
+  });
+});
+
+describe("extrapolationCheck(range, rates): a fitted curve used outside its rates is flagged", () => {
+  test("rates inside the fitted range: no warning; outside: EXTRAPOLATED naming them", () => {
+    expect(extrapolationCheck([24, 5150], [24, 100, 5150]).warning).toBeNull();
+    const c = extrapolationCheck([24, 5150], [1, 100, 9000], "the last fit");
+    expect(c.outside).toEqual([true, false, true]);
+    expect(c.warning?.code).toBe("EXTRAPOLATED");
+    expect(c.warning?.message).toBe("the last fit is used at 2 rates (1–9000 1/s) outside the 24–5150 1/s it was fitted to: there it is an extrapolation of the model, not a measurement");
   });
 });
 
