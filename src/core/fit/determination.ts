@@ -53,10 +53,23 @@ export interface Undetermined {
 
 /** The measured window of points (γ̇ in 1/s, η in Pa·s), optionally one per temperature (K). */
 export function dataWindows(shearRate: ArrayLike<number>, viscosity: ArrayLike<number>, temperature?: ArrayLike<number>): DataWindow[] {
+  if (!temperature) {
+    // one window: a plain pass (this runs in every single-curve fit)
+    let shearRateMin = Infinity;
+    let shearRateMax = -Infinity;
+    let viscosityMax = -Infinity;
+    for (let i = 0; i < shearRate.length; i++) {
+      const g = shearRate[i] as number;
+      if (g < shearRateMin) shearRateMin = g;
+      if (g > shearRateMax) shearRateMax = g;
+      if ((viscosity[i] as number) > viscosityMax) viscosityMax = viscosity[i] as number;
+    }
+    return [{ shearRateMin, shearRateMax, viscosityMax }];
+  }
   const byT = new Map<number | undefined, DataWindow>();
   for (let i = 0; i < shearRate.length; i++) {
-    const T = temperature ? (temperature[i] as number) : undefined;
-    const key = T !== undefined && Number.isFinite(T) ? T : undefined;
+    const T = temperature[i] as number;
+    const key = Number.isFinite(T) ? T : undefined;
     const rate = shearRate[i] as number;
     const eta = viscosity[i] as number;
     const w = byT.get(key);

@@ -107,7 +107,9 @@ export function fitModel(model: string, data: FitData, options: Partial<FitOptio
       plateau: plateau[spec.name],
     };
   });
-  const t = tQuantile((1 + opts.confidenceLevel) / 2, setup.rates.length - freeIndex.length);
+  // t of the intervals: fitStatistics took it already (half-width = t·SE); computed anew only when no SE is finite
+  const withSe = stats.standardErrors.findIndex((se) => se > 0 && Number.isFinite(se));
+  const t = withSe >= 0 ? (stats.halfWidths[withSe] as number) / (stats.standardErrors[withSe] as number) : tQuantile((1 + opts.confidenceLevel) / 2, setup.rates.length - freeIndex.length);
   const report = reportParameters(entries, t, opts.maxRelativeStandardError, PLATEAU_PARAMETERS[def.id]?.plateau);
   warnings.push(...report.warnings);
   if (stats.singular) warnings.push(warning("SINGULAR_COVARIANCE", `the parameters of ${def.id} are not independently determined by these data; no standard errors or intervals`));
