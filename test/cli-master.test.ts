@@ -21,7 +21,7 @@ import { expectClose } from "./helpers/expectClose";
 
 const DEMO = "workbooks/demo-film-grade.csv";
 
-async function run(args: string[], files: Record<string, string> = {}, written?: Map<string, Uint8Array>) {
+async function run(args: string[], files: Record<string, string> = {}, written?: Map<string, Uint8Array | string>) {
   let stdout = "";
   let stderr = "";
   const code = await main(args, {
@@ -142,31 +142,34 @@ describe("no NaN anywhere: fits whose numbers are undefined", () => {
   test("a workbook with singular fits: empty cells with a note; exceljs and openpyxl read it back", async () => {
     const dir = mkdtempSync(path.join(tmpdir(), "rheoledger-nan-"));
     const out = path.join(dir, "singular.xlsx");
-    const written = new Map<string, Uint8Array>();
+    const written = new Map<string, Uint8Array | string>();
     const { code } = await run(["reduce", "newtonian.csv", "--compare", "newtonian,casson,sisko", "--material", "paste", "--si", "--out", out], { "newtonian.csv": csv }, written);
     expect(code).toBe(0);
     const bytes = written.get(out) as Uint8Array;
+    expect(bytes).toBeInstanceOf(Uint8Array);
     writeFileSync(out, bytes);
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.load(Buffer.from(bytes) as unknown as ArrayBuffer);
-    const fits = wb.getWorksheet("Fits") as ExcelJS.Worksheet;
+    // the parameter sheet (src/io/resultTables.ts "Model fits, parameters"): title row, header row, then rows
+    const fits = wb.getWorksheet("Model fits, parameters") as ExcelJS.Worksheet;
     const rows: unknown[][] = [];
-    fits.eachRow((r) => rows.push((r.values as unknown[]).slice(1)));
-    const casson = rows.filter((r) => r[2] === "casson");
+    fits.eachRow({ includeEmpty: true }, (r) => rows.push((r.values as unknown[]).slice(1)));
+    const header = rows[1] as string[];
+    const col = (h: string) => header.findIndex((x) => typeof x === "string" && x.startsWith(h));
+    const casson = rows.filter((r) => r[col("Model")] === "Casson");
     expect(casson.length).toBe(2);
     for (const r of casson) {
-      expect(r[12] ?? null).toBeNull(); // standard error
-      expect(String(r[19])).toContain("no standard error (singular covariance)");
+      expect(r[col("Standard error")] ?? null).toBeNull();
+      expect(String(r[col("Note")])).toContain("no standard error: the data cannot separate it (singular covariance)");
     }
     wb.eachSheet((ws) => ws.eachRow((r) => (r.values as unknown[]).forEach((v) => typeof v === "number" && expect(Number.isFinite(v)).toBe(true))));
     // openpyxl (Python) refuses a NaN cell; it must open the file and see the same empty cells
     const py = findPython(["openpyxl"]);
     if (py.python === null) throw new Error(`openpyxl is needed for this check (Debian: apt-get install python3-openpyxl): ${py.reason}`);
-    const script = "import openpyxl,sys,json;wb=openpyxl.load_workbook(sys.argv[1]);ws=wb['Fits'];print(json.dumps([[c.value for c in r] for r in ws.iter_rows(values_only=False)][1:]))";
+    const script = "import openpyxl,sys,json;wb=openpyxl.load_workbook(sys.argv[1]);ws=wb['Model fits, parameters'];print(json.dumps([[c.value for c in r] for r in ws.iter_rows()], default=str))";
     const read = spawnSync(py.python, ["-c", script, out], { encoding: "utf8" });
     expect(read.stderr).toBe("");
     const pyRows = JSON.parse(read.stdout) as unknown[][];
-    expect(pyRows.filter((r) => r[2] === "casson").map((r) => r[12])).toEqual([null, null]);
-    expect(pyRows.length).toBe(rows.length - 1);
+    expect(pyRows.filter((r) => r[col("Model")] === "Casson").map((r) => r[col("Standard error")])).toEqual([null, null]);
   });
 });

@@ -40,7 +40,8 @@ describe("resultTables(run): fit tables", () => {
 
   test("η0 outside the measured rates: empty value, not determined, the note gives η0 ≥ the highest viscosity", () => {
     const t = tables.find((x) => x.id === "verdict" && x.scope === "210 °C, D 1 mm")!;
-    const eta0 = t.rows.find((r) => r[0] === "η₀")!;
+    const eta0 = t.rows.find((r) => r[col(t, "parameter")] === "η₀")!;
+    expect(eta0[col(t, "model")]).toBe("Cross");
     expect(eta0[col(t, "value")]).toBeNull();
     expect(eta0[col(t, "determined")]).toBe(false);
     const etaMax = Math.max(...run.result.groups[1]!.flowCurve.map((f) => f.viscosity ?? 0));
@@ -58,7 +59,7 @@ describe("resultTables(run): fit tables", () => {
     expect(tables.find((x) => x.id === "masterFitFactors")!.rows).toHaveLength(3);
     const j = tables.find((x) => x.id === "rotationalJoin")!;
     expect(j.notes?.[0]).toMatch(/^Overlap 23\.9–30 1\/s: rotational\/capillary /);
-    expect(j.rows.find((r) => r[0] === "η₀")?.[col(j, "determined")]).toBe(true);
+    expect(j.rows.find((r) => r[col(j, "parameter")] === "η₀")?.[col(j, "determined")]).toBe(true);
   });
 
   test("no cell is NaN or infinite; rows as wide as the header", () => {

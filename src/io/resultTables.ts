@@ -176,19 +176,19 @@ function parameterRow(
   ];
 }
 
-/** The recommended model of each group (the one verdict), parameter by parameter. */
-function verdictTable(label: string, verdict: Verdict, id = "verdict"): ResultTable {
+/** The recommended model of each group (the one verdict), parameter by parameter; the status and reason in the notes. */
+function verdictTable(label: string, verdict: Verdict, id = "verdict", title = "Recommended model"): ResultTable {
   const fit: FitResult | null = verdict.fit;
-  const title = verdict.recommended ? `Recommended model: ${modelName(verdict.recommended)} (${VERDICT_WORDS[verdict.status]})` : "No model fitted";
   const stats = fit ? `R² ${Number.isFinite(fit.r2) ? fit.r2.toFixed(r2Digits([fit.r2])) : "undefined"}, RMS error of ln η ${Number(fit.rmse.toPrecision(3))}, ${fit.pointCount} points, fitted rates ${Number(fit.shearRateRange[0].toPrecision(3))}–${Number(fit.shearRateRange[1].toPrecision(3))} 1/s (the curve is an extrapolation outside them).` : "";
+  const status = verdict.recommended ? `${modelName(verdict.recommended)}: ${VERDICT_WORDS[verdict.status]}.` : "No model fitted.";
   return {
     id,
     title,
     scope: label,
-    columns: [...PARAMETER_COLUMNS],
-    rows: fit ? getModel(fit.model).parameters.map((p) => parameterRow(p, fit)) : [],
-    notes: [verdict.reason, ...(stats ? [stats] : []), "Empty value: not determined by the data (an extrapolation); the note gives the bound the data support."],
-    keyColumns: ["parameter", "value", "determined"],
+    columns: [text("model", "Model"), ...PARAMETER_COLUMNS],
+    rows: fit ? getModel(fit.model).parameters.map((p) => [modelName(fit.model), ...parameterRow(p, fit)]) : [],
+    notes: [status, verdict.reason, ...(stats ? [stats] : []), "Empty value: not determined by the data (an extrapolation); the note gives the bound the data support."],
+    keyColumns: ["model", "parameter", "value", "determined"],
   };
 }
 
@@ -529,10 +529,11 @@ function masterFitTables(run: ReductionRun): ResultTable[] {
   return [
     {
       id: "masterFit",
-      title: `Fit across temperatures: ${modelName(m.model)}${m.model === "cross-wlf" ? "" : ` × ${m.law === "arrhenius" ? "Arrhenius" : "WLF"}`}`,
+      title: "Fit across temperatures",
       columns: [...PARAMETER_COLUMNS],
       rows,
       notes: [
+        `${modelName(m.model)}${m.model === "cross-wlf" ? " (its own WLF law)" : ` × ${m.law === "arrhenius" ? "Arrhenius" : "WLF"}`}.`,
         `${tref}; ${temps} °C; die diameter ${Number((m.dieDiameter * MM).toPrecision(4))} mm; ${m.pointCount} points; reduced rates ${Number(m.reducedShearRateRange[0].toPrecision(3))}–${Number(m.reducedShearRateRange[1].toPrecision(3))} 1/s.`,
         `${m.converged ? "Converged" : `NOT converged (${m.stopReason})`}; ${m.wellDetermined ? "every parameter determined by the data" : "not every parameter is determined by the data"}; R² ${Number.isFinite(m.r2) ? m.r2.toFixed(r2Digits([m.r2])) : "undefined"}.`,
       ],
@@ -540,7 +541,7 @@ function masterFitTables(run: ReductionRun): ResultTable[] {
     },
     {
       id: "masterFitFactors",
-      title: "Fit across temperatures: shift factors",
+      title: "Fit across temperatures, aT",
       columns: [num("temperature", "Temperature", "°C"), num("aT", "Shift factor aT", "", 4)],
       rows: m.factors.map((f) => [celsius(f.temperature), v(f.aT)]),
     },
@@ -551,12 +552,12 @@ function masterFitTables(run: ReductionRun): ResultTable[] {
 function joinedTable(run: ReductionRun): ResultTable | null {
   const j = run.joined;
   if (!j) return null;
-  const t = verdictTable(`rotational + capillary${j.temperature === null ? "" : `, ${Number((j.temperature - 273.15).toPrecision(5))} °C`}`, j.fits.verdict, "rotationalJoin");
+  const t = verdictTable(`rotational + capillary${j.temperature === null ? "" : `, ${Number((j.temperature - 273.15).toPrecision(5))} °C`}`, j.fits.verdict, "rotationalJoin", "Rotational and capillary joined");
   const o = j.join.overlap;
   const overlap = o
     ? `Overlap ${Number(o.shearRateMin.toPrecision(3))}–${Number(o.shearRateMax.toPrecision(3))} 1/s: rotational/capillary ${Number(o.ratio.toPrecision(3))} (largest deviation ${Number((100 * o.maxDeviation).toPrecision(3))} %, ${o.withinTolerance ? "within" : "OUTSIDE"} the tolerance).`
     : "The rotational and capillary curves share no rate range: their agreement is not checked.";
-  return { ...t, title: `Rotational + capillary: ${t.title.charAt(0).toLowerCase()}${t.title.slice(1)}`, notes: [overlap, `${j.join.shearRate.length} points (${j.join.source.filter((x) => x === "rotational").length} rotational) joined with ${j.groups.join(", ")}.`, ...(t.notes ?? [])] };
+  return { ...t, notes: [overlap, `${j.join.shearRate.length} points (${j.join.source.filter((x) => x === "rotational").length} rotational) joined with ${j.groups.join(", ")}.`, ...(t.notes ?? [])] };
 }
 
 /** The warnings table: every warning of the run, most serious first. */
