@@ -15,6 +15,8 @@
  *      solve, statistics). When /usr/bin/python3 has scipy, scripts/bench_scipy.py
  *      fits the same points with the same residuals (ln η), coordinates (ln p), start and
  *      tolerances, and the ratio scipy/ours is printed; otherwise that line says why it is skipped.
+ *   1b. fitMasterCurve: Carreau–Yasuda × Arrhenius on three curves next to scipy's least_squares
+ *      on the same problem, in alternating rounds (scripts/bench/masterFitBench.ts).
  *   2. reduce() of 4 dies × 10 piston speeds (Bagley, Rabinowitsch "transition") and a
  *      Carreau–Yasuda fit of the corrected flow curve.
  *   3. RHEO.WALLSTRESSAPP filled down a 10 000-row column: 10 000 calls with 1×1 ranges in one
@@ -45,6 +47,7 @@ import { wallStressApp } from "../src/functions/functions";
 import { inputBench } from "./bench/inputBench";
 import { detectTraceSteps, stepMeasurements, type TraceRun } from "../src/core/steps";
 import { syntheticRun } from "../test/helpers/syntheticTrace";
+import { benchMasterFit } from "./bench/masterFitBench";
 
 /** The issue's targets. */
 export const BENCH_TARGETS = Object.freeze({
@@ -369,6 +372,11 @@ function main(): void {
       `η∞ = ${(ours.parameters.etaInf as number).toPrecision(3)} Pa·s. One solver run with all five parameters free, η∞ in linear coordinates ` +
       "kept ≥ 0 by projection (so it could stop on its bound 0); scipy is given the same five-parameter problem.",
   );
+
+  // 1b. the fit across temperatures next to scipy on the same problem (scripts/bench/masterFitBench.ts)
+  const master = benchMasterFit(QUICK);
+  lines.push(...master.lines);
+  notes.push(...master.notes);
 
   // 2. reduction
   const measurements = reductionData();

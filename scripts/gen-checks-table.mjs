@@ -44,6 +44,7 @@ export const EXEMPT_MODULES = {
   "fit/index": "re-exports only",
   "fit/options": "defaults only",
   "fit/validate": "input checks, no calculation",
+  "fit/extrapolation": "compares rates with the fitted range, no calculation",
   "models/index": "registry of the models",
   "models/types": "types only",
   "models/parameterSpec": "types only",

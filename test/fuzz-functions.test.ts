@@ -250,6 +250,7 @@ function validCall(id: string, s: Scenario): unknown[] | undefined {
     case "COMPAREFITS": return [column(wall), column(eta), column(["power-law", "cross"])];
     case "SHIFT": return [column(temps), [[210]], "arrhenius", [[45000]]];
     case "SHIFTFIT": return [column(temps.flatMap((T) => wall.map(() => T))), column(temps.flatMap(() => wall)), column(temps.flatMap((T) => wall.map((g) => aT(T) * s.K * (aT(T) * g) ** (s.n - 1)))), [[210]]];
+    case "MASTERFIT": return [column(temps.flatMap((T) => wall.map(() => T))), column(temps.flatMap(() => wall)), column(temps.flatMap((T) => wall.map((g) => aT(T) * s.K * (aT(T) * g) ** (s.n - 1)))), "power-law", "arrhenius", [[210]]];
     case "SLITSHEARRATEAPP": return [column(flows), [[10]], [[1]]];
     case "SLITWALLSTRESS": return [column(stress.map((t) => bar(t, 20))), [[1]], [[20]]];
     case "ORIFICEPRESSURE": return [column([10, 1000]), column([1, 100]), column(rates)];

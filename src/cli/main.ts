@@ -7,7 +7,7 @@ import { RheoError } from "../core/errors";
 import { parseArgs } from "./args";
 import { safeMessage } from "../io/safeText";
 import type { CliIO } from "./io";
-import { type CommandOutput, REDUCE_FLAGS, reduceRequestFromFlags, runRecordingReduce, runReduce } from "./reduceCommand";
+import { type CommandOutput, REDUCE_FLAGS, readRotationalFile, reduceRequestFromFlags, runRecordingReduce, runReduce } from "./reduceCommand";
 import { readReduceInput } from "./reduceInput";
 import { planOutputs, writeReduceOutputs } from "./reduceOutputs";
 import { runPlanCommand } from "./planCommand";
@@ -86,11 +86,13 @@ export function main(argv: string[], io: CliIO): number | Promise<number> {
       io.stderr(`rheoledger reduce: give exactly one point table (CSV file or xlsx workbook); only pressure recordings (a "time [s]" column) are read several at a time\n\n${USAGE}`);
       return 2;
     }
+    // the rotational curve to join (--rotational FILE.csv), read before the main input
+    const rotational = request.input.rotational !== undefined ? readRotationalFile(request.input.rotational, io) : undefined;
     const started = performance.now();
     const input = readReduceInput(io, file, args, request.input);
     if (!(input instanceof Promise)) io.timing?.("read", performance.now() - started);
-    if (input instanceof Promise) return input.then((raw) => finish(runReduce(raw, args, request))).catch((e: unknown) => failed(e, io));
-    return finish(runReduce(input, args, request));
+    if (input instanceof Promise) return input.then((raw) => finish(runReduce(raw, args, request, rotational))).catch((e: unknown) => failed(e, io));
+    return finish(runReduce(input, args, request, rotational));
   } catch (e) {
     return failed(e, io);
   }

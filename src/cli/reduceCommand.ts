@@ -9,6 +9,10 @@ import { groupLabel, type ReductionGroup, type ReductionResult, type ReduceOptio
 import { runReduction, type ReductionRun } from "../core/run";
 import { rowAccountText } from "../core/rowAccount";
 import type { ReduceInput } from "./reduceInput";
+import { parseCsv } from "../io/csv";
+import { readRotationalTable } from "../io/rotationalTable";
+import type { RotationalCurve } from "../core/rotationalJoin";
+import { readInputText } from "./io";
 import { CLI_SETTINGS_SOURCE, readReduceSettings, reduceSetting, reduceSettingOfFlag, type ReduceRequest } from "../io/reduceOptions";
 import { reduceSettingFlags } from "../io/reduceSettingWords";
 import { FlagSpec, ParsedArgs } from "./args";
@@ -162,16 +166,38 @@ export function warningsText(warnings: Warning[]): string {
 }
 
 /**
+ * Reads the `--rotational FILE.csv` curve (src/io/rotationalTable.ts), decoded like any input
+ * text; errors name the flag, the file's line and column.
+ */
+export function readRotationalFile(path: string, io: CliIO): { curve: RotationalCurve; warnings: Warning[] } {
+  const { text, warnings } = readInputText(io, path);
+  const csv = parseCsv(text, path);
+  const first = csv.lines[0];
+  if (!first) throw new RheoError("missing", "--rotational", `${path} is empty`);
+  const table = readRotationalTable(
+    csv.lines.map((l) => l.cells),
+    { rowWord: "line", headerNumber: first.line, rowNumbers: csv.lines.map((l) => l.line), argument: "--rotational" },
+  );
+  return { curve: table.curve, warnings: [...warnings, ...table.warnings] };
+}
+
+/**
  * Runs `reduce` on the table read from the input file (reduceInput.ts), with the request read from
  * the flags ({@link reduceRequestFromFlags}; its input part was used to read the table).
  */
-export function runReduce(raw: ReduceInput, args: ParsedArgs, request: ReduceRequest = reduceRequestFromFlags(args)): CommandOutput {
+export function runReduce(
+  raw: ReduceInput,
+  args: ParsedArgs,
+  request: ReduceRequest = reduceRequestFromFlags(args),
+  rotational?: { curve: RotationalCurve; warnings: Warning[] },
+): CommandOutput {
   refuseStepSettings(request, raw.description);
   if (typeof args.flags.get("blank") === "string") throw new RheoError("value", "--blank", `subtracts barrel friction from pressure recordings (a file with a "time [s]" column); ${raw.description} is a point table`, undefined, "SETTING_NOT_USED_HERE");
+  const inputWarnings = [...raw.warnings, ...(rotational?.warnings ?? [])];
   let run: ReductionRun;
   const started = performance.now();
   try {
-    run = runReduction(raw.measurements, request.options, { ...request.fits, rank: wantsRanking(args) }, raw.warnings);
+    run = runReduction(raw.measurements, request.options, { ...request.fits, rank: wantsRanking(args), ...(rotational ? { rotational: rotational.curve } : {}) }, inputWarnings);
   } catch (e) {
     throw asFlagError(e);
   }
@@ -193,11 +219,12 @@ export function runRecordingReduce(files: InputFile[], args: ParsedArgs, io: Cli
   const blankFile = args.flags.get("blank");
   const recordings = readRecordings(files, request.input);
   const blank = typeof blankFile === "string" ? readBlankFile(io, blankFile) : undefined;
-  const inputWarnings = [...recordings.warnings, ...(blank?.warnings ?? [])];
+  const rotational = request.input.rotational !== undefined ? readRotationalFile(request.input.rotational, io) : undefined;
+  const inputWarnings = [...recordings.warnings, ...(blank?.warnings ?? []), ...(rotational?.warnings ?? [])];
   let run: ReductionRun;
   const started = performance.now();
   try {
-    run = runTraceReduction(recordings.runs, request.steps, request.options, { ...request.fits, rank: wantsRanking(args) }, inputWarnings, blank?.blank);
+    run = runTraceReduction(recordings.runs, request.steps, request.options, { ...request.fits, rank: wantsRanking(args), ...(rotational ? { rotational: rotational.curve } : {}) }, inputWarnings, blank?.blank);
   } catch (e) {
     throw asFlagError(e);
   }

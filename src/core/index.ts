@@ -34,3 +34,6 @@ export * from "./reduceMethods";
 export * from "./compressionTime";
 export * from "./steps";
 export * from "./traceRun";
+export * from "./flowCurveFits";
+export * from "./rotationalJoin";
+export * from "./joinedFit";

@@ -95,6 +95,21 @@ export const WARNING_CODES = Object.freeze({
   REFERENCE_OUTSIDE_DATA: "caution",
   WLF_C2_UNIVERSAL: "info",
   WLF_C2_POORLY_DETERMINED: "caution",
+  ZERO_SHEAR_NOT_DETERMINED: "caution",
+  ONSET_NOT_DETERMINED: "caution",
+  NO_WELL_DETERMINED_MODEL: "caution",
+  VERDICT_FAMILIES_DIFFER: "caution",
+  FIT_EXACT: "info",
+  R2_UNDEFINED: "info",
+  EXTRAPOLATED: "caution",
+  OUTPUT_VALUE_UNDEFINED: "caution",
+  MASTER_C2_HELD: "info",
+  MASTER_PRESSURE_TERM_HELD: "info",
+
+  // Rotational data joined to the capillary curve
+  COX_MERZ_APPLIED: "info",
+  ROTATIONAL_OVERLAP_MISMATCH: "caution",
+  ROTATIONAL_NO_OVERLAP: "caution",
 
   // Planner and lot check
   PLAN_PRESSURE_OVER_FULL_SCALE: "serious",

@@ -75,9 +75,10 @@ export function reduceTable(a: ReduceArgs): unknown[][] {
     throw new RheoError("missing", "rawData", "needs a header row and at least one data row");
   }
   const cells = a.rawData.map((row: unknown) => (Array.isArray(row) ? (row as unknown[]) : [row]));
-  const fitKeys = (["model", "compare", "shift", "referenceTemperature"] as const).filter((k) => request.fits[k === "referenceTemperature" ? "shift" : k] !== undefined);
+  const fitKeys: string[] = (["model", "compare", "shift", "referenceTemperature", "material", "master"] as const).filter((k) => request.fits[k === "referenceTemperature" ? "shift" : k] !== undefined);
+  if (request.input.rotational !== undefined) fitKeys.push("rotational");
   if (fitKeys.length > 0) {
-    throw new RheoError("value", `settings ${fitKeys[0]}`, "RHEO.REDUCE spills the flow curve only; fit models with RHEO.FIT or RHEO.COMPAREFITS and shift with RHEO.SHIFTFIT", undefined, "SETTING_NOT_USED_HERE");
+    throw new RheoError("value", `settings ${fitKeys[0]}`, "RHEO.REDUCE spills the flow curve only; fit models with RHEO.FIT or RHEO.COMPAREFITS, across temperatures with RHEO.MASTERFIT, and shift with RHEO.SHIFTFIT", undefined, "SETTING_NOT_USED_HERE");
   }
   if (isTraceHeader(cells[0] ?? [])) {
     throw new RheoError("value", "rawData", "is a pressure recording (it has a time column); find its steady steps with RHEO.PLATEAUS per die run, or reduce the recording with the command line (rheoledger reduce) or the task pane", undefined, "SETTING_NOT_USED_HERE");
@@ -113,7 +114,8 @@ function pointRun(cells: unknown[][], request: ReduceRequest): { result: Reducti
   if (stepKey !== undefined) {
     throw new RheoError("value", `settings ${stepKey}`, "applies to pressure recordings, which RHEO.REDUCE does not read (use the command line or the task pane)", undefined, "SETTING_NOT_USED_HERE");
   }
-  const raw = readRawTable(cells, { rowWord: "row", headerNumber: 1, ...request.input });
+  const { rotational: _rotational, ...input } = request.input;
+  const raw = readRawTable(cells, { rowWord: "row", headerNumber: 1, ...input });
   const result = reduce(raw.measurements, request.options);
   return { result, warnings: [...raw.warnings, ...result.warnings] };
 }

@@ -40,6 +40,12 @@ export const PARAMETER_SYMBOLS: Readonly<Record<string, string>> = Object.freeze
   Tstar: "T*",
   A1: "A1",
   A2: "A2",
+  D2: "D2",
+  D3: "D3",
+  A2tilde: "Ã2",
+  activationEnergy: "Ea",
+  c1: "c1",
+  c2: "c2",
 });
 
 /** The display name of a model id (the id itself when unknown). */

@@ -19,6 +19,8 @@ import { DEFAULT_ORIFICE_OPTIONS } from "../core/orifice";
 import { getModel, type ModelId } from "../core/models";
 import type { FitRequest } from "../core/run";
 import type { StepOptions } from "../core/steps/options";
+import { MATERIAL_CLASSES, type MaterialClass } from "../core/flowCurveFits";
+import { MASTER_MODELS, type MasterModel } from "../core/temperature/masterFit";
 import { excerpt, readNumberText, readQuantityText } from "./numberText";
 
 /** What kind of value a setting takes. */
@@ -96,6 +98,10 @@ export const REDUCE_SETTINGS: readonly ReduceSettingSpec[] = Object.freeze<Reduc
   { key: "referenceTemperature", flag: "tref", kind: { type: "quantity", quantity: "temperature", positive: true }, unit: "°C", section: "fits" },
   { key: "glassTransitionTemperature", flag: "tg", kind: { type: "quantity", quantity: "temperature", positive: true }, unit: "°C", section: "fits" },
   { key: "verticalShift", flag: "vertical-shift", kind: { type: "quantity", quantity: "inverseTemperature", positive: false }, unit: "1/K", section: "fits" },
+  { key: "material", flag: "material", kind: { type: "choice", choices: MATERIAL_CLASSES }, section: "fits" },
+  { key: "master", flag: "master", kind: { type: "choice", choices: MASTER_MODELS }, section: "fits" },
+  { key: "crossWlfD2", flag: "d2", kind: { type: "quantity", quantity: "temperature", positive: true }, unit: "°C", section: "fits" },
+  { key: "rotational", flag: "rotational", kind: { type: "text" }, section: "fits" },
   { key: "si", flag: "si", kind: { type: "switch" }, section: "input" },
 ]);
 
@@ -117,8 +123,11 @@ export function reduceSettingOfFlag(flag: string): ReduceSettingSpec | undefined
 /** What the reader hands back: the core's options, the reading options, the fits, the step detection's settings. */
 export interface ReduceRequest {
   options: Partial<ReduceOptions>;
-  /** defaults for the table reader when a column is absent, SI */
-  input: { barrelDiameter?: number; density?: number };
+  /**
+   * defaults for the table reader when a column is absent, SI; `rotational`: where the rotational
+   * curve is (a file path on the command line, a range on the pane), read by the surface
+   */
+  input: { barrelDiameter?: number; density?: number; rotational?: string };
   fits: FitRequest;
   /** step detection of a pressure recording (src/core/steps/options.ts), SI; empty when none given */
   steps: Partial<StepOptions>;
@@ -462,8 +471,13 @@ function buildRequest(
     }
   }
   const model = get<ModelId>("model");
+  let master = get<MasterModel>("master");
   if (model !== undefined) {
-    if (getModel(model).needsTemperature) fail(new RheoError("value", nameOfKey("model"), `${model} needs a temperature per point; fit each group with an isothermal model, or use a temperature shift`));
+    if (model === "cross-wlf") {
+      // Cross-WLF carries its own temperature law: --model cross-wlf is its fit across temperatures.
+      if (master !== undefined && master !== "cross-wlf") fail(new RheoError("value", nameOfKey("model"), `cross-wlf is fitted across temperatures, and ${nameOfKey("master")} asks for ${master}; give one of them`));
+      else master = "cross-wlf";
+    } else if (getModel(model).needsTemperature) fail(new RheoError("value", nameOfKey("model"), `${model} needs a temperature per point; fit each group with an isothermal model, or use a temperature shift`));
     else fits.model = model;
   }
   const compare = get<ModelId[]>("compare");
@@ -487,12 +501,24 @@ function buildRequest(
     }
   } else {
     if (tref !== undefined && src.requireReferenceTemperature) {
-      fail(new RheoError("value", nameOfKey("referenceTemperature"), `is the reference temperature of ${nameOfKey("shift")}; give ${nameOfKey("shift")} arrhenius or wlf too`));
+      fail(new RheoError("value", nameOfKey("referenceTemperature"), `is the reference temperature of ${nameOfKey("shift")}; give ${nameOfKey("shift")} arrhenius or wlf too${master === "cross-wlf" ? ` (Cross-WLF's own reference temperature is D2: ${nameOfKey("crossWlfD2")})` : ""}`));
     }
     for (const key of ["glassTransitionTemperature", "verticalShift"] as const) {
       if (get<number>(key) !== undefined && src.requireReferenceTemperature) fail(new RheoError("value", nameOfKey(key), `belongs to the temperature shift; give ${nameOfKey("shift")} too`));
     }
   }
+  const material = get<MaterialClass>("material");
+  if (material !== undefined) fits.material = material;
+  const d2 = get<number>("crossWlfD2");
+  if (d2 !== undefined && master !== "cross-wlf") fail(new RheoError("value", nameOfKey("crossWlfD2"), `is Cross-WLF's D2 (T*); it goes with ${nameOfKey("master")} cross-wlf`));
+  if (master === "cross-wlf") fits.master = { model: master, law: null, referenceTemperature: null, ...(d2 !== undefined ? { D2: d2 } : {}) };
+  else if (master !== undefined) {
+    if (shift === undefined || shift === "none") {
+      fail(new RheoError("missing", nameOfKey("shift"), `is the temperature law of ${nameOfKey("master")} ${master}: arrhenius or wlf (only cross-wlf carries its own)`));
+    } else fits.master = { model: master, law: shift as "arrhenius" | "wlf", referenceTemperature: tref ?? null };
+  }
+  const rotational = get<string>("rotational");
+  if (rotational !== undefined) input.rotational = rotational;
   return { options: o, input, fits, steps };
 }
 

@@ -9,7 +9,8 @@ import { DEFAULT_RABINOWITSCH_OPTIONS } from "../core/rabinowitsch";
 import { DEFAULT_UNCERTAINTY_OPTIONS } from "../core/uncertainty";
 import { DEFAULT_UNCERTAINTY_BUDGET_OPTIONS } from "../core/uncertaintyBudget";
 import { MODEL_IDS } from "../core/models";
-import { DEFAULT_FLOW_CURVE_MODELS } from "../core/flowCurveFits";
+import { DEFAULT_FLOW_CURVE_MODELS, defaultModels } from "../core/flowCurveFits";
+import { MASTER_MODELS } from "../core/temperature/masterFit";
 import { REDUCE_SETTINGS } from "./reduceOptions";
 import { DEFAULT_REDUCE_OPTIONS } from "../core/reduceTypes";
 import { DEFAULT_STEP_OPTIONS } from "../core/steps/options";
@@ -202,11 +203,11 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
   },
   model: {
     label: "Model",
-    help: `fit a viscosity model to each group's true flow curve: ${MODEL_IDS.filter((id) => id !== "cross-wlf").join(", ")}`,
+    help: `fit one viscosity model to each group's true flow curve: ${MODEL_IDS.join(", ")} (cross-wlf is fitted across the temperatures, as --master cross-wlf)`,
   },
   compare: {
     label: "Models to compare",
-    help: `rank models by AIC per group, e.g. power-law,cross,carreau-yasuda (default set: ${DEFAULT_FLOW_CURVE_MODELS.join(", ")})`,
+    help: `rank models by AIC per group, e.g. power-law,cross,carreau-yasuda (default: ${defaultModels("melt").join(", ")}; a paste adds ${DEFAULT_FLOW_CURVE_MODELS.filter((m) => !defaultModels("melt").includes(m)).join(", ")})`,
   },
   shift: {
     label: "Temperature shift",
@@ -228,6 +229,33 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
   verticalShift: {
     label: "Vertical shift (melt expansion)",
     help: 'apply the vertical shift ρ(T)T/(ρref·Tref) to the viscosities, with the melt\'s volumetric expansion coefficient, e.g. "7e-4 1/K" (0: T/Tref only)',
+  },
+  material: {
+    label: "Material class",
+    help: "melt (default) or paste: yield-stress models and a free infinite-shear viscosity only for a paste or suspension (or when named)",
+    choiceHelp: {
+      melt: "Polymer melt: power law to Carreau–Yasuda with η∞ held at 0; no yield stress unless a yield-stress model is named.",
+      paste: "Paste, suspension or gel: adds Bingham, Herschel–Bulkley and Casson to the default models and fits η∞.",
+    },
+  },
+  master: {
+    label: "Fit across temperatures",
+    help: `fit one model to every temperature at once with the --shift law: ${MASTER_MODELS.join(", ")} (cross-wlf needs no --shift)`,
+    choiceHelp: {
+      "power-law": "Power law × the temperature law: K and n at Tref with Ea (or c1, c2).",
+      cross: "Cross × the temperature law: η0, λ and m at Tref with Ea (or c1, c2).",
+      carreau: "Carreau × the temperature law: η0, λ and n at Tref with Ea (or c1, c2).",
+      "carreau-yasuda": "Carreau–Yasuda × the temperature law: η0, λ, n and a at Tref with Ea (or c1, c2).",
+      "cross-wlf": "Cross-WLF (Hieber & Shen 1980) with its moulding-simulation constants n, τ*, D1, D2, D3 (held 0), A1, Ã2 (51.6 K).",
+    },
+  },
+  crossWlfD2: {
+    label: "Cross-WLF D2 (T*)",
+    help: 'hold Cross-WLF\'s D2 = T* (commonly the glass transition), e.g. "-20 C"; without it D2 is fitted',
+  },
+  rotational: {
+    label: "Rotational data",
+    help: "rotational-rheometer curve to join (CSV: angular_frequency [rad/s] + complex_viscosity [Pa.s], or shear_rate [1/s] + viscosity [Pa.s]; optional temperature [C])",
   },
   si: {
     label: "Bare numbers are SI",

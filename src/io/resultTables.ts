@@ -13,13 +13,18 @@
 import type { Warning } from "../core/errors";
 import { groupLabel, type ReductionGroup } from "../core/reduce";
 import type { ReductionRun } from "../core/run";
-import { evaluateModel, getModel } from "../core/models";
+import { evaluateModel, getModel, type ParameterSpec } from "../core/models";
+import type { FitResult } from "../core/fit";
+import type { Undetermined } from "../core/fit/determination";
+import type { Verdict } from "../core/fit/verdict";
+import { CROSS_WLF_LITERATURE } from "../core/temperature/masterFit";
 import { displayUnit, modelName, parameterSymbol } from "./displayNames";
 import { DEFAULT_REDUCE_OPTIONS } from "../core/reduceTypes";
 import type { RunSteps } from "../core/steps/runSteps";
 import { runsByGroup } from "../core/steps/groupSteps";
 import { stepNote } from "./stepRecord";
 import { UNCERTAINTY_SOURCES, type UncertaintySource } from "../core/uncertaintyBudget";
+import { r2Digits, undeterminedText } from "./fitFormat";
 
 /** One cell: a number in the column's unit, text, a flag, or null for an empty cell. */
 export type ResultCell = number | string | boolean | null;
@@ -83,7 +88,7 @@ function groupsTable(run: ReductionRun): ResultTable {
   const rows = run.result.groups.map((g, i): ResultCell[] => {
     const rates = g.flowCurve.map((f) => f.shearRateWall).filter((x): x is number => x !== null);
     const etas = g.flowCurve.map((f) => f.viscosity).filter((x): x is number => x !== null);
-    const best = run.comparisons?.[i]?.ranked[0];
+    const verdict = run.groupFits[i]?.verdict;
     return [
       groupLabel(g),
       celsius(g.temperature),
@@ -94,7 +99,8 @@ function groupsTable(run: ReductionRun): ResultTable {
       rates.length ? Math.max(...rates) : null,
       etas.length ? Math.min(...etas) : null,
       etas.length ? Math.max(...etas) : null,
-      best ? modelName(best.model) : null,
+      verdict?.recommended ? modelName(verdict.recommended) : null,
+      verdict ? VERDICT_WORDS[verdict.status] : null,
       run.warnings.filter((w) => w.scope === groupLabel(g)).length,
     ];
   });
@@ -111,12 +117,79 @@ function groupsTable(run: ReductionRun): ResultTable {
       num("shearRateWallMax", "True wall rate, highest", "1/s"),
       num("viscosityMin", "Viscosity, lowest", "Pa·s"),
       num("viscosityMax", "Viscosity, highest", "Pa·s"),
-      text("bestModel", "Lowest-AIC model"),
+      text("recommendedModel", "Recommended model"),
+      text("verdict", "Verdict"),
       num("warnings", "Warnings", ""),
     ],
     rows,
     notes: run.result.groups.some((g) => g.geometry === "slit") ? ["Slit groups have no die diameter; their label gives width × height."] : undefined,
-    keyColumns: ["group", "points", "viscosityMin", "viscosityMax"],
+    keyColumns: ["group", "points", "viscosityMin", "viscosityMax", "recommendedModel"],
+  };
+}
+
+/** The verdict's status in words. */
+const VERDICT_WORDS: Readonly<Record<Verdict["status"], string>> = Object.freeze({
+  "well-determined": "well determined",
+  "not-well-determined": "no model well determined",
+  none: "no model fitted",
+});
+
+/** Columns of a parameter table (one fit). */
+const PARAMETER_COLUMNS: readonly ResultColumn[] = Object.freeze([
+  text("parameter", "Parameter"),
+  text("unit", "Unit (SI)"),
+  num("value", "Value", ""),
+  num("standardError", "Standard error", "", 3),
+  num("ci95Low", "95 % interval, low", ""),
+  num("ci95High", "95 % interval, high", ""),
+  flag("fixed", "Held fixed"),
+  flag("determined", "Determined by the data"),
+  text("note", "Note"),
+]);
+
+/**
+ * One parameter row: a value outside the measured rates is left empty (it is an extrapolation) and
+ * the note gives the bound the data support; a held parameter has no uncertainty.
+ */
+function parameterRow(
+  spec: Pick<ParameterSpec, "name" | "unit">,
+  fit: { parameters: Record<string, number>; standardErrors: Record<string, number>; confidenceIntervals: Record<string, [number, number]>; determined: Record<string, boolean>; undetermined: Record<string, Undetermined>; fixed: string[] },
+  value = fit.parameters[spec.name],
+  held = fit.fixed.includes(spec.name),
+): ResultCell[] {
+  const u: Undetermined | undefined = fit.undetermined[spec.name];
+  const outside = u?.outsideData === true;
+  const ci = fit.confidenceIntervals[spec.name];
+  const se = fit.standardErrors[spec.name];
+  const notes: string[] = [];
+  if (!held && u) notes.push(undeterminedText(u, displayUnit(spec.unit) || "1"));
+  if (!held && !outside && se !== undefined && !Number.isFinite(se)) notes.push("no standard error: the data cannot separate it (singular covariance)");
+  return [
+    parameterSymbol(spec.name),
+    displayUnit(spec.unit),
+    outside ? null : v(value),
+    held || outside ? null : v(se),
+    ci && !outside ? v(ci[0]) : null,
+    ci && !outside ? v(ci[1]) : null,
+    held,
+    fit.determined[spec.name] === true,
+    notes.join("; "),
+  ];
+}
+
+/** The recommended model of each group (the one verdict), parameter by parameter; the status and reason in the notes. */
+function verdictTable(label: string, verdict: Verdict, id = "verdict", title = "Recommended model"): ResultTable {
+  const fit: FitResult | null = verdict.fit;
+  const stats = fit ? `R² ${Number.isFinite(fit.r2) ? fit.r2.toFixed(r2Digits([fit.r2])) : "undefined"}, RMS error of ln η ${Number(fit.rmse.toPrecision(3))}, ${fit.pointCount} points, fitted rates ${Number(fit.shearRateRange[0].toPrecision(3))}–${Number(fit.shearRateRange[1].toPrecision(3))} 1/s (the curve is an extrapolation outside them).` : "";
+  const status = verdict.recommended ? `${modelName(verdict.recommended)}: ${VERDICT_WORDS[verdict.status]}.` : "No model fitted.";
+  return {
+    id,
+    title,
+    scope: label,
+    columns: [text("model", "Model"), ...PARAMETER_COLUMNS],
+    rows: fit ? getModel(fit.model).parameters.map((p) => [modelName(fit.model), ...parameterRow(p, fit)]) : [],
+    notes: [status, verdict.reason, ...(stats ? [stats] : []), "Empty value: not determined by the data (an extrapolation); the note gives the bound the data support."],
+    keyColumns: ["model", "parameter", "value", "determined"],
   };
 }
 
@@ -222,7 +295,9 @@ function rabinowitschTable(g: ReductionGroup): ResultTable {
 /** Measured viscosity beside the lowest-AIC model of the group's ranking, at the measured rates. */
 function viscosityModelTable(run: ReductionRun, g: ReductionGroup, i: number): ResultTable | null {
   if (!run.comparisons) return null;
-  const best = run.comparisons[i]?.ranked[0];
+  // the one verdict's model (src/core/fit/verdict.ts), drawn over the measured rates only
+  const verdict = run.groupFits[i]?.verdict;
+  const best = verdict?.fit ? { model: verdict.fit.model, result: verdict.fit } : undefined;
   const points = g.flowCurve.filter((f) => f.shearRateWall !== null && f.viscosity !== null) as { shearRateWall: number; viscosity: number }[];
   if (points.length === 0) return null;
   const model = best ? evaluateModel(best.model, best.result.parameters, points.map((p) => p.shearRateWall)) : null;
@@ -230,12 +305,12 @@ function viscosityModelTable(run: ReductionRun, g: ReductionGroup, i: number): R
     id: "viscosityModel",
     title: "Viscosity and model",
     scope: groupLabel(g),
-    columns: [num("shearRateWall", "True wall shear rate", "1/s"), num("viscosity", "Viscosity", "Pa·s"), text("model", "Lowest-AIC model"), num("viscosityModel", "Model viscosity", "Pa·s"), num("modelDeviation", "Model vs measured", "%", 3)],
+    columns: [num("shearRateWall", "True wall shear rate", "1/s"), num("viscosity", "Viscosity", "Pa·s"), text("model", "Recommended model"), num("viscosityModel", "Model viscosity", "Pa·s"), num("modelDeviation", "Model vs measured", "%", 3)],
     rows: points.map((p, k) => {
       const m = model?.[k] ?? null;
       return [p.shearRateWall, p.viscosity, best ? modelName(best.model) : null, v(m), m === null ? null : v((m / p.viscosity - 1) * 100)];
     }),
-    notes: [best ? `Model: ${modelName(best.model)}, the lowest AIC of the models ranked for this group (parameters in the model-fit tables).` : "No model was ranked for this group."],
+    notes: [best ? `Model: ${modelName(best.model)}, the recommended model of this group (${verdict?.status === "well-determined" ? "well determined" : "no model is well determined"}; parameters in the model-fit tables).` : "No model was ranked for this group."],
     keyColumns: ["shearRateWall", "viscosity", "viscosityModel"],
     chart: { kind: "viscosity", x: "shearRateWall", y: ["viscosity", "viscosityModel"], logX: true, logY: true },
   };
@@ -444,31 +519,19 @@ function fitParameterTable(run: ReductionRun): ResultTable | null {
       ...(run.comparisons?.[i]?.ranked ?? []).map((r, k) => ({ model: r.model, rank: k + 1 as number | null, result: r.result })),
     ];
     for (const f of fits) {
-      for (const p of getModel(f.model).parameters) {
-        const ci = f.result.confidenceIntervals[p.name];
-        const held = f.result.fixed.includes(p.name);
-        rows.push([groupLabel(g), modelName(f.model), f.rank, parameterSymbol(p.name), displayUnit(p.unit), v(f.result.parameters[p.name]), held ? null : v(f.result.standardErrors[p.name]), ci ? v(ci[0]) : null, ci ? v(ci[1]) : null, held]);
-      }
+      for (const p of getModel(f.model).parameters) rows.push([groupLabel(g), modelName(f.model), f.rank, ...parameterRow(p, f.result)]);
     }
   });
   if (rows.length === 0) return null;
   return {
     id: "fitParameters",
     title: "Model fits: parameters (SI units)",
-    columns: [
-      text("group", "Group"),
-      text("model", "Model"),
-      num("rank", "Rank by AIC", ""),
-      text("parameter", "Parameter"),
-      text("unit", "Unit (SI)"),
-      num("value", "Value", ""),
-      num("standardError", "Standard error", "", 3),
-      num("ci95Low", "95 % interval, low", ""),
-      num("ci95High", "95 % interval, high", ""),
-      flag("fixed", "Held fixed"),
-    ],
+    columns: [text("group", "Group"), text("model", "Model"), num("rank", "Rank by AIC", ""), ...PARAMETER_COLUMNS],
     rows,
-    notes: ["Empty standard error or interval: the parameter was held fixed, or the data cannot separate it (singular covariance)."],
+    notes: [
+      "Empty value: not determined by the data (outside the measured rates; the note gives the bound they support).",
+      "Empty standard error or interval: the parameter was held, or the data cannot separate it (singular covariance).",
+    ],
     keyColumns: ["model", "parameter", "value", "standardError"],
   };
 }
@@ -478,9 +541,11 @@ function fitRankingTable(run: ReductionRun): ResultTable | null {
   const rows: ResultCell[][] = [];
   run.result.groups.forEach((g, i) => {
     const c = run.comparisons?.[i];
-    c?.ranked.forEach((r, k) => rows.push([groupLabel(g), k + 1, modelName(r.model), v(r.aic), v(r.deltaAic), v(r.akaikeWeight), v(r.result.r2), v(r.result.rmse), r.result.converged, null]));
-    c?.failed.forEach((f) => rows.push([groupLabel(g), null, modelName(f.model), null, null, null, null, null, false, f.reason]));
+    c?.ranked.forEach((r, k) => rows.push([groupLabel(g), k + 1, modelName(r.model), v(r.aic), v(r.deltaAic), v(r.akaikeWeight), v(r.result.r2), v(r.result.rmse), r.result.converged, null, r.result.wellDetermined, c.verdict.recommended === r.model]));
+    c?.failed.forEach((f) => rows.push([groupLabel(g), null, modelName(f.model), null, null, null, null, null, false, f.reason, false, false]));
   });
+  // R² with enough digits that the models of the table differ (two significant digits of 1 − R²)
+  const r2s = (run.comparisons ?? []).flatMap((c) => c.ranked.map((r) => r.result.r2));
   return {
     id: "fitRanking",
     title: "Model fits: ranking by AIC",
@@ -491,13 +556,16 @@ function fitRankingTable(run: ReductionRun): ResultTable | null {
       num("aic", "AIC", "", 5),
       num("deltaAic", "ΔAIC", "", 3),
       num("akaikeWeight", "Akaike weight", "", 3),
-      num("r2", "R²", "", 6),
+      num("r2", "R²", "", r2Digits(r2s)),
       num("rmse", "RMS error of ln η", "", 3),
       flag("converged", "Converged"),
       text("reason", "Why not fitted"),
+      flag("wellDetermined", "Well determined"),
+      flag("recommended", "Recommended"),
     ],
     rows,
-    keyColumns: ["group", "rank", "model", "deltaAic"],
+    notes: ["Rank by AIC, not R²; the recommended model is the adequate (ΔAIC ≤ 10), well-determined model of lowest AIC, else the simplest adequate one (docs/methods.md)."],
+    keyColumns: ["group", "rank", "model", "deltaAic", "recommended"],
   };
 }
 
@@ -561,6 +629,52 @@ function masterTable(run: ReductionRun): ResultTable | null {
   };
 }
 
+/** The fit across temperatures: the model's parameters at T_ref and the law's constants, then a_T. */
+function masterFitTables(run: ReductionRun): ResultTable[] {
+  const m = run.master;
+  if (!m) return [];
+  const specs = m.model === "cross-wlf" ? CROSS_WLF_LITERATURE : getModel(m.model).parameters;
+  const lawSpecs: [ParameterSpec["name"], string, number | undefined][] = m.law === "arrhenius" ? [["activationEnergy", "J/mol", m.activationEnergy]] : [["c1", "1", m.c1], ["c2", "K", m.c2]];
+  const rows = [
+    ...specs.map((p) => parameterRow(p, m)),
+    ...lawSpecs.map(([name, unit, value]) => parameterRow({ name, unit }, m, value, m.fixed.includes(name) || (m.model === "cross-wlf" && name === "c2"))),
+  ];
+  const tref = `${m.model === "cross-wlf" ? "D2" : "T_ref"} = ${Number((m.referenceTemperature - 273.15).toPrecision(5))} °C`;
+  const temps = m.temperatures.map((t) => Number((t - 273.15).toPrecision(5))).join(", ");
+  return [
+    {
+      id: "masterFit",
+      title: "Fit across temperatures",
+      columns: [...PARAMETER_COLUMNS],
+      rows,
+      notes: [
+        `${modelName(m.model)}${m.model === "cross-wlf" ? " (its own WLF law)" : ` × ${m.law === "arrhenius" ? "Arrhenius" : "WLF"}`}.`,
+        `${tref}; ${temps} °C; die diameter ${Number((m.dieDiameter * MM).toPrecision(4))} mm; ${m.pointCount} points; reduced rates ${Number(m.reducedShearRateRange[0].toPrecision(3))}–${Number(m.reducedShearRateRange[1].toPrecision(3))} 1/s.`,
+        `${m.converged ? "Converged" : `NOT converged (${m.stopReason})`}; ${m.wellDetermined ? "every parameter determined by the data" : "not every parameter is determined by the data"}; R² ${Number.isFinite(m.r2) ? m.r2.toFixed(r2Digits([m.r2])) : "undefined"}.`,
+      ],
+      keyColumns: ["parameter", "value", "determined"],
+    },
+    {
+      id: "masterFitFactors",
+      title: "Fit across temperatures, aT",
+      columns: [num("temperature", "Temperature", "°C"), num("aT", "Shift factor aT", "", 4)],
+      rows: m.factors.map((f) => [celsius(f.temperature), v(f.aT)]),
+    },
+  ];
+}
+
+/** The rotational curve joined to the capillary one: the verdict on the joined curve, the overlap in the notes. */
+function joinedTable(run: ReductionRun): ResultTable | null {
+  const j = run.joined;
+  if (!j) return null;
+  const t = verdictTable(`rotational + capillary${j.temperature === null ? "" : `, ${Number((j.temperature - 273.15).toPrecision(5))} °C`}`, j.fits.verdict, "rotationalJoin", "Rotational and capillary joined");
+  const o = j.join.overlap;
+  const overlap = o
+    ? `Overlap ${Number(o.shearRateMin.toPrecision(3))}–${Number(o.shearRateMax.toPrecision(3))} 1/s: rotational/capillary ${Number(o.ratio.toPrecision(3))} (largest deviation ${Number((100 * o.maxDeviation).toPrecision(3))} %, ${o.withinTolerance ? "within" : "OUTSIDE"} the tolerance).`
+    : "The rotational and capillary curves share no rate range: their agreement is not checked.";
+  return { ...t, notes: [overlap, `${j.join.shearRate.length} points (${j.join.source.filter((x) => x === "rotational").length} rotational) joined with ${j.groups.join(", ")}.`, ...(t.notes ?? [])] };
+}
+
 /** The warnings table: every warning of the run, most serious first. */
 export function warningsTable(warnings: readonly Warning[]): ResultTable {
   const rank = { serious: 0, caution: 1, info: 2 } as const;
@@ -582,10 +696,12 @@ export function resultTables(run: ReductionRun): ResultTable[] {
     const runs = steps?.byGroup[i] ?? [];
     if (runs.length > 0) tables.push(stepsTable(runs, groupLabel(g)));
     tables.push(bagleyTable(g), bagleyPointsTable(g), flowCurveTable(g), uncertaintyBudgetTable(g), rabinowitschTable(g), viscosityModelTable(run, g, i), entrancePressureTable(g), extensionalTable(g), heatingTable(g), pressureDependenceTable(g));
+    const gf = run.groupFits[i];
+    if (gf) tables.push(verdictTable(gf.label, gf.verdict));
   });
   if (steps && steps.unassigned.length > 0) tables.push({ ...stepsTable(steps.unassigned), title: "Steps of die runs with no point in the flow curve" });
   if (run.steps) tables.push(thermalChecksTable(run.steps.runs));
-  tables.push(slipTable(run), meltFlowTable(run), fitRankingTable(run), fitParameterTable(run), shiftTable(run), shiftConstantsTable(run), masterTable(run), warningsTable(run.warnings));
+  tables.push(slipTable(run), meltFlowTable(run), fitRankingTable(run), fitParameterTable(run), shiftTable(run), shiftConstantsTable(run), masterTable(run), ...masterFitTables(run), joinedTable(run), warningsTable(run.warnings));
   return tables.filter((t): t is ResultTable => t !== null);
 }
 
