@@ -27,7 +27,7 @@ if (stale) {
     target: "node20",
     format: "cjs",
     outfile: bundle,
-    external: ["exceljs"],
+    external: ["exceljs", "jszip"],
     logLevel: "warning",
   });
 }

@@ -15,6 +15,8 @@
  *      solve, statistics). When /usr/bin/python3 has scipy, scripts/bench_scipy.py
  *      fits the same points with the same residuals (ln η), coordinates (ln p), start and
  *      tolerances, and the ratio scipy/ours is printed; otherwise that line says why it is skipped.
+ *   1b. fitMasterCurve: Carreau–Yasuda × Arrhenius on three curves next to scipy's least_squares
+ *      on the same problem, in alternating rounds (scripts/bench/masterFitBench.ts).
  *   2. reduce() of 4 dies × 10 piston speeds (Bagley, Rabinowitsch "transition") and a
  *      Carreau–Yasuda fit of the corrected flow curve.
  *   3. RHEO.WALLSTRESSAPP filled down a 10 000-row column: 10 000 calls with 1×1 ranges in one
@@ -23,6 +25,9 @@
  *   5.–8. The command line's cold start, a 40,000-row file through the CLI against the core, the
  *      per-row worksheet function against a plain loop, and optionally a large file: see
  *      scripts/bench/inputBench.ts.
+ *   2b. A pressure recording of 100 000 samples (3 dies × 8 piston speeds, first-order approach to
+ *      each plateau, 0.5 % noise, 1 % speed jitter): steps detected (detectTraceSteps), turned into
+ *      measurements and reduced; beside it, the reduction of the same test's 24-point steady table.
  *   4. Minified sizes of dist/functions.js and dist/taskpane.js from a production build (run
  *      first when dist/ is missing or older than the sources). 1 KB = 1024 bytes, as the
  *      webpack budget in webpack.config.js counts.
@@ -44,14 +49,20 @@ import { wallRateFromApparentRate } from "../src/core/forwardFlow";
 import { wallStressApp } from "../src/functions/functions";
 import { inputBench } from "./bench/inputBench";
 import { smootherBenchmark, smootherTables } from "./benchSmoothers";
+import { detectTraceSteps, stepMeasurements, type TraceRun } from "../src/core/steps";
+import { syntheticRun } from "../test/helpers/syntheticTrace";
+import { benchMasterFit } from "./bench/masterFitBench";
 
 /** The issue's targets. */
 export const BENCH_TARGETS = Object.freeze({
   fitMs: 0.2,
   scipyRatio: 3,
   reductionMs: 2,
+  traceMs: 150,
   column10kMs: 20,
-  functionsBundleBytes: 208 * 1024,
+  /** runtime.js + core.js + functions.js: what the worksheet functions load (webpack.config.js holds the build to it) */
+  functionsBundleBytes: 240 * 1024,
+  /** every script of the shared runtime page (the pane's included) */
   taskpaneBundleBytes: 400 * 1024,
 });
 
@@ -177,6 +188,41 @@ function reduceAndFit(measurements: Measurement[]): number {
 }
 
 // ---------------------------------------------------------------------------------------------
+// 2b. A 100 000-sample pressure recording: steps detected and reduced
+
+/** Invented test: power-law melt (K = 5000 Pa·sⁿ, n = 0.4), e = 2, D = 1 mm, L = 5, 10, 20 mm, 15 mm barrel. */
+export const TRACE_SETUP = Object.freeze({
+  K: 5000, n: 0.4, e: 2, dieDiameter: 1e-3, dieLengths: [5e-3, 10e-3, 20e-3], barrelDiameter: 15e-3,
+  pistonSpeedsMmMin: [0.5, 1, 2, 5, 10, 20, 50, 100], stepSeconds: 60, samples: 100000, tau: 3, noise: 0.005, seed: 77,
+});
+
+function traceSteadyPressure(length: number, speed: number): number {
+  const s = TRACE_SETUP;
+  const rateApparent = (32 * speed * ((Math.PI * s.barrelDiameter ** 2) / 4)) / (Math.PI * s.dieDiameter ** 3);
+  return 2 * s.K * (rateApparent * ((3 * s.n + 1) / (4 * s.n))) ** s.n * ((2 * length) / s.dieDiameter + s.e);
+}
+
+function traceData(): { runs: TraceRun[]; points: Measurement[] } {
+  const s = TRACE_SETUP;
+  const perDie = Math.ceil(s.samples / s.dieLengths.length);
+  const dt = (s.pistonSpeedsMmMin.length * s.stepSeconds) / perDie;
+  const runs = s.dieLengths.map((L, i) => {
+    const steps = s.pistonSpeedsMmMin.map((v) => ({ speed: (v * 1e-3) / 60, pressure: traceSteadyPressure(L, (v * 1e-3) / 60), duration: s.stepSeconds }));
+    const r = syntheticRun({ steps, tau: s.tau, noise: s.noise, speedJitter: 0.01, dt, seed: s.seed + i });
+    return { time: r.time, pressure: r.pressure, pistonSpeed: r.speed, die: { dieDiameter: s.dieDiameter, dieLength: L }, barrelDiameter: s.barrelDiameter };
+  });
+  const points = s.dieLengths.flatMap((L) =>
+    s.pistonSpeedsMmMin.map((v) => ({ dieDiameter: s.dieDiameter, dieLength: L, flowRate: ((v * 1e-3) / 60) * ((Math.PI * s.barrelDiameter ** 2) / 4), pressure: traceSteadyPressure(L, (v * 1e-3) / 60) })),
+  );
+  return { runs, points };
+}
+
+function traceReduce(runs: TraceRun[]): number {
+  const result = reduce(stepMeasurements(detectTraceSteps(runs)));
+  return result.groups[0]?.flowCurve.length ?? 0;
+}
+
+// ---------------------------------------------------------------------------------------------
 // 3. A 10 000-row column through a per-row worksheet function
 
 const COLUMN_ROWS = 10000;
@@ -205,7 +251,9 @@ function oneSpillCall(column: unknown[][]): number {
 // ---------------------------------------------------------------------------------------------
 // 4. Bundle sizes
 
-const BUNDLES = ["functions.js", "taskpane.js"] as const;
+const BUNDLES = ["runtime.js", "core.js", "functions.js", "taskpane.js"] as const;
+/** What each budget counts: the functions' scripts, and the whole shared runtime page. */
+const BUNDLE_SETS = { functions: ["runtime.js", "core.js", "functions.js"], page: ["runtime.js", "core.js", "functions.js", "taskpane.js"] } as const;
 const BUILD_INPUTS = ["src", "webpack.config.js", "package.json", "package-lock.json", "manifest.xml", "tsconfig.json"];
 
 function newestMtime(p: string): number {
@@ -329,10 +377,26 @@ function main(): void {
       "kept ≥ 0 by projection (so it could stop on its bound 0); scipy is given the same five-parameter problem.",
   );
 
+  // 1b. the fit across temperatures next to scipy on the same problem (scripts/bench/masterFitBench.ts)
+  const master = benchMasterFit(QUICK);
+  lines.push(...master.lines);
+  notes.push(...master.notes);
+
   // 2. reduction
   const measurements = reductionData();
   const reduceTime = time(() => reduceAndFit(measurements), reps(31), 5, 30);
   lines.push({ what: "reduce 4 dies × 10 rates + CY fit", measured: ms(reduceTime.median), target: `≤ ${ms(BENCH_TARGETS.reductionMs)}`, verdict: verdict(reduceTime.median <= BENCH_TARGETS.reductionMs) });
+
+  // 2b. recording of 100 000 samples
+  const trace = traceData();
+  const samples = trace.runs.reduce((n, r) => n + r.time.length, 0);
+  const detected = detectTraceSteps(trace.runs);
+  const used = stepMeasurements(detected).length;
+  const traceTime = time(() => traceReduce(trace.runs), reps(11), 1, 3);
+  const tableTime = time(() => reduce(trace.points).groups.length, reps(31), 5, 30);
+  lines.push({ what: `recording of ${samples} samples: steps detected + reduced`, measured: ms(traceTime.median), target: `≤ ${ms(BENCH_TARGETS.traceMs)}`, verdict: verdict(traceTime.median <= BENCH_TARGETS.traceMs) });
+  lines.push({ what: `same test's ${trace.points.length}-point steady table, reduced (info)`, measured: ms(tableTime.median), target: "", verdict: "" });
+  notes.push(`recording: ${trace.runs.length} die runs, ${detected.runs.reduce((n, r) => n + r.steps.length, 0)} steps found, ${used} used, ${detected.warnings.length} warnings; the recording costs ${(traceTime.median / tableTime.median).toFixed(0)}× the steady table's reduction.`);
 
   // 3. per-row worksheet function
   const pressures = columnPressures();
@@ -351,16 +415,17 @@ function main(): void {
 
   // 4. bundles
   const { sizes, note } = bundleSizes();
-  const budgets: Record<string, number> = { "functions.js": BENCH_TARGETS.functionsBundleBytes, "taskpane.js": BENCH_TARGETS.taskpaneBundleBytes };
+  const sum = (files: readonly string[]) => files.reduce((acc, f) => ({ bytes: acc.bytes + (sizes[f]?.bytes ?? NaN), gzip: acc.gzip + (sizes[f]?.gzip ?? NaN) }), { bytes: 0, gzip: 0 });
+  for (const [what, files, budget] of [
+    ["functions' scripts (runtime + core + functions) minified (gzip)", BUNDLE_SETS.functions, BENCH_TARGETS.functionsBundleBytes],
+    ["shared runtime page, all scripts (+ taskpane) minified (gzip)", BUNDLE_SETS.page, BENCH_TARGETS.taskpaneBundleBytes],
+  ] as const) {
+    const s = sum(files);
+    lines.push({ what, measured: Number.isFinite(s.bytes) ? `${kb(s.bytes)} (${kb(s.gzip)})` : "not built", target: `≤ ${kb(budget)}`, verdict: verdict(Number.isFinite(s.bytes) && s.bytes <= budget) });
+  }
   for (const b of BUNDLES) {
     const s = sizes[b];
-    const budget = budgets[b] as number;
-    lines.push({
-      what: `dist/${b} minified (gzip)`,
-      measured: s ? `${kb(s.bytes)} (${kb(s.gzip)})` : "not built",
-      target: `≤ ${kb(budget)}`,
-      verdict: verdict(s !== null && s !== undefined && s.bytes <= budget),
-    });
+    lines.push({ what: `dist/${b} minified (gzip)`, measured: s ? `${kb(s.bytes)} (${kb(s.gzip)})` : "not built", target: "", verdict: "" });
   }
   notes.push(`bundles: ${note}.`);
 

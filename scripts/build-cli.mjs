@@ -9,7 +9,7 @@ export async function buildCli() {
     target: "node20",
     format: "cjs",
     outfile: "dist/cli.cjs",
-    external: ["exceljs"],
+    external: ["exceljs", "jszip"],
     logLevel: "warning",
   });
 }

@@ -44,6 +44,7 @@ export const EXEMPT_MODULES = {
   "fit/index": "re-exports only",
   "fit/options": "defaults only",
   "fit/validate": "input checks, no calculation",
+  "fit/extrapolation": "compares rates with the fitted range, no calculation",
   "models/index": "registry of the models",
   "models/types": "types only",
   "models/parameterSpec": "types only",
@@ -55,6 +56,11 @@ export const EXEMPT_MODULES = {
   transducerChoice: "a selection rule (each step within 5–90 % of full scale: common practice, no source); the pressures it ranks are checked against Hagen–Poiseuille through the planner",
   rowAccount: "counting input rows by the reason they were not used, no calculation",
   parameterComparison: "an interval-overlap rule (common practice, no source); the intervals come from fitModel, checked against scipy",
+  "steps/index": "re-exports only",
+  "steps/options": "settings, their defaults and their checks, no calculation",
+  "steps/segment": "a segmentation rule (common practice, no source); judged by the plateaus it leads to on first-order recordings (steps/plateau)",
+  "steps/groupSteps": "assigning die runs to reduction groups, no calculation",
+  "steps/thermalCheck": "a comparison of two plateaus against a limit (common practice, no source); the plateaus are checked through steps/plateau",
 };
 
 function testFiles(dir) {

@@ -2,6 +2,7 @@
  * Writes the demo data and the demo workbooks (invented scenarios, see scripts/demo/):
  *   workbooks/demo-<name>.csv   raw data as the command line reads it
  *   workbooks/demo-<name>.xlsx  "Raw data", "Formulas" (RHEO formulas with cached results), "Notes"
+ *   workbooks/demo-film-grade-recording.csv  the pressure recording behind the film-grade demo
  *
  * Run: node scripts/run-ts.mjs scripts/make-workbooks.ts   (npm run workbooks)
  *
@@ -14,6 +15,7 @@ import { writeFileSync } from "node:fs";
 import ExcelJS from "exceljs";
 import { CREAM_YIELD, creamYieldRows } from "./demo/creamYield";
 import { FILM_GRADE, filmGradeRows } from "./demo/filmGrade";
+import { filmGradeRecordingCsv } from "./demo/filmGradeRecording";
 import { PASTE_SLIP, pastePistonSpeed, pasteSlipRows } from "./demo/pasteSlip";
 import { Arg, RangeArg, rheo } from "./workbooks/sheetCall";
 import { columnArg, header, label, placeArray, rangeRef, referenceCell } from "./workbooks/sheetLayout";
@@ -92,12 +94,12 @@ function filmSpec(): WorkbookSpec {
       "4. Orifice die: the orifice die (L/D = 0.25) measures the entrance pressure almost directly. RHEO.WALLSTRESS subtracts it from the 20 mm die's pressure; the result agrees with the Bagley stress to within a few percent (the orifice's own short land adds a little pressure drop, and both carry the noise).",
       reduceNote(5),
       `6. Temperature shift: RHEO.SHIFTFIT reads the REDUCE columns temperature, shear_rate_wall and viscosity of all three temperatures and fits one Arrhenius activation energy that lays the 190 and 230 °C curves onto the ${p.referenceTemperature - 273.15} °C curve (eta(rate, T) = aT eta_ref(aT rate)); it spills Ea in J/mol with its standard error, then aT per temperature. The cells beside it show Ea in kJ/mol and the ${p.activationEnergy / 1e3} kJ/mol the data were generated with.`,
-      `7. Model fit: RHEO.FIT fits the ${FILM_FIT_MODEL} model (${FILM_FIT_FIXED}: held at zero, the data reach no upper plateau) to the ${p.referenceTemperature - 273.15} °C corrected flow curve of block 3 and spills each parameter with its standard error and 95 % interval, then R², RMSE (in ln eta), AIC, points and whether it converged.`,
+      `7. Model fit: RHEO.FIT fits the ${FILM_FIT_MODEL} model (${FILM_FIT_FIXED}: held at zero, the data reach no upper plateau) to the ${p.referenceTemperature - 273.15} °C corrected flow curve of block 3 and spills each parameter with its standard error and 95 % interval (taken in ln p, so never negative), then R², RMSE (in ln eta), AIC, points, whether it converged, whether every parameter is determined by the data, and the rate range fitted (the curve is an extrapolation outside it).`,
       "8. Extensional flow: RHEO.COGSWELL turns the Bagley entrance pressure of block 2 (with the wall rate, viscosity and n' of block 3) into Cogswell's tensile stress, extension rate, extensional viscosity and Trouton ratio. The entrance loss in this invented data set comes from a made-up law (e above), so these numbers show how the function is used, not a property of a real melt.",
       "",
       "What to look for: e rises with rate (the entrance loss grows faster than the wall stress); n' is about 0.43 at the lowest rate and falls towards 0.36 as the melt shear-thins; the true wall rate is about 1.3 to 1.4 times the apparent one, so the true viscosity is below the apparent viscosity; the three temperatures give parallel curves (the Arrhenius shift).",
       `Block 6: Ea comes out within 1 % of the generating ${p.activationEnergy / 1e3} kJ/mol, inside one standard error (about 0.8 kJ/mol); aT is about 1.80 at 190 °C and 0.58 at 230 °C (the generating law gives exp[(E/R)(1/T - 1/Tref)] = 1.81 and 0.58).`,
-      `Block 7: the fitted curve follows the data to about 0.6 % (RMSE in ln eta), yet eta0 and lambda carry standard errors of 13 % and 25 %: the lowest wall rate (about 24 1/s) already lies deep in the shear-thinning region (lambda rate is about 14 with the generating lambda = ${p.lambda} s), so the data pin the slope m (near 1 - n = ${(1 - p.n).toFixed(2)}) well and the zero-shear plateau poorly. The Cross eta0 is not the generating Carreau-Yasuda eta0 (${p.eta0} Pa.s): the two models bend differently, so compare curves, not parameters; widen the rate range downwards (slower speeds or a wider die) to pin eta0.`,
+      `Block 7: the fitted curve follows the data to about 0.6 % (RMSE in ln eta), yet the spill says "well determined" FALSE, with ZERO_SHEAR_NOT_DETERMINED and ONSET_NOT_DETERMINED warning rows: the onset of shear thinning 1/lambda lies below the lowest wall rate (about 24 1/s), so eta0 and lambda are extrapolations and the data support only eta0 at least the highest measured viscosity. The lowest wall rate (about 24 1/s) already lies deep in the shear-thinning region (lambda rate is about 14 with the generating lambda = ${p.lambda} s), so the data pin the slope m (near 1 - n = ${(1 - p.n).toFixed(2)}) well and the zero-shear plateau poorly. The Cross eta0 is not the generating Carreau-Yasuda eta0 (${p.eta0} Pa.s): the two models bend differently, so compare curves, not parameters; widen the rate range downwards (slower speeds or a wider die) to pin eta0.`,
       "Block 8: the extension rate is about a tenth of the wall shear rate, the extensional viscosity falls with rate more slowly than the shear viscosity, and the Trouton ratio (30 to 110) lies far above 3, the value of a Newtonian liquid.",
     ],
   };
@@ -155,7 +157,7 @@ function creamSpec(): WorkbookSpec {
       ...COMMON_NOTES,
       reduceNote(4),
       "5. Herschel-Bulkley fit: RHEO.FIT fits tau = tau_y + K rate^n (as viscosity tau/rate) to the REDUCE columns shear_rate_wall and viscosity, and spills tauY, K and n in SI units with standard errors and 95 % intervals, then R², RMSE (in ln eta), AIC, points and convergence. The column beside it gives the values the data were generated with.",
-      `6. Model comparison: RHEO.COMPAREFITS fits ${YIELD_MODELS} to the same curve and ranks them by AIC (lower is better), with the Akaike weight (the relative support for each model within this set).`,
+      `6. Model comparison: RHEO.COMPAREFITS fits ${YIELD_MODELS} to the same curve (material "paste") and ranks them by AIC (lower is better), with the Akaike weight (the relative support for each model within this set); its last two columns say whether each fit is well determined and which model is recommended (the adequate, well-determined model of lowest AIC), with the reason in that row's note.`,
       "7. The fitted model at the data rates: RHEO.MODEL evaluates the Herschel-Bulkley model with the parameters of block 5 (it reads the fit's spill directly) at each wall rate; the deviation column is fitted / measured - 1 in percent, and the last column is the generating law tau_y/rate + K rate^(n-1) as a plain Excel formula.",
       "",
       `What to look for: the wall stress levels off towards the yield stress (${p.tauY} Pa) at low rates, so n' is small there and the Rabinowitsch factor (3n'+1)/(4n') is large: the true wall rate is up to about twice the apparent one.`,
@@ -325,6 +327,9 @@ async function main(): Promise<void> {
     writeFileSync(xlsx, Buffer.from(buffer));
     console.log(`wrote ${csv}, ${xlsx} (${Math.round(buffer.byteLength / 1024)} KB)`);
   }
+  const recording = "workbooks/demo-film-grade-recording.csv";
+  writeFileSync(recording, filmGradeRecordingCsv());
+  console.log(`wrote ${recording}`);
 }
 
 if (process.argv[1]?.endsWith("make-workbooks.cjs")) {

@@ -120,8 +120,9 @@ describe("rheoledger reduce DEMO text output and --compare", () => {
   test("--model prints a parameter table with units; --shift prints Ea in kJ/mol and aT per temperature", () => {
     const { code, stdout } = run(["reduce", DEMO, "--model", "power-law", "--shift", "arrhenius", "--tref", "210 C"]);
     expect(code).toBe(0);
-    expect(stdout).toMatch(/Group\s+Model\s+Rank by AIC\s+Parameter\s+Unit \(SI\)\s+Value\s+Standard error\s+95 % interval, low\s+95 % interval, high\s+Held fixed/);
-    expect(stdout.match(/ °C, D 1 mm\s+Power law\s+—\s+K\s+Pa·sⁿ\s+\S+\s+\S+\s+\S+\s+\S+\s+no\n/g)).toHaveLength(3);
+    expect(stdout).toMatch(/Group\s+Model\s+Rank by AIC\s+Parameter\s+Unit \(SI\)\s+Value\s+Standard error\s+95 % interval, low\s+95 % interval, high\s+Held fixed\s+Determined by the data\s+Note/);
+    // K: not held, determined by the data (power law on 2.3 decades of shear thinning), no note
+    expect(stdout.match(/ °C, D 1 mm\s+Power law\s+—\s+K\s+Pa·sⁿ\s+\S+\s+\S+\s+\S+\s+\S+\s+no\s+yes\s*\n/g)).toHaveLength(3);
     expect(stdout).toMatch(/Temperature shift \(Arrhenius\)/);
     expect(stdout).toMatch(/Arrhenius: Ea = 5\d\.\d+ ± \S+ kJ\/mol/);
     expect(stdout).toMatch(/Reference temperature 210 °C \(given\); die diameter 1 mm/);
@@ -143,7 +144,7 @@ describe("bad fit flags exit 1 with a message naming the flag and print nothing 
   const oneTemperature = [lines[1], ...lines.filter((l) => l.startsWith("210,"))].join("\n") + "\n";
   const cases: [string, string[], RegExp][] = [
     ["unknown model", ["--model", "carreau-yasudda"], /^rheoledger: --model: unknown model "carreau-yasudda"; accepted: newtonian, power-law, cross/],
-    ["a temperature-dependent model per group", ["--model", "cross-wlf"], /^rheoledger: --model: cross-wlf needs a temperature per point/],
+    ["cross-wlf asked for twice with different fits across temperatures", ["--model", "cross-wlf", "--master", "cross", "--shift", "arrhenius", "--tref", "210 C"], /^rheoledger: --model: cross-wlf is fitted across temperatures, and --master asks for cross; give one of them/],
     ["unknown model in --compare", ["--compare", "cross,karo"], /^rheoledger: --compare: unknown model "karo"/],
     ["--shift without --tref", ["--shift", "arrhenius"], /^rheoledger: --tref: is required with --shift/],
     ["--tref without --shift", ["--tref", "210 C"], /^rheoledger: --tref: is the reference temperature of --shift/],

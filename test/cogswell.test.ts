@@ -30,8 +30,8 @@ describe("cogswellTable warnings", () => {
   test("COGSWELL_POINT_SKIPPED and COGSWELL_LOW_TROUTON (below 0.9·3, common practice)", () => {
     expectClose(DEFAULT_COGSWELL_OPTIONS.minTroutonRatio, 2.7, { rel: 1e-15 });
     const r = cogswellTable([
-      { shearRateApparent: 10, shearRateWall: 10, viscosity: 100, nPrime: 1, entrancePressure: -5 },
-      { shearRateApparent: 20, shearRateWall: 20, viscosity: 100, nPrime: 1, entrancePressure: 1000 },
+      { shearRateApparent: 10, shearRateWall: 10, viscosity: 100, viscosityApparent: 100, nPrime: 1, entrancePressure: -5 },
+      { shearRateApparent: 20, shearRateWall: 20, viscosity: 100, viscosityApparent: 100, nPrime: 1, entrancePressure: 1000 },
     ]);
     expect(r.warnings.map((w) => w.code)).toEqual(["COGSWELL_POINT_SKIPPED", "COGSWELL_LOW_TROUTON"]);
     expect(r.rows).toHaveLength(1);
@@ -55,7 +55,46 @@ describe("reduce(…, { extensional: true }) on a Newtonian liquid with η_E = 3
     });
   });
   test("COGSWELL_ROUND_ONLY on a slit group", () => {
+    expect(DEFAULT_COGSWELL_OPTIONS.shearRate).toBe("apparent");
     const slit = data.map(({ dieDiameter: _d, ...m }) => ({ ...m, slitWidth: 10e-3, slitHeight: 1e-3 }));
     expect(reduce(slit, { extensional: true }).warnings.map((w) => w.code)).toContain("COGSWELL_ROUND_ONLY");
+  });
+});
+
+/**
+ * Which shear rate: Cogswell (1972) works with the apparent wall rate 4Q/(πR³) and η_a = τ_w/γ̇_a;
+ * ηγ̇ = τ_w for either pairing, so the Trouton ratio 9(n+1)²ΔP²/(32τ_w²) is the same, while ε̇
+ * scales with γ̇ and η_E with 1/γ̇ (algebra of the formulas above). Power-law liquid, n = 0.4:
+ * γ̇_w/γ̇_a = (3n+1)/(4n) = 1.375 (Rabinowitsch 1929).
+ */
+describe("Cogswell on the apparent rate (default) and on the true wall rate", () => {
+  const n = 0.4;
+  const K = 1e4;
+  const D = 1e-3;
+  const rates = [10, 30, 100, 300, 1000];
+  const tau = (rate: number) => K * (((3 * n + 1) / (4 * n)) * rate) ** n;
+  const data: Measurement[] = [5e-3, 10e-3, 20e-3].flatMap((L) =>
+    rates.map((rate) => ({ dieDiameter: D, dieLength: L, flowRate: flowRateForApparentShearRate(rate, D), pressure: 8 * tau(rate) + (4 * tau(rate) * L) / D })),
+  );
+  const apparent = reduce(data, { extensional: true }).groups[0]!.extensional!;
+  const wall = reduce(data, { extensional: { shearRate: "wall" } }).groups[0]!.extensional!;
+  test("same Trouton ratio and tensile stress; ε̇ and η_E differ by γ̇_w/γ̇_a = 1.375", () => {
+    apparent.forEach((a, i) => {
+      const w = wall[i]!;
+      expect(a.shearRateBasis).toBe("apparent");
+      expect(w.shearRateBasis).toBe("wall");
+      expectClose(a.shearRate, a.shearRateApparent, { rel: 1e-15 });
+      expectClose(w.shearRate, w.shearRateWall, { rel: 1e-15 });
+// @check cogswell | apparent and wall rate: same Trouton ratio (9(n+1)²ΔP²/(32τ²) = 35.28) and σ_E; ε̇ and η_E apart by (3n+1)/(4n), 5 rates | Cogswell, Polym. Eng. Sci. 12 (1972) 64; Rabinowitsch, Z. Phys. Chem. A145 (1929) 1 | rel 1e-6 | 25
+      expectClose(a.troutonRatio, w.troutonRatio, { rel: 1e-9 });
+      // Trouton = 9(n+1)²ΔP²/(32τ²) with ΔP_ent = 8τ: 9·1.96·64/32 = 35.28
+      expectClose(a.troutonRatio, (9 * (n + 1) ** 2 * 64) / 32, { rel: 1e-6 });
+      expectClose(a.tensileStress, w.tensileStress, { rel: 1e-12 });
+      expectClose(w.extensionRate / a.extensionRate, (3 * n + 1) / (4 * n), { rel: 1e-6 });
+      expectClose(a.extensionalViscosity / w.extensionalViscosity, (3 * n + 1) / (4 * n), { rel: 1e-6 });
+    });
+  });
+  test("an unknown basis is refused", () => {
+    expect(() => cogswellTable([], { shearRate: "true" as "wall" })).toThrow(/shearRate: must be "apparent" or "wall"/);
   });
 });

@@ -27,7 +27,7 @@ describe("npm run demo", () => {
     expect(outAt).toBeGreaterThan(0);
     const target = path.join(mkdtempSync(path.join(tmpdir(), "rheoledger-demo-")), "demo-results.xlsx");
     args[outAt + 1] = target;
-    const written = new Map<string, Uint8Array>();
+    const written = new Map<string, Uint8Array | string>();
     let stdout = "";
     let stderr = "";
     const code = await main(args, {
@@ -50,6 +50,9 @@ describe("npm run demo", () => {
     expect(Math.abs(Number(ea?.[1]) / 55 - 1)).toBeLessThan(0.03);
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.load(Buffer.from(written.get(target) as Uint8Array) as unknown as ArrayBuffer);
-    expect(wb.worksheets.map((w) => w.name)).toEqual(["Summary", "Bagley", "Flow curve", "Fits", "Warnings"]);
+    const names = wb.worksheets.map((w) => w.name);
+    expect(names.slice(0, 2)).toEqual(["Groups reduced", "Charts"]);
+    expect(names.at(-1)).toBe("Method");
+    expect(names).toEqual(expect.arrayContaining(["Flow curve", "Bagley end correction", "Model fits, parameters", "Temperature shift", "Temperature shift, constants", "Extensional viscosity", "Viscous heating", "Warnings"]));
   });
 });

@@ -43,15 +43,33 @@ describe("fitModel(model, data) against scipy.optimize.least_squares", () => {
       expectClose(fit.ssr, c.ssr, { rel: 1e-8 }, "SSR");
     });
   }
-  test("confidence intervals are value ± t(0.975, n − p)·SE (t from the fixture's scipy.stats.t.ppf)", () => {
+  // Interval in ln p for a positive parameter (delta method, Bates & Watts 1988 §3.5):
+  // ln p ± t·SE/p, so [p·e^(−t·SE/p), p·e^(t·SE/p)]; t from scipy.stats.t.ppf.
+  test("confidence intervals of positive parameters are p·exp(±t(0.975, n − p)·SE/p) (t from scipy.stats.t.ppf)", () => {
     const c = CASES[0] as ReferenceCase;
     const fit = fitModel(c.model, c.data, { fixed: c.fixed });
     const dof = c.data.shearRate.length - Object.keys(c.parameters).length; // 40 − 4 = 36
     const t = 2.028094000980452; // scipy.stats.t.ppf(0.975, 36), scipy 1.10.1
     expect(dof).toBe(36);
-    const [lo, hi] = fit.confidenceIntervals.eta0 as [number, number];
-    expectClose(hi - (fit.parameters.eta0 as number), t * (fit.standardErrors.eta0 as number), { rel: 1e-6 });
-    expectClose((fit.parameters.eta0 as number) - lo, t * (fit.standardErrors.eta0 as number), { rel: 1e-6 });
+    for (const name of Object.keys(c.parameters)) {
+      const p = fit.parameters[name] as number;
+      const se = fit.standardErrors[name] as number;
+      const [lo, hi] = fit.confidenceIntervals[name] as [number, number];
+      // @check fit/intervals, fit/parameterReport | 95 % intervals of 4 positive parameters taken in ln p: p·exp(±t·SE/p) | Bates & Watts, Nonlinear Regression Analysis and Its Applications (1988), ch. 3 (delta method; from memory); t from scipy.stats.t.ppf | rel 1e-6 | 8
+      expectClose(lo, p * Math.exp((-t * se) / p), { rel: 1e-6 }, `${name} low`);
+      expectClose(hi, p * Math.exp((t * se) / p), { rel: 1e-6 }, `${name} high`);
+      expect(lo).toBeGreaterThan(0);
+    }
+  });
+  test("a positive parameter with a standard error larger than its value keeps a positive lower limit", () => {
+    // three points barely bent: Cross's eta0 and lambda are poorly determined
+    const fit = fitModel("cross", { shearRate: [10, 100, 1000, 3000], viscosity: [900, 420, 130, 60] }, { fixed: { etaInf: 0 } });
+    for (const [name, [lo, hi]] of Object.entries(fit.confidenceIntervals)) {
+      expect(lo).toBeGreaterThan(0);
+      expect(hi).toBeGreaterThan(lo);
+      expect(Number.isFinite(fit.standardErrors[name] as number)).toBe(true);
+    }
+    expect(fit.wellDetermined).toBe(false);
   });
 });
 

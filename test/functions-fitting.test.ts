@@ -4,6 +4,7 @@
  */
 import * as sheet from "../src/functions/fitting";
 import { fitSpill, FIT_HEADER, COMPARE_HEADER } from "../src/functions/fitTables";
+import { defaultModels, fitCurve } from "../src/core/flowCurveFits";
 import { fitModel } from "../src/core/fit";
 import { getModel, MODEL_IDS } from "../src/core/models";
 import { fitArrheniusShift } from "../src/core/temperature";
@@ -43,14 +44,15 @@ describe("RHEO.FIT(shearRate, viscosity, model, ...)", () => {
   // s the sample standard deviation (n − 1); CI mean ± t(0.975, n − 1)·SE. Values evaluated with
   // Python's statistics module; t = scipy.stats.t.ppf(0.975, 4) from the committed fixture.
   const etaN = [10.2, 9.7, 10.5, 9.9, 10.1];
-  test("newtonian, linear residuals: μ = arithmetic mean 10.08, SE = s/√n = 0.135647, 95 % CI with t(0.975, 4)", () => {
+  test("newtonian, linear residuals: μ = arithmetic mean 10.08, SE = s/√n = 0.135647, 95 % CI μ·exp(±t(0.975, 4)·SE/μ)", () => {
     const out = sheet.fit(col(1, 2, 5, 10, 20), col(...etaN), "newtonian", null as never, "linear");
     const mu = line(out, "mu");
     expectClose(num(mu[1]), 10.08, { rel: 1e-9 });
     expectClose(num(mu[2]), 0.1356465996625054, { rel: 1e-6 });
     const t = tQuantile(0.975, 4);
-    expectClose(num(mu[3]), 10.08 - t * 0.1356465996625054, { rel: 1e-6 });
-    expectClose(num(mu[4]), 10.08 + t * 0.1356465996625054, { rel: 1e-6 });
+    // interval in ln μ (delta method: SE(ln μ) = SE/μ; Bates & Watts 1988 §3.5)
+    expectClose(num(mu[3]), 10.08 * Math.exp((-t * 0.1356465996625054) / 10.08), { rel: 1e-6 });
+    expectClose(num(mu[4]), 10.08 * Math.exp((t * 0.1356465996625054) / 10.08), { rel: 1e-6 });
     expect(mu[5]).toBe("Pa.s");
     expect(line(out, "RMSE")[5]).toBe("Pa.s");
   });
@@ -66,7 +68,9 @@ describe("RHEO.FIT(shearRate, viscosity, model, ...)", () => {
     const c = scipyCase("power-law");
     const out = sheet.fit(col(...c.data.shearRate), col(...c.data.viscosity), "power-law", null as never, null as never, null as never, null as never, null as never, null as never, true);
     expect(out[0]).toEqual([...FIT_HEADER]);
-    expect(out.map((r) => r[0])).toEqual(["parameter", "K", "n", "R²", "RMSE", "AIC", "points", "converged", "stop reason"]);
+    expect(out.map((r) => r[0])).toEqual(["parameter", "K", "n", "R²", "RMSE", "AIC", "points", "converged", "stop reason", "well determined", "rate min", "rate max"]);
+    expect(line(out, "well determined")[1]).toBe(true);
+    expect([line(out, "rate min")[1], line(out, "rate max")[1]]).toEqual([Math.min(...c.data.shearRate), Math.max(...c.data.shearRate)]);
     out.forEach((r) => expect(r).toHaveLength(6));
     for (const name of ["K", "n"]) {
       expectClose(num(line(out, name)[1]), c.parameters[name] as number, { rel: 1e-5 }, name);
@@ -209,7 +213,7 @@ describe("RHEO.MODEL(model, parameters, shearRate, ...)", () => {
 
 describe("RHEO.COMPAREFITS(shearRate, viscosity, models, ...)", () => {
   const c = scipyCase("carreau-yasuda");
-  test("Carreau–Yasuda data: carreau-yasuda ranks first; ΔAIC 0 for the best; weights sum to 1; same AIC as RHEO.FIT", () => {
+  test("Carreau–Yasuda data: carreau-yasuda ranks first; ΔAIC 0 for the best; weights sum to 1; same AIC as RHEO.FIT with a melt's η∞ = 0", () => {
     const out = sheet.compareFits(col(...c.data.shearRate), col(...c.data.viscosity), col("power-law", "carreau-yasuda", "cross"), null as never, null as never, null as never, true);
     expect(out[0]).toEqual([...COMPARE_HEADER]);
     const body = out.slice(1);
@@ -217,7 +221,8 @@ describe("RHEO.COMPAREFITS(shearRate, viscosity, models, ...)", () => {
     expect(body[0]?.slice(0, 2)).toEqual([1, "carreau-yasuda"]);
     expect(body[0]?.[3]).toBe(0);
     expectClose(body.reduce((s, r) => s + num(r[4]), 0), 1, { rel: 1e-12 });
-    const fitAic = num(line(sheet.fit(col(...c.data.shearRate), col(...c.data.viscosity), "carreau-yasuda"), "AIC")[1]);
+    // a melt (the default material) holds η∞ at 0 in the plateau models (src/core/flowCurveFits.ts)
+    const fitAic = num(line(sheet.fit(col(...c.data.shearRate), col(...c.data.viscosity), "carreau-yasuda", cell("etaInf=0")), "AIC")[1]);
     expectClose(num(body[0]?.[2]), fitAic, { rel: 1e-9 });
     // Burnham & Anderson (2002), ch. 2 (from memory): w_i = exp(−ΔAIC_i/2)/Σ exp(−ΔAIC_j/2)
     const deltas = body.map((r) => num(r[3]));
@@ -229,11 +234,25 @@ describe("RHEO.COMPAREFITS(shearRate, viscosity, models, ...)", () => {
     expect(out.map((r) => r[1])).toEqual(["power-law", "carreau-yasuda"]);
     expect(out[1]?.[0]).toBe("");
     expect(out[1]?.[7]).toBe(false);
-    expect(out[1]?.[8]).toMatch(/cannot determine 5 free parameters of carreau-yasuda/);
+    // a melt holds η∞ = 0, which leaves four free parameters of Carreau–Yasuda for four points
+    expect(out[1]?.[8]).toMatch(/4 points with positive weight cannot determine 4 free parameters of carreau-yasuda/);
   });
-  test("blank models: every model without temperature", () => {
-    const out = sheet.compareFits(col(...c.data.shearRate), col(...c.data.viscosity), null as never);
-    expect(new Set(out.map((r) => r[1]))).toEqual(new Set(MODEL_IDS.filter((id) => id !== "cross-wlf")));
+  test("blank models: the core's one default list of the material (melt: no yield stress; paste: with it)", () => {
+    const melt = sheet.compareFits(col(...c.data.shearRate), col(...c.data.viscosity), null as never);
+    expect(new Set(melt.map((r) => r[1]))).toEqual(new Set(defaultModels("melt")));
+    const paste = sheet.compareFits(col(...c.data.shearRate), col(...c.data.viscosity), null as never, null as never, null as never, null as never, null as never, "paste");
+    expect(new Set(paste.map((r) => r[1]))).toEqual(new Set(defaultModels("paste")));
+    expect(defaultModels("paste")).toEqual(expect.arrayContaining(["bingham", "herschel-bulkley", "casson"]));
+  });
+  test("exactly one row is recommended, the core verdict's model, its note giving the reason", () => {
+    const out = sheet.compareFits(col(...c.data.shearRate), col(...c.data.viscosity), null as never, null as never, null as never, null as never, true);
+    const body = out.slice(1);
+    const recommended = body.filter((r) => r[10] === true);
+    expect(recommended).toHaveLength(1);
+    const verdict = fitCurve(c.data, {}).verdict;
+    expect(recommended[0]?.[1]).toBe(verdict.recommended);
+    expect(recommended[0]?.[9]).toBe(verdict.status === "well-determined");
+    expect(String(recommended[0]?.[8])).toContain(verdict.reason);
   });
   const errors: [string, () => unknown[][], string, RegExp][] = [
     ["unknown model in the list", () => sheet.compareFits(col(1, 10, 100), col(3, 2, 1), cell("cross, karo")), "#VALUE!", /^models: unknown model "karo"; accepted: newtonian/],

@@ -250,6 +250,7 @@ function validCall(id: string, s: Scenario): unknown[] | undefined {
     case "COMPAREFITS": return [column(wall), column(eta), column(["power-law", "cross"])];
     case "SHIFT": return [column(temps), [[210]], "arrhenius", [[45000]]];
     case "SHIFTFIT": return [column(temps.flatMap((T) => wall.map(() => T))), column(temps.flatMap(() => wall)), column(temps.flatMap((T) => wall.map((g) => aT(T) * s.K * (aT(T) * g) ** (s.n - 1)))), [[210]]];
+    case "MASTERFIT": return [column(temps.flatMap((T) => wall.map(() => T))), column(temps.flatMap(() => wall)), column(temps.flatMap((T) => wall.map((g) => aT(T) * s.K * (aT(T) * g) ** (s.n - 1)))), "power-law", "arrhenius", [[210]]];
     case "SLITSHEARRATEAPP": return [column(flows), [[10]], [[1]]];
     case "SLITWALLSTRESS": return [column(stress.map((t) => bar(t, 20))), [[1]], [[20]]];
     case "ORIFICEPRESSURE": return [column([10, 1000]), column([1, 100]), column(rates)];
@@ -265,6 +266,24 @@ function validCall(id: string, s: Scenario): unknown[] | undefined {
       [["name", "type", "diameter [mm]", "length [mm]"], ["L20", "capillary", s.D, 20 * s.D]],
       [["name", "full_scale [bar]", "accuracy [%]"], ["P100", 100, 0.25], ["P1000", 1000, 0.25]],
     ];
+    case "PLATEAUS": {
+      // one die run: a step per rate, 30 s each at 2 Hz, approaching its pressure with τ = 1 s (compressionTime.ts)
+      const time: number[] = [];
+      const speed: number[] = [];
+      const pressure: number[] = [];
+      let p = 0;
+      rates.forEach((g, i) => {
+        const target = bar(stress[i] as number, 20);
+        const start = p;
+        for (let k = 0; k < 60; k++) {
+          p = target + (start - target) * Math.exp(-k / 2);
+          time.push(30 * i + k / 2);
+          speed.push(g / 10);
+          pressure.push(p);
+        }
+      });
+      return [column(time), column(speed), column(pressure)];
+    }
     case "LOTCHECK": return [column(wall), column(eta.map((v) => v * 1.03)), column(wall), column(eta)];
     default: return undefined;
   }

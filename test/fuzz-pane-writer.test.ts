@@ -8,9 +8,8 @@
  * - on failure the error reaches the caller and the workbook has exactly the sheets it had;
  * - every value of the plan lands in its cell unchanged (numbers as numbers, blanks as "");
  * - text stays text: a value starting with = + - @, a tab or a carriage return must not become a
- *   formula (written with a leading apostrophe, or into a cell formatted as text "@"). The writer
- *   does not guarantee this yet (issue 20, "Text stays text"): that check is test.failing until the
- *   pane's writer is fixed.
+ *   formula (written with a leading apostrophe, or into a cell formatted as text "@"; the writer
+ *   formats every text cell "@" before its value, issue 20 "Text stays text").
  * The per-suite report (cases, successful writes, failures by kind) goes to test-output/fuzz-report.json.
  */
 import fc from "fast-check";
@@ -122,10 +121,9 @@ test("writeWorkbookPlan never touches the user's sheets, writes every planned va
   );
 });
 
-// Issue 20, "Text stays text": the pane writes user text through range.values, so a label such as
-// "=HYPERLINK(…)", "-L20" or "@P50" would become a formula or #NAME?. Until the writer writes such
-// text as text (apostrophe, or the cell formatted "@" first), this property fails: test.failing.
-test.failing("text stays text: a planned string starting with = + - @, tab or CR is written as text (issue 20)", async () => {
+// Issue 20, "Text stays text": a label such as "=HYPERLINK(…)", "-L20" or "@P50" written through
+// range.values would become a formula or #NAME?; the writer formats text cells "@" before their values.
+test("text stays text: a planned string starting with = + - @, tab or CR is written as text (issue 20)", async () => {
   await fc.assert(
     fc.asyncProperty(planParts, async (parts) => {
       const fake = new FakeExcel({});

@@ -14,7 +14,11 @@ import {
   powerLawFromApparentPoint,
   powerLawFromMeltFlow,
   powerLawViscosity,
+  shiftPriorViscosity,
 } from "../src/core/priorViscosity";
+import { PLAN_CAUTION_PRESSURE } from "../src/core/planner";
+import { readPlanOptions } from "../src/io/planOptions";
+import { arrheniusShiftFactor } from "../src/core/temperature/shiftFactors";
 import { apparentSlitShearRate, wallRateFromApparentSlitRate } from "../src/core/slitFlow";
 import { RheoError } from "../src/core/errors";
 import { expectClose } from "./helpers/expectClose";
@@ -277,5 +281,57 @@ describe("planTest: ladder, capacity and duration", () => {
   test("unknown option and inverted fractions are refused", () => {
     expect(() => planTest(input(), { foo: 1 } as never)).toThrow(/unknown option "foo"/);
     expect(() => planTest(input(), { lowFraction: 0.95 })).toThrow(/^lowFraction:/);
+  });
+});
+
+/**
+ * A prior at its own temperature, moved to the test's by time–temperature superposition,
+ * η_test(γ̇) = a·η_prior(a·γ̇) with a = a_T(T_test)/a_T(T_prior) (Dealy & Wang 2013, ch. 4). For a
+ * power law K·γ̇^(n−1) this is K·a^n·γ̇^(n−1) (algebra); for a Newtonian prior, μ·a, so the
+ * Hagen–Poiseuille pressure scales by a.
+ */
+describe("the prior's temperature and the plan's caution", () => {
+  const Ea = 50e3;
+  const law = { law: "arrhenius" as const, referenceTemperature: 463.15, activationEnergy: Ea };
+  const a = arrheniusShiftFactor(483.15, 463.15, Ea);
+  test("shiftPriorViscosity: 1000 Pa·s at 190 °C is 584.2 Pa·s at 210 °C (Ea 50 kJ/mol); a power law gets K·a^n", () => {
+// @check priorViscosity | a prior moved by an Arrhenius shift, and a power law gaining a_T^n | Dealy & Wang, Melt Rheology (2013), ch. 4 (from memory) | rel 1e-13 | 3
+    expectClose(shiftPriorViscosity(() => 1000, law, 463.15, 483.15)(10), 1000 * Math.exp((Ea / 8.314462618) * (1 / 483.15 - 1 / 463.15)), { rel: 1e-14 });
+    expectClose(shiftPriorViscosity(() => 1000, law, 463.15, 483.15)(10), 584.2187, { rel: 1e-6 });
+    expectClose(shiftPriorViscosity(powerLawViscosity(1e4, 0.4), law, 463.15, 483.15)(50), 1e4 * a ** 0.4 * 50 ** -0.6, { rel: 1e-13 });
+  });
+  test("planTest shifts a prior with a law: the Newtonian pressures scale by a_T", () => {
+    const plain = planTest(input({ viscosity: () => 800 }));
+    const shifted = planTest(input({ viscosity: () => 800, priorTemperature: 463.15, testTemperature: 483.15, priorShift: law }));
+// @check planner, priorViscosity | shifted Newtonian prior: Hagen–Poiseuille pressures scale by a_T at 3 steps | Hagen–Poiseuille; Dealy & Wang, Melt Rheology (2013), ch. 4 (from memory) | rel 1e-6 | 3
+    shifted.dies[0]!.steps.forEach((st, i) => expectClose(st.pressure, a * plain.dies[0]!.steps[i]!.pressure, { rel: 1e-6 }));
+    expect(shifted.caution[0]).toBe(PLAN_CAUTION_PRESSURE);
+    expect(shifted.caution[1]).toBe("The prior viscosity was shifted from 190 °C to the test's 210 °C (Arrhenius, Ea = 50 kJ/mol).");
+    expect(shifted.warnings.map((w) => w.code)).not.toContain("PLAN_PRIOR_NOT_SHIFTED");
+  });
+  test("every plan's caution names the pressure dependence; a prior at another temperature without a law is warned about", () => {
+    expect(PLAN_CAUTION_PRESSURE).toMatch(/ignore the rise of viscosity with pressure/);
+    const plain = planTest(input());
+    expect(plain.caution).toEqual([PLAN_CAUTION_PRESSURE, expect.stringMatching(/^The prior viscosity is used as given: if it was measured at another temperature/)]);
+    const unshifted = planTest(input({ priorTemperature: 463.15, testTemperature: 483.15 }));
+    expect(unshifted.warnings.map((w) => w.code)).toContain("PLAN_PRIOR_NOT_SHIFTED");
+    expect(unshifted.caution[1]).toMatch(/belongs to 190 °C and is used unshifted at the test's 210 °C/);
+    expect(() => planTest(input({ priorShift: law, priorTemperature: 463.15 }))).toThrow(/^testTemperature: shifting the prior needs/);
+  });
+  test("readPlanOptions: priorTemperature, testTemperature and priorActivationEnergy build the shift", () => {
+    const raw = {
+      barrelDiameter: "15 mm", usableLength: "200 mm", density: "0.75 g/cm3", dwellTime: "30 s",
+      shearRateMin: "10 1/s", shearRateMax: "1000 1/s", points: 3,
+      priorModel: "power-law", priorParameters: { K: 1e4, n: 0.4 },
+      priorTemperature: "190 C", testTemperature: "210 C", priorActivationEnergy: "50 kJ/mol",
+      dies: [{ name: "L20", type: "capillary", diameter: "1 mm", length: "20 mm" }],
+      transducers: [{ name: "P500", fullScale: "500 bar" }],
+    };
+    const parsed = readPlanOptions(raw);
+    expect(parsed.input.priorShift).toEqual(law);
+    expectClose(parsed.input.testTemperature as number, 483.15, { rel: 1e-15 });
+    const wlf = readPlanOptions({ ...raw, priorActivationEnergy: undefined, priorWlfC1: 4.5, priorWlfC2: "150 K" });
+    expect(wlf.input.priorShift).toEqual({ law: "wlf", referenceTemperature: 463.15, C1: 4.5, C2: 150 });
+    expect(() => readPlanOptions({ ...raw, priorWlfC1: 4.5 })).toThrow(/^priorActivationEnergy: give either an Arrhenius activation energy or the WLF constants/);
   });
 });

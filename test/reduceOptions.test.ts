@@ -118,5 +118,10 @@ describe("RHEO.REDUCE settings argument", () => {
     expect((twice[0]?.[0] as { message: string }).message).toMatch(/^endCorrection: is given twice/);
     const fit = reduceData(raw, "bagley", undefined, undefined, undefined, undefined, undefined, undefined, false, [["model", "cross"]]);
     expect((fit[0]?.[0] as { message: string }).message).toMatch(/^settings model: RHEO.REDUCE spills the flow curve only/);
+    // the fit settings added with the verdict, the fit across temperatures and the rotational join are refused the same way
+    for (const [key, value] of [["material", "paste"], ["master", "cross-wlf"], ["rotational", "rot.csv"]]) {
+      const out = reduceData(raw, "bagley", undefined, undefined, undefined, undefined, undefined, undefined, false, [[key, value]]);
+      expect((out[0]?.[0] as { message: string }).message).toMatch(new RegExp(`^settings ${key}: RHEO.REDUCE spills the flow curve only`));
+    }
   });
 });

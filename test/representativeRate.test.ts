@@ -1,4 +1,4 @@
-import { representativeViscosity, representativeRateCheck, REPRESENTATIVE_RATE_FACTOR, DEFAULT_REPRESENTATIVE_RATE_OPTIONS } from "../src/core/representativeRate";
+import { representativeViscosity, representativeRateBias, representativeRateCheck, REPRESENTATIVE_RATE_FACTOR, DEFAULT_REPRESENTATIVE_RATE_OPTIONS } from "../src/core/representativeRate";
 import { reduce, Measurement } from "../src/core/reduce";
 import { flowRateForApparentShearRate } from "../src/core/capillary";
 import { expectClose } from "./helpers/expectClose";
@@ -38,6 +38,22 @@ describe("representativeRateCheck against the exact power-law ratio", () => {
       expect(r.warnings.map((w) => w.code)).toEqual(n === 0.15 ? ["REPRESENTATIVE_RATE_DISAGREES"] : []);
     });
   }
+  test("representativeRateBias(n) is that ratio; with n′ given the bias is divided out and nothing is flagged", () => {
+// @check representativeRate | the method's own power-law ratio at n = 0.5, 0.15, 0.2 and 1 | Schümmer & Worthoff, Chem. Eng. Sci. 33 (1978) 759 (from memory); Rabinowitsch, Z. Phys. Chem. A145 (1929) 1 | rel 1e-14 | 4
+    expectClose(representativeRateBias(0.5), 0.9908318244015027, { rel: 1e-14 });
+    expectClose(representativeRateBias(0.15), 0.9296273919361291, { rel: 1e-14 });
+    // n = 0.2: 2^0.2·(4/π)^(−0.8) = 0.94690 (the −5 % of the review that asked for the correction)
+    expectClose(representativeRateBias(0.2), Math.pow(2, 0.2) * Math.pow(4 / Math.PI, -0.8), { rel: 1e-14 });
+    expect(representativeRateBias(1)).toBe(1);
+    const c = powerLawCurve(0.15);
+    const r = representativeRateCheck(c.rates, c.stress, c.wall, c.viscosity, {}, c.rates.map(() => 0.15));
+    r.rows.filter((x) => x.deviation !== null).forEach((x) => {
+      expectClose(x.expectedDeviation as number, 0.9296273919361291 - 1, { abs: 1e-14 });
+      expectClose(x.deviationCorrected as number, 0, { abs: 1e-12 });
+    });
+    expect(r.warnings).toEqual([]);
+    expect(() => representativeRateCheck([1, 2], [1, 2], [1, 2], [1, 2], {}, [1])).toThrow(/nPrime: has 1 values/);
+  });
   test("the threshold is 5 % by default (common practice) and can be set", () => {
     expect(DEFAULT_REPRESENTATIVE_RATE_OPTIONS.maxDeviation).toBe(0.05);
     const c = powerLawCurve(0.5);
@@ -55,5 +71,24 @@ describe("reduce(…, { representativeRate: true })", () => {
     expect(g.representativeRate).toHaveLength(g.flowCurve.length);
     g.representativeRate!.forEach((r) => expectClose(r.viscosityRepresentative, 300, { rel: 1e-9 }));
     expect(reduce(data).groups[0]!.representativeRate).toBeUndefined();
+  });
+});
+
+describe("reduce(…, { representativeRate: true }) on a very shear-thinning power law (n = 0.2)", () => {
+  test("raw deviation −5.3 %, bias-corrected ≈ 0: no REPRESENTATIVE_RATE_DISAGREES", () => {
+    const n = 0.2;
+    const D = 1e-3;
+    const rates = [10, 30, 100, 300, 1000, 3000];
+    const tau = (rate: number) => 2e4 * (((3 * n + 1) / (4 * n)) * rate) ** n;
+    const data: Measurement[] = [10e-3, 20e-3, 30e-3].flatMap((L) => rates.map((rate) => ({ dieDiameter: D, dieLength: L, flowRate: flowRateForApparentShearRate(rate, D), pressure: 5 * tau(rate) + (4 * tau(rate) * L) / D })));
+    const r = reduce(data, { representativeRate: true });
+    const rows = r.groups[0]!.representativeRate!.filter((x) => x.deviation !== null);
+    expect(rows.length).toBeGreaterThanOrEqual(4);
+    rows.forEach((x) => {
+// @check representativeRate, reduceMethods | through reduce, power law n = 0.2: raw deviation −5.3 % and bias-corrected 0 at ≥ 4 rates | Schümmer & Worthoff, Chem. Eng. Sci. 33 (1978) 759 (from memory) | abs 2e-3 | 8
+      expectClose(x.deviation as number, representativeRateBias(n) - 1, { abs: 2e-3 });
+      expectClose(x.deviationCorrected as number, 0, { abs: 2e-3 });
+    });
+    expect(r.warnings.map((w) => w.code)).not.toContain("REPRESENTATIVE_RATE_DISAGREES");
   });
 });

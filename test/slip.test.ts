@@ -60,9 +60,34 @@ describe("mooneySlip warnings and errors", () => {
   test("SLIP_FEW_DIAMETERS with two diameters", () => {
     expect(mooneySlip([curve(1e-3), curve(2e-3)]).warnings.map((w) => w.code)).toEqual(["SLIP_FEW_DIAMETERS"]);
   });
-  test("SLIP_NEGATIVE_VELOCITY when the small die flows slower", () => {
-    const w = mooneySlip([curve(1e-3, (t) => -0.2 * slipVelocity(t)), curve(2e-3, (t) => -0.2 * slipVelocity(t)), curve(4e-3, (t) => -0.2 * slipVelocity(t))]).warnings;
-    expect(w.map((x) => x.code)).toContain("SLIP_NEGATIVE_VELOCITY");
+  test("SLIP_NEGATIVE_VELOCITY when the small die flows slower; such stresses are never corrected with it", () => {
+    const back = (t: number) => -0.2 * slipVelocity(t);
+    const r = mooneySlip([curve(1e-3, back), curve(2e-3, back), curve(4e-3, back)]);
+    expect(r.warnings.map((x) => x.code)).toContain("SLIP_NEGATIVE_VELOCITY");
+    expect(r.warnings.find((x) => x.code === "SLIP_NEGATIVE_VELOCITY")!.message).toMatch(/left uncorrected \(v_s = 0\)/);
+    expect(r.rows.length).toBe(STRESSES.length);
+    r.rows.forEach((row) => {
+      expect(row.slipApplied).toBe(false);
+      expect(row.slipVelocity).toBeLessThan(0);
+      // v_s = 0: the corrected rate is the diameters' mean rate, never the intercept above it
+      const mean = row.shearRateApparentByDiameter.reduce((a, b) => a + b, 0) / 3;
+      expectClose(row.shearRateApparentCorrected, mean, { rel: 1e-12 });
+      expect(row.shearRateApparentCorrected).toBeLessThan(mooneyLine([1e-3, 2e-3, 4e-3], row.shearRateApparentByDiameter).shearRateApparentCorrected);
+    });
+    // the positive slip of the exact data is applied
+    expect(mooneySlip([curve(1e-3), curve(2e-3), curve(4e-3)]).rows.every((row) => row.slipApplied)).toBe(true);
+  });
+  test("SLIP_LOW_R2 below 0.99 with three or more diameters (common practice, as for Bagley lines)", () => {
+    expect(DEFAULT_SLIP_OPTIONS.minR2).toBe(0.99);
+    // the middle bore's rate 8 % high: a bent Mooney line
+    const bent = { ...curve(1e-3), shearRateApparent: curve(1e-3).shearRateApparent.map((g) => g * 1.08) };
+    const r = mooneySlip([curve(0.5e-3), bent, curve(2e-3)]);
+    const low = r.rows.filter((row) => row.r2 < 0.99);
+    expect(low.length).toBeGreaterThan(0);
+    expect(r.warnings.map((x) => x.code)).toContain("SLIP_LOW_R2");
+    expect(r.warnings.find((x) => x.code === "SLIP_LOW_R2")!.message).toContain(`R² down to ${Math.min(...low.map((x) => x.r2)).toFixed(3)}`);
+    expect(mooneySlip([curve(0.5e-3), curve(1e-3), curve(2e-3)]).warnings.map((x) => x.code)).not.toContain("SLIP_LOW_R2");
+    expect(() => mooneySlip([curve(1e-3), curve(2e-3)], { minR2: 2 })).toThrow(/minR2: must be between 0 and 1/);
   });
   test("SLIP_CORRECTED_RATE_NONPOSITIVE when the lines extrapolate below zero", () => {
     const c1 = { dieDiameter: 1e-3, wallShearStress: STRESSES, shearRateApparent: STRESSES.map((t) => 100 * noSlipApparent(t)) };

@@ -1,6 +1,6 @@
 import { reduce, Measurement } from "../src/core/reduce";
 import { slitWallShearStress, slitLengthOverHeight, slitWarnings, DEFAULT_SLIT_OPTIONS } from "../src/core/slit";
-import { apparentSlitRateFromWallRate } from "../src/core/slitFlow";
+import { apparentSlitRateFromWallRate, slitShapeFactor } from "../src/core/slitFlow";
 import { readRawTable } from "../src/io/rawTable";
 import { RheoError } from "../src/core/errors";
 import { expectClose } from "./helpers/expectClose";
@@ -127,5 +127,61 @@ describe("readRawTable() with slit_width and slit_height", () => {
     expect(() => readRawTable([header, [1, 10, 1, 20, 10, 100]])).toThrow(/row 2: has both a die diameter and a slit size/);
     const t = readRawTable([header, [1, "", "", 20, 10, 100], ["", "", "", 20, 10, 100]]);
     expect(t.warnings.map((w) => w.code)).toEqual(["ROW_SKIPPED_BLANK"]);
+  });
+});
+
+/**
+ * Finite width: Newtonian flow in a rectangular duct, Q = (WH³ΔP/(12μL))·F (Boussinesq series;
+ * White, Viscous Fluid Flow, ch. 3, from memory). Check values: the Poiseuille numbers f·Re of rectangular
+ * ducts (Shah & London, Laminar Flow Forced Convection in Ducts, 1978; from memory), which give F
+ * through f·Re = 24/((1 + α)²·F), α = H/W (D_h = 2WH/(W + H)).
+ */
+describe("slit shape factor and edge correction", () => {
+  test.each([
+    [1, 14.227],
+    [0.5, 15.548],
+    [0.25, 18.233],
+    [0.125, 20.585],
+    [0.1, 21.169],
+  ])("α = H/W = %f: f·Re = %f (Shah & London 1978)", (alpha, fRe) => {
+// @check slitFlow | Newtonian shape factor of a rectangular duct through its Poiseuille number f·Re, 5 aspect ratios | Shah & London, Laminar Flow Forced Convection in Ducts (1978) (from memory) | rel 1e-4 | 5
+    expectClose(24 / ((1 + alpha) ** 2 * slitShapeFactor(1, alpha)), fRe, { rel: 1e-4 });
+  });
+  test("F → 1 for wide slits; bad sizes are refused", () => {
+    expectClose(slitShapeFactor(1000e-3, 1e-3), 1 - 0.63025 / 1000, { rel: 1e-6 });
+    expect(() => slitShapeFactor(1e-3, 2e-3)).toThrow(/slitHeight: must not exceed the width/);
+    expect(() => slitShapeFactor(0, 1e-3)).toThrow(/slitWidth: must be greater than zero/);
+  });
+  // a 5:1 Newtonian slit, flow from the exact duct formula with a constant entrance loss
+  const w = 5e-3;
+  const mu = 300;
+  const F = slitShapeFactor(w, H);
+  const duct: Measurement[] = [10e-3, 20e-3, 40e-3].flatMap((L) =>
+    [10, 30, 100, 300].map((rate) => {
+      const Q = (rate * w * H * H) / 6;
+      return { slitWidth: w, slitHeight: H, dieLength: L, flowRate: Q, pressure: 2e5 + (12 * mu * Q * L) / (w * H ** 3 * F) };
+    }),
+  );
+  test("uncorrected, a 5:1 slit overstates η by 1/F − 1 = 14 % and says so (SLIT_NARROW)", () => {
+    const r = reduce(duct);
+// @check slit, slitFlow | a 5:1 Newtonian duct read as parallel plates overstates η by 1/F, 4 rates | White, Viscous Fluid Flow (1974), ch. 3 (from memory) | rel 1e-6 | 4
+    r.groups[0]!.flowCurve.forEach((f) => expectClose(f.viscosity as number, mu / F, { rel: 1e-6 }));
+    const narrow = r.warnings.find((x) => x.code === "SLIT_NARROW")!;
+    expect(narrow.message).toMatch(/understate the wall rate and overstate the viscosity \(by about 14 %/);
+  });
+  test("slitEdgeCorrection: η = μ exactly; apparent rate and stress unchanged; SLIT_EDGE_CORRECTED", () => {
+    const plain = reduce(duct).groups[0]!;
+    const r = reduce(duct, { slitEdgeCorrection: true });
+    const g = r.groups[0]!;
+    expectClose(g.slitShapeFactor as number, F, { rel: 1e-15 });
+    g.flowCurve.forEach((f, i) => {
+// @check slit, reduceMethods | edge correction: η = μ of the 5:1 Newtonian duct at 4 rates | White, Viscous Fluid Flow (1974), ch. 3 (from memory) | rel 1e-6 | 4
+      expectClose(f.viscosity as number, mu, { rel: 1e-6 });
+      expect(f.shearRateApparent).toBe(plain.flowCurve[i]!.shearRateApparent);
+      expect(f.wallShearStress).toBe(plain.flowCurve[i]!.wallShearStress);
+    });
+    expect(r.warnings.map((x) => x.code)).toContain("SLIT_EDGE_CORRECTED");
+    // round groups are untouched
+    expect(reduce(newtonianSlit(800, 3e5, [10e-3, 20e-3], [10, 100]).map(({ slitWidth: _w, slitHeight: _h, ...m }) => ({ ...m, dieDiameter: 1e-3 })), { slitEdgeCorrection: true }).groups[0]!.slitShapeFactor).toBeUndefined();
   });
 });

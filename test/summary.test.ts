@@ -1,14 +1,12 @@
 /**
- * reductionSummary(result, warnings, fits): the model it names must be one whose parameters the
- * data determine (rule: a standard error larger than the value makes a parameter poorly
- * determined; common practice, no source), even when a poorly determined model has a lower AIC.
+ * reductionSummary(run): each group's line names the one verdict (src/core/fit/verdict.ts): the
+ * recommended model with each free parameter as far as the data determine it, and says when no
+ * model is well determined; the warning count includes the fits' warnings.
  */
 import { reductionSummary } from "../src/cli/summary";
-import { reduce, Measurement } from "../src/core/reduce";
-import { fitFlowCurves, GroupFits } from "../src/core/flowCurveFits";
-import { RankedFit } from "../src/core/fit";
+import { type Measurement } from "../src/core/reduce";
+import { runReduction } from "../src/core/run";
 import { flowRateForApparentShearRate } from "../src/core/capillary";
-import { warning } from "../src/core/errors";
 
 /** Newtonian liquid, 1000 Pa·s, dies L = 10 and 20 mm of 1 mm bore, e = 2 (Hagen–Poiseuille + Bagley). */
 function newtonian(): Measurement[] {
@@ -17,28 +15,40 @@ function newtonian(): Measurement[] {
   );
 }
 
-function withWarning(fit: RankedFit, code: string): RankedFit {
-  return { ...fit, result: { ...fit.result, warnings: [...fit.result.warnings, warning(code, "test")] } };
+/** Power-law melt (K = 2e4 Pa·s^n, n = 0.4) through the same dies: the Rabinowitsch factor (3n+1)/(4n) applies exactly. */
+function powerLaw(): Measurement[] {
+  const K = 2e4;
+  const n = 0.4;
+  return [10e-3, 20e-3].flatMap((L) =>
+    [20, 50, 100, 200, 500, 1000, 2000].map((apparent) => {
+      const wall = (apparent * (3 * n + 1)) / (4 * n);
+      const tau = K * Math.pow(wall, n);
+      return { dieDiameter: 1e-3, dieLength: L, flowRate: flowRateForApparentShearRate(apparent, 1e-3), pressure: 2 * tau * (2 * L / 1e-3 + 2) };
+    }),
+  );
 }
 
-test("names the lowest-AIC well-determined model and the poorly determined ones it passed over", () => {
-  const result = reduce(newtonian());
-  const fits = fitFlowCurves(result, ["newtonian", "power-law"]);
-  const ranked = (fits[0] as GroupFits).ranked;
-  expect(ranked.length).toBe(2);
-  const [first, second] = ranked as [RankedFit, RankedFit];
-  // exact data give both fits AIC −∞; set ranks explicitly so the first has the lower AIC
-  const doctored: GroupFits[] = [{ ...(fits[0] as GroupFits), ranked: [{ ...withWarning(first, "POORLY_DETERMINED"), aic: 10 }, { ...second, aic: 12 }] }];
-  const text = reductionSummary({ result, comparisons: doctored, warnings: [] });
-  expect(text).toContain(`best fit ${second.model} (`);
-  expect(text).toContain(`(lower AIC but poorly determined parameters: ${first.model})`);
+test("a Newtonian liquid: the summary recommends the Newtonian model with μ and no fit warning", () => {
+  const run = runReduction(newtonian(), {}, { rank: true });
+  const text = reductionSummary(run);
+  expect(run.groupFits[0]?.verdict.recommended).toBe("newtonian");
+  expect(text).toMatch(/recommended newtonian \(mu 1000 Pa\.s\)/);
+  expect(text).not.toMatch(/no model is well determined/);
 });
 
-test("with every model poorly determined it names the lowest AIC and says so", () => {
-  const result = reduce(newtonian());
-  const fits = fitFlowCurves(result, ["newtonian"]);
-  const only = (fits[0] as GroupFits).ranked[0] as RankedFit;
-  const text = reductionSummary({ result, comparisons: [{ ...(fits[0] as GroupFits), ranked: [withWarning(only, "POORLY_DETERMINED")] }], warnings: [] });
-  expect(text).toContain(`best fit ${only.model} (`);
-  expect(text).toContain("(poorly determined parameters)");
+test("a power-law melt: power law recommended; the plateau models' η0 lie outside the data and are passed over", () => {
+  const run = runReduction(powerLaw(), {}, { rank: true });
+  const v = run.groupFits[0]?.verdict;
+  expect(v?.recommended).toBe("power-law");
+  expect(v?.status).toBe("well-determined");
+  expect(reductionSummary(run)).toMatch(/recommended power-law \(K 2\.*\d* ?e?\+?\d* ?Pa\.s\^n, n 0\.4\)/);
+});
+
+test("the warning count of the summary includes the fits' warnings", () => {
+  const run = runReduction(newtonian(), {}, { rank: true, compare: ["cross"] });
+  const fitWarnings = run.groupFits.flatMap((g) => g.warnings);
+  expect(fitWarnings.length).toBeGreaterThan(0);
+  const text = reductionSummary(run);
+  expect(text).toContain(`${run.warnings.length} warning${run.warnings.length === 1 ? "" : "s"} (`);
+  for (const w of fitWarnings) expect(run.warnings).toContainEqual(w);
 });

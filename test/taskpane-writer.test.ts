@@ -9,15 +9,15 @@ import { join } from "node:path";
 import { parseCsv } from "../src/io/csv";
 import { detectColumns } from "../src/taskpane/columns";
 import { SHEET_BASE_NAMES, pairedSheetNames, uniqueSheetName, writeNewSheet, writeWorkbookPlan } from "../src/taskpane/excelWriter";
-import { buildLotPlan, runLotCheck } from "../src/taskpane/lotPanel";
-import { plannerFormFromSettings } from "../src/taskpane/plannerForm";
-import { buildPlannerPlan, runPlanner } from "../src/taskpane/plannerPanel";
+import { buildLotPlan, runLotCheck } from "../src/taskpane/panels/lot/check";
+import { plannerFormFromSettings } from "../src/taskpane/panels/planner/form";
+import { buildPlannerPlan, runPlanner } from "../src/taskpane/panels/planner/plan";
 import { conditionalFormatAddress } from "../src/taskpane/sheetPlan";
 import { buildWorkbookPlan } from "../src/taskpane/plan";
 import { RunOutput, runReduction } from "../src/taskpane/runReduction";
 import { DEFAULT_PANE_SETTINGS, describeSettings } from "../src/taskpane/settings";
 import { a1, blockLayout, findBlock, seriesAddresses } from "../src/taskpane/sheetPlan";
-import { copySheetAsValues, valuesCopyGrid } from "../src/taskpane/shareValues";
+import { copySheetAsValues, valuesCopyGrid } from "../src/taskpane/panels/share/values";
 import { FakeExcel } from "./helpers/fakeExcel";
 
 const META = { version: "9.9.9", date: "2025-01-02T03:04:05.000Z" };
@@ -70,7 +70,7 @@ describe("writeWorkbookPlan(batch, makePlan)", () => {
     const flow = findBlock(plan.results, "flow-1");
     const lay = blockLayout(flow);
     expect(cells.get(a1(lay.titleRow as number, flow.col))).toBe("Flow curve (Rabinowitsch-corrected)");
-    expect(cells.get(a1(lay.headerRow as number, flow.col + 5))).toBe("viscosity [Pa.s]");
+    expect(cells.get(a1(lay.headerRow as number, flow.col + 5))).toBe("viscosity [Pa·s]");
     const g = run.result.groups[0];
     g?.flowCurve.forEach((f, i) => {
       expect(cells.get(a1(lay.firstDataRow + i, flow.col))).toBe(f.shearRateApparent);
@@ -145,6 +145,76 @@ describe("writeWorkbookPlan(batch, makePlan)", () => {
       }),
     ).rejects.toThrow(/plan failed/);
     expect(fake.names()).toEqual(["Data", "Rheo results"]);
+  });
+});
+
+/** Leading characters that make Excel read a typed value as a formula or an entry command (CSV-injection lists add tab and CR). */
+const HOSTILE = ['=HYPERLINK("http://example.invalid","x")', "+5", "-L20", "@P50", "\tL10 tab", "\rL30 cr", "=1+1"];
+
+/** Every string written to a sheet that Excel could read as a formula, and the format in force on its cell. */
+function formulaLikeCells(fake: FakeExcel, sheet: string, property: "values" | "formulas" = "values"): { cell: string; value: string; format: unknown }[] {
+  const formats = fake.formats(sheet);
+  return [...fake.written(sheet, property)].filter(([, v]) => typeof v === "string" && /^[=+\-@\t\r]/.test(v)).map(([cell, v]) => ({ cell, value: v as string, format: formats.get(cell) }));
+}
+
+describe("text stays text (no cell becomes a formula)", () => {
+  test("user text in the results and method sheets (source label, die labels, column headers) is written in the Text format", async () => {
+    const hostileRun: RunOutput = {
+      ...run,
+      input: {
+        ...run.input,
+        sourceLabel: HOSTILE[0] as string,
+        dies: HOSTILE.map((label, i) => ({ label, diameterMm: 1, lengthMm: 10 * (i + 1) })),
+        columns: run.input.columns.map((c, i) => ({ ...c, header: HOSTILE[i % HOSTILE.length] as string })),
+      },
+    };
+    const fake = new FakeExcel();
+    const names = await writeWorkbookPlan(fake.batch, (n) => buildWorkbookPlan(hostileRun, { ...META, names: n }));
+    const found = [...formulaLikeCells(fake, names.results), ...formulaLikeCells(fake, names.method)];
+    // every hostile label is there, each as text
+    for (const h of HOSTILE) expect(found.some((f) => f.value.includes(h))).toBe(true);
+    expect(found.filter((f) => f.format !== "@")).toEqual([]);
+    // numbers keep their number formats (the flow curve's rate column)
+    const plan = buildWorkbookPlan(hostileRun, { ...META, names }).results;
+    const flow = findBlock(plan, "flow-1");
+    const first = a1(blockLayout(flow).firstDataRow, flow.col);
+    expect(fake.formats(names.results).get(first)).toBe("0.00");
+  });
+
+  test("the plan sheet: die and transducer names typed by the user stay text", async () => {
+    const demoPlan = JSON.parse(readFileSync(join(__dirname, "../workbooks/demo-plan.json"), "utf8")) as Record<string, unknown>;
+    const form = plannerFormFromSettings(demoPlan);
+    // the die list is comma-separated and trimmed, so its names carry no comma and no leading blank
+    const names = ["=1+1", "+5", "-L20", "@P50"];
+    const out = runPlanner({ ...form, dies: form.dies.split("\n").map((l, i) => l.replace(/^[^,]+/, names[i % names.length] as string)).join("\n"), transducers: form.transducers.replace(/^[^,]+/, "@P50") });
+    const fake = new FakeExcel();
+    const name = await writeNewSheet(fake.batch, SHEET_BASE_NAMES.plan, (n) => buildPlannerPlan(out, { ...META, name: n }));
+    const found = formulaLikeCells(fake, name);
+    expect(found.length).toBeGreaterThanOrEqual(3);
+    expect(found.filter((f) => f.format !== "@")).toEqual([]);
+  });
+
+  test("the Share fallback list (no notes, no comments) writes the replaced formulas as text", async () => {
+    const fake = new FakeExcel();
+    const formulas = [["label", "value"], ["-L20", "=RHEO.WALLSTRESS(A2,1,20)"], ["=not a formula", 3]];
+    const values = [["label", "value"], ["-L20", 12.5], ["=not a formula", 3]];
+    fake.addSheet("Lab", { formulas, values, rowIndex: 0, columnIndex: 0 });
+    const done = await copySheetAsValues(fake.batch, "Lab", () => false);
+    expect(done.keeper).toBe("list");
+    const listed = formulaLikeCells(fake, "Lab values", "values");
+    expect(listed.map((f) => f.value)).toEqual(["=RHEO.WALLSTRESS(A2,1,20)"]);
+    expect(listed.filter((f) => f.format !== "@")).toEqual([]);
+    // text cells of the copied range that read like formulas get the Text format before the grid is written back
+    const formats = fake.formats("Lab values");
+    expect(formats.get("A2")).toBe("@");
+    expect(formats.get("A3")).toBe("@");
+  });
+
+  test("valuesCopyGrid names the text cells that read like formulas, for every leading character", () => {
+    const f = [HOSTILE.map((h) => h), ["ok", "=RHEO.FLOWRATE(A1,B1)"]];
+    const v = [HOSTILE.map((h) => h), ["ok", "-3 (text result)"]];
+    const { text } = valuesCopyGrid(f, v);
+    expect(text).toEqual([...HOSTILE.map((_, col) => ({ row: 0, col })), { row: 1, col: 1 }]);
   });
 });
 

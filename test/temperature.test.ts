@@ -8,9 +8,12 @@ import {
   fitWlfShift,
   masterCurve,
   shiftFactor,
+  verticalShiftFactor,
+  wlfConstantsAtReference,
   wlfShiftFactor,
   type TemperatureCurve,
 } from "../src/core/temperature";
+import { gaussian, seededRandom } from "../src/core/random";
 import { evaluateModel } from "../src/core/models";
 import { expectClose } from "./helpers/expectClose";
 
@@ -99,14 +102,96 @@ describe("fitWlfShift(curves, Tref)", () => {
     expect(fit.C1StandardError).toBeLessThan(1e-6 * fit.C1);
     expect(fit.C2StandardError).toBeLessThan(1e-6 * fit.C2);
   });
-  test("with two temperatures C2 is held at 51.6 K and only C1 is fitted", () => {
-    const fit = fitWlfShift(curvesFrom(quadraticMaster, (T) => wlfShiftFactor(T, 423.15, 8, 51.6), [423.15, 443.15]), 423.15);
-    expect(fit.C2).toBe(51.6);
+  test("four temperatures: C2 fitted (C2Source fitted), no warning", () => {
+    const fit = fitWlfShift(curvesFrom(quadraticMaster, (T) => wlfShiftFactor(T, 423.15, 8.86, 101.6), [403.15, 423.15, 443.15, 463.15]), 423.15, { glassTransitionTemperature: 373.15 });
+    expect(fit.C2Source).toBe("fitted");
+    expect(fit.warnings).toEqual([]);
+    expect(fit.universalAtReference).toEqual(wlfConstantsAtReference(423.15, 373.15));
+  });
+  test("two temperatures with T_g: C2 = 51.6 K + T_ref − T_g (universal constants converted), C1 fitted, WLF_C2_UNIVERSAL", () => {
+    // a liquid obeying the universal law with T_g = 373.15 K, seen from T_ref = 423.15 K
+    const Tg = 373.15;
+    const truth = wlfConstantsAtReference(423.15, Tg);
+    const fit = fitWlfShift(curvesFrom(quadraticMaster, (T) => wlfShiftFactor(T, Tg, 17.44, 51.6), [423.15, 443.15]), 423.15, { glassTransitionTemperature: Tg });
+    expect(fit.C2Source).toBe("universal");
+    expectClose(fit.C2, 101.6, { rel: 1e-15 });
     expect(fit.C2StandardError).toBeNaN();
-    expectClose(fit.C1, 8, { rel: 1e-6 });
+    expectClose(fit.C1, truth.C1, { rel: 1e-6 });
+    expect(fit.warnings.map((w) => w.code)).toEqual(["WLF_C2_UNIVERSAL"]);
+    expect(fit.warnings[0]!.message).toMatch(/2 temperatures cannot determine C2.*C2 = 51\.6 \+ T_ref − T_g = 101\.6 K/);
+  });
+  test("two temperatures without T_g: an error naming glassTransitionTemperature (C2 at 51.6 K belongs to T_ref = T_g)", () => {
+    expect(() => fitWlfShift(curvesFrom(quadraticMaster, (T) => wlfShiftFactor(T, 423.15, 8, 51.6), [423.15, 443.15]), 423.15)).toThrow(
+      /^glassTransitionTemperature: WLF with 2 temperatures cannot determine C2: give the glass transition temperature T_g/,
+    );
+    const held = fitWlfShift(curvesFrom(quadraticMaster, (T) => wlfShiftFactor(T, 423.15, 8, 60), [423.15, 443.15]), 423.15, { C2: 60 });
+    expect(held.C2Source).toBe("held");
+    expectClose(held.C1, 8, { rel: 1e-6 });
+  });
+  test("C2 the data cannot determine: held at the converted universal value with T_g, else WLF_C2_POORLY_DETERMINED", () => {
+    // three close temperatures, C2 = 400 K (almost Arrhenius-straight) and 3 % noise on η
+    const random = seededRandom(7);
+    const noisy = curvesFrom(quadraticMaster, (T) => wlfShiftFactor(T, 473.15, 6, 400), [463.15, 473.15, 483.15]).map((c) => ({ ...c, viscosity: c.viscosity.map((v) => v * Math.exp(0.03 * gaussian(random))) }));
+    const free = fitWlfShift(noisy, 473.15);
+    expect(free.warnings.map((w) => w.code)).toEqual(["WLF_C2_POORLY_DETERMINED"]);
+    const held = fitWlfShift(noisy, 473.15, { glassTransitionTemperature: 373.15 });
+    expect(held.C2Source).toBe("universal");
+    expectClose(held.C2, 151.6, { rel: 1e-12 });
   });
   test("holding both constants is refused", () => {
     expect(() => fitWlfShift(curvesFrom(quadraticMaster, () => 1, [423.15, 443.15]), 423.15, { C1: 1, C2: 50 })).toThrow("options: holds both C1 and C2; nothing is left to fit");
+  });
+});
+
+/**
+ * Change of reference of the WLF equation (Ferry 1980, ch. 11, from memory): with the universal
+ * C1 = 17.44, C2 = 51.6 K at T_g, the same law about T_ref has C2 = 51.6 + T_ref − T_g and
+ * C1 = 17.44·51.6/C2 — an identity checked here on a_T itself.
+ */
+describe("wlfConstantsAtReference(T_ref, T_g)", () => {
+  test("T_g = 100 °C, T_ref = 200 °C: C2 = 151.6 K, C1 = 5.93604; same a_T at every T", () => {
+    const c = wlfConstantsAtReference(473.15, 373.15);
+    expectClose(c.C2, 151.6, { rel: 1e-14 });
+    expectClose(c.C1, (17.44 * 51.6) / 151.6, { rel: 1e-14 });
+    for (const T of [393.15, 453.15, 473.15, 533.15]) {
+// @check temperature/shiftFactors | universal WLF constants moved from T_g to T_ref give the same a_T at 4 temperatures | Williams, Landel & Ferry, J. Am. Chem. Soc. 77 (1955) 3701; Ferry, Viscoelastic Properties of Polymers (1980), ch. 11 (from memory) | rel 1e-12 | 4
+      expectClose(wlfShiftFactor(T, 473.15, c.C1, c.C2), wlfShiftFactor(T, 373.15, 17.44, 51.6) / wlfShiftFactor(473.15, 373.15, 17.44, 51.6), { rel: 1e-12 });
+    }
+    expect(() => wlfConstantsAtReference(300, 373.15)).toThrow(/^glassTransitionTemperature: must be below T_ref \+ 51.6 K/);
+  });
+});
+
+/**
+ * Vertical shift b_T = ρ(T)T/(ρ_ref T_ref) (Ferry 1980, ch. 11; from memory): curves built as
+ * η = a_T·b_T·η_ref(a_T·γ̇) are recovered exactly only when the fit divides b_T out.
+ */
+describe("vertical shift factor", () => {
+  const alpha = 7e-4;
+  const Ea = 45e3;
+  const temps = [453.15, 473.15, 493.15, 513.15];
+  const curves = temps.map((T) => {
+    const a = arrheniusShiftFactor(T, 473.15, Ea);
+    const b = verticalShiftFactor(T, 473.15, alpha);
+    const shearRate = rates(1, 3000, 15);
+    return { temperature: T, shearRate, viscosity: shearRate.map((g) => a * b * quadraticMaster(a * g)) };
+  });
+  test("b_T = exp(−α(T − T_ref))·T/T_ref", () => {
+    expectClose(verticalShiftFactor(493.15, 473.15, alpha), Math.exp(-0.014) * (493.15 / 473.15), { rel: 1e-15 });
+    expect(verticalShiftFactor(473.15, 473.15, alpha)).toBe(1);
+    expect(() => verticalShiftFactor(473.15, 473.15, -1)).toThrow(/thermalExpansion: must be zero or more/);
+  });
+  test("the fit with the vertical shift recovers Ea; the master curve collapses onto η_ref", () => {
+    const fit = fitArrheniusShift(curves, 473.15, { verticalShift: { thermalExpansion: alpha } });
+// @check temperature/fitShift, temperature/masterCurve | curves built with the vertical factor ρ(T)T/(ρ_ref T_ref): Ea back only when the fit divides it out | Ferry, Viscoelastic Properties of Polymers (1980), ch. 11 (from memory) | rel 1e-7 | 1
+    expectClose(fit.activationEnergy, Ea, { rel: 1e-7 });
+    fit.factors.forEach((f) => expectClose(f.bT, verticalShiftFactor(f.temperature, 473.15, alpha), { rel: 1e-14 }));
+    const master = masterCurve(curves, fit);
+    master.shearRate.forEach((g, i) => expectClose(master.viscosity[i] as number, quadraticMaster(g), { rel: 1e-6 }));
+    const [eta] = evaluateAtTemperature("power-law", { K: 1e4, n: 0.4 }, fit, [10], 513.15);
+    const a = shiftFactor(fit, 513.15);
+    expectClose(eta as number, a * verticalShiftFactor(513.15, 473.15, alpha) * 1e4 * (10 * a) ** -0.6, { rel: 1e-6 });
+    // without it the fitted Ea absorbs b_T
+    expect(Math.abs(fitArrheniusShift(curves, 473.15).activationEnergy - Ea)).toBeGreaterThan(500);
   });
 });
 

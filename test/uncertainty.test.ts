@@ -1,4 +1,4 @@
-import { bagleyStressUncertainty, flowCurveUncertainty, pressureStandardUncertainty, transducerWarnings, DEFAULT_UNCERTAINTY_OPTIONS } from "../src/core/uncertainty";
+import { bagleyStressUncertainty, pressureStandardUncertainty, transducerWarnings, DEFAULT_UNCERTAINTY_OPTIONS } from "../src/core/uncertainty";
 import { reduce, Measurement } from "../src/core/reduce";
 import { flowRateForApparentShearRate } from "../src/core/capillary";
 import { expectClose } from "./helpers/expectClose";
@@ -18,22 +18,6 @@ describe("uncertainty propagation (JCGM 100:2008, GUM)", () => {
     expectClose(bagleyStressUncertainty([10, 20, 30], 1000, 30), 0.5 * Math.sqrt(1000 ** 2 / 200 + 900), { rel: 1e-15 });
     expect(() => bagleyStressUncertainty([10, 10], 1, 0)).toThrow(/must have different lengths/);
   });
-  // u(n') = √(u_r,i² + u_r,j²)/Δln γ̇ for neighbours; round: |df/dn'| = 1/(4n'²); k = 2
-  test("flowCurveUncertainty by hand on a power law with 1 % stress uncertainty", () => {
-    const n = 0.5;
-    const rates = [10, 100, 1000];
-    const stress = rates.map((r) => 1e4 * r ** n);
-    const wall = rates.map((r) => (r * (3 * n + 1)) / (4 * n));
-    const visc = stress.map((s, i) => s / (wall[i] as number));
-    const u = flowCurveUncertainty(rates, stress, stress.map((s) => 0.01 * s), [n, n, n], wall, visc);
-    const uN = Math.sqrt(2) * 0.01 / Math.log(100); // middle point: neighbours 10 and 1000
-    const uW = 100 * (1 / (4 * n * n)) * uN;
-    expectClose(u[1]!.wallShearStress, 2 * 0.01 * (stress[1] as number), { rel: 1e-14 });
-    expectClose(u[1]!.shearRateWall as number, 2 * uW, { rel: 1e-12 });
-    expectClose(u[1]!.viscosity as number, 2 * (visc[1] as number) * Math.sqrt(1e-4 + (uW / (wall[1] as number)) ** 2), { rel: 1e-12 });
-    const slit = flowCurveUncertainty(rates, stress, stress.map((s) => 0.01 * s), [n, n, n], wall, visc, "slit", 1);
-    expectClose(slit[1]!.shearRateWall as number, 100 * (1 / (3 * n * n)) * uN, { rel: 1e-12 });
-  });
   test("TRANSDUCER_LOW_READING below 5 % of full scale (common practice); TRANSDUCER_OVER_RANGE above it", () => {
     expect(DEFAULT_UNCERTAINTY_OPTIONS).toEqual({ coverageFactor: 2, minFractionOfFullScale: 0.05 });
     const t = { fullScale: 1000e5, accuracy: 0.0025 };
@@ -45,12 +29,11 @@ describe("uncertainty propagation (JCGM 100:2008, GUM)", () => {
 describe("reduce(…, { transducer })", () => {
   const D = 1e-3;
   const data: Measurement[] = [10e-3, 20e-3, 30e-3].flatMap((L) => [10, 100, 1000].map((rate) => ({ dieDiameter: D, dieLength: L, flowRate: flowRateForApparentShearRate(rate, D), pressure: 1e6 + 4 * 300 * rate * (L / D) })));
-  test("± columns aligned with the flow curve; exact line: ±τ = 2·½u_P/√Sxx with x = L/R = 20, 40, 60", () => {
+  test("± columns aligned with the flow curve: the budget's expanded uncertainties (uncertaintyBudget.test.ts)", () => {
     const t = { fullScale: 700e5, accuracy: 0.0025 };
     const g = reduce(data, { transducer: t }).groups[0]!;
     expect(g.uncertainty).toHaveLength(g.flowCurve.length);
-    const uP = (0.0025 * 700e5) / Math.sqrt(3);
-    g.uncertainty!.forEach((u) => expectClose(u.wallShearStress, 2 * 0.5 * uP / Math.sqrt(800), { rel: 1e-6 }));
+    g.uncertainty!.forEach((u, i) => expectClose(u.wallShearStress, g.uncertaintyBudget![i]!.expanded.wallShearStress, { rel: 1e-15 }));
   });
   test("low readings are flagged", () => {
     expect(reduce(data, { transducer: { fullScale: 2000e5, accuracy: 0.0025 } }).warnings.map((w) => w.code)).toContain("TRANSDUCER_LOW_READING");

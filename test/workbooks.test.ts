@@ -26,7 +26,9 @@ import { CREAM_YIELD, creamViscosity } from "../scripts/demo/creamYield";
 import { FILM_GRADE, filmGradeViscosity } from "../scripts/demo/filmGrade";
 import { PASTE_SLIP, pasteSlipRows, pasteSlipVelocity, pasteViscosity } from "../scripts/demo/pasteSlip";
 import { expectClose } from "./helpers/expectClose";
-import { BOOLEAN_LITERALS, RHEO_FUNCTIONS, clearArraySizes, declareArraySize, implementationOf, registerRheoFunctions } from "./helpers/hyperformulaRheo";
+import { FUNCTION_MODULES } from "../src/functions/entry";
+import { BOOLEAN_LITERALS, RHEO_FUNCTIONS, clearArraySizes, declareArraySize, excelFormulaText, implementationOf, registerRheoFunctions } from "./helpers/hyperformulaRheo";
+import { storedFunctionName } from "../scripts/workbooks/functionTable";
 
 const ROOT = path.join(__dirname, "..");
 
@@ -41,7 +43,10 @@ interface FormulaCell {
   sheet: number;
   row: number; // 0-based
   col: number; // 0-based
+  /** the formula with add-in names as the add-in registers them (RHEO.NAME), without "=" */
   formula: string;
+  /** the formula as stored in the file (RHEO functions as _xldudf_RHEO_NAME) */
+  stored: string;
   width: number;
   height: number;
   /** cached values over the formula's range, row-major */
@@ -105,9 +110,10 @@ async function loadBook(file: string): Promise<LoadedBook> {
             if (isArray) (grid[span.r0 + i] ??= [])[span.c0 + j] = null;
           }
         }
-        const formula = String((v as ExcelJS.CellFormulaValue).formula);
+        const stored = String((v as ExcelJS.CellFormulaValue).formula);
+        const formula = excelFormulaText(stored);
         (grid[r - 1] ??= [])[c - 1] = `=${formula}`;
-        formulas.push({ sheet, row: r - 1, col: c - 1, formula, width, height, cached });
+        formulas.push({ sheet, row: r - 1, col: c - 1, formula, stored, width, height, cached });
       });
     });
     contents[ws.name] = Array.from({ length: grid.length }, (_, i) => Array.from({ length: (grid[i] ?? []).length }, (_, j) => grid[i]?.[j] ?? null));
@@ -168,7 +174,7 @@ function fitParameters<N extends string>(book: LoadedBook, f: FormulaCell, names
 
 describe("readFunctionTable(source) over src/functions", () => {
   it("registers every @customfunction of the bundle's files with its exported implementation", () => {
-    const files = ["functions.ts", "fitting.ts", "methods.ts", "planning.ts"];
+    const files = Object.keys(FUNCTION_MODULES);
     const tags = files.flatMap((f) => readFileSync(path.join(ROOT, "src/functions", f), "utf8").match(/@customfunction\s+[A-Z]/g) ?? []);
     expect(RHEO_FUNCTIONS).toHaveLength(tags.length);
     expect(RHEO_FUNCTIONS.map((e) => e.excelName)).toEqual(expect.arrayContaining(["RHEO.FLOWRATE", "RHEO.BAGLEY", "RHEO.REDUCE"]));
@@ -197,6 +203,17 @@ describe.each(WORKBOOK_SPECS)("workbooks/demo-$name.xlsx", (spec) => {
     const notes = book.hf.getSheetValues(2).flat().join("\n");
     expect(notes).toContain("INVENTED DATA");
     expect(statSync(file).size).toBeLessThan(200 * 1024);
+  });
+
+  it("stores every RHEO call as Excel stores add-in functions (_xldudf_RHEO_NAME), never as RHEO.NAME text", () => {
+    const rheo = book.formulas.filter((f) => f.formula.includes("RHEO."));
+    expect(rheo.length).toBeGreaterThan(8);
+    for (const f of book.formulas) expect(`${f.stored.slice(0, 60)}: ${/(^|[^_A-Za-z])RHEO\./.test(f.stored.replace(/"(?:[^"]|"")*"/g, ""))}`).toBe(`${f.stored.slice(0, 60)}: false`);
+    for (const f of rheo) {
+      const name = /^RHEO\.[A-Z0-9.]+/.exec(f.formula)?.[0] as string;
+      expect(f.stored.startsWith(`${storedFunctionName(name)}(`)).toBe(true);
+    }
+    expect(storedFunctionName("RHEO.FLOWRATE")).toBe("_xldudf_RHEO_FLOWRATE");
   });
 
   it("every formula evaluated by HyperFormula equals the value cached in the file", () => {

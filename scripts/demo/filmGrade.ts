@@ -45,6 +45,25 @@ function viscosityAt(temperatureK: number) {
 export const filmGradeViscosity = viscosityAt;
 
 /**
+ * The noise-free pressure of the grade (viscosity function `eta` at one temperature) on a die of
+ * length L (m) at piston speed v (mm/min), Pa: 2τ_w(L/R + e), e = 2 + 1.5·log10(γ̇_a).
+ */
+function steadyPressure(eta: (rate: number) => number, L: number, v: number): number {
+  const p = FILM_GRADE;
+  const q = ((v * 1e-3) / 60) * (Math.PI * p.barrelDiameter ** 2) / 4;
+  const rateApp = (32 * q) / (Math.PI * p.dieDiameter ** 3);
+  const wall = wallRateFromApparentRate(eta, rateApp);
+  const tau = eta(wall) * wall;
+  const e = 2 + 1.5 * Math.log10(rateApp);
+  return 2 * tau * ((2 * L) / p.dieDiameter + e);
+}
+
+/** The noise-free pressure at `temperatureC` on a die of length L (m) at v (mm/min), Pa. */
+export function filmGradePressure(temperatureC: number, L: number, v: number): number {
+  return steadyPressure(viscosityAt(temperatureC + 273.15), L, v);
+}
+
+/**
  * CSV rows of the scenario (header first): the long dies at every temperature, then with
  * `orifice` the orifice die at every temperature.
  */
@@ -57,12 +76,7 @@ export function filmGradeRows(options: { orifice?: boolean } = {}): string[][] {
     const eta = viscosityAt(tC + 273.15);
     for (const L of lengths) {
       for (const v of p.pistonSpeedsMmMin) {
-        const q = ((v * 1e-3) / 60) * (Math.PI * p.barrelDiameter ** 2) / 4;
-        const rateApp = (32 * q) / (Math.PI * p.dieDiameter ** 3);
-        const wall = wallRateFromApparentRate(eta, rateApp);
-        const tau = eta(wall) * wall;
-        const e = 2 + 1.5 * Math.log10(rateApp);
-        const pressure = 2 * tau * ((2 * L) / p.dieDiameter + e) * (1 + p.pressureNoise * gaussian(random));
+        const pressure = steadyPressure(eta, L, v) * (1 + p.pressureNoise * gaussian(random));
         rows.push([String(tC), "1", String(L * 1e3), "15", String(v), (pressure / 1e5).toFixed(2)]);
       }
     }

@@ -124,7 +124,7 @@ export function yieldBlocks(law: YieldLaw): AnalysisBlocks {
     row = fitTop + fit.rows + 1;
 
     label(ws, row, `${ctx.block + 1}. Model comparison by AIC (RHEO.COMPAREFITS)`);
-    const compare = place(ws, row + 1, 1, rheo("compareFits", [rate, eta, YIELD_MODELS, null, null, null, true]));
+    const compare = place(ws, row + 1, 1, rheo("compareFits", [rate, eta, YIELD_MODELS, null, null, null, true, "paste"]));
     row = row + 1 + compare.rows + 1;
 
     label(ws, row, `${ctx.block + 2}. The fitted Herschel-Bulkley model at the data rates (RHEO.MODEL with the fit of block ${ctx.block})`);

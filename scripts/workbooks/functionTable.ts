@@ -8,6 +8,30 @@
 /** The namespace Excel shows before each function name (manifest.xml). */
 export const FUNCTION_NAMESPACE = "RHEO";
 
+/**
+ * Prefix under which Excel stores an add-in's JavaScript custom functions in the file.
+ *
+ * What Excel writes, as found in public sources (no Microsoft specification states it):
+ *   - OfficeDev/Excel-Custom-Functions issue #108 (maintainer): "For Javascript Custom Functions,
+ *     we by default save out with a different prefix '_xldudf'";
+ *   - OfficeDev/office-js issue #3558 (maintainer): until the add-in's manifest is read the cell
+ *     shows the `_xldudf` name; once Excel knows the functions it maps them back to their real
+ *     names and calculates;
+ *   - OfficeDev/office-js issue #2568: the stored form seen in sheetN.xml is `_xldudf_XXXX`
+ *     (broken files had `[2]!_xldudf_XXX`); issue #877: a dot in a function name becomes an
+ *     underscore;
+ *   - workbooks from other add-ins in public repositories store `<f>_xldudf_NAMESPACE_NAME(…)</f>`
+ *     with the cached value in `<v>` (e.g. `_xldudf_CX_GET(…)`).
+ * Hence RHEO.FLOWRATE is stored as `_xldudf_RHEO_FLOWRATE`. Not confirmed against a file saved by
+ * Excel itself (no Excel here); docs/workbooks.md says so.
+ */
+export const STORED_FUNCTION_PREFIX = "_xldudf_";
+
+/** The name Excel stores for a function, e.g. "RHEO.FLOWRATE" → "_xldudf_RHEO_FLOWRATE". */
+export function storedFunctionName(excelName: string): string {
+  return STORED_FUNCTION_PREFIX + excelName.replace(/\./g, "_");
+}
+
 export interface SheetFunctionParameter {
   name: string;
   /** declared `unknown[][]`: Excel passes a 2-D array (a range or a single cell) */

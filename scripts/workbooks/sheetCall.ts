@@ -1,13 +1,14 @@
 /**
  * Building RHEO formulas for the demo workbooks together with the values they compute: each call
- * gives the formula text Excel stores and the result grid of the same implementation the add-in
- * registers (the files of the registry src/functions/entry.ts), which becomes the cell's cached value.
+ * gives the formula text as Excel stores it (`_xldudf_RHEO_NAME(…)`, see functionTable.ts) and the
+ * result grid of the same implementation the add-in registers (the files of the registry
+ * src/functions/entry.ts), which becomes the cell's cached value.
  */
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { isCellError } from "../../src/functions/adapter";
 import { FUNCTION_MODULES as MODULES } from "../../src/functions/entry";
-import { SheetFunctionEntry, readFunctionTable } from "./functionTable";
+import { SheetFunctionEntry, readFunctionTable, storedFunctionName } from "./functionTable";
 
 const FUNCTION_MODULES = Object.entries(MODULES) as [string, Record<string, unknown>][];
 
@@ -25,7 +26,7 @@ export interface RangeArg {
 export type Arg = RangeArg | string | number | boolean | null;
 
 export interface SheetCall {
-  /** formula text without the leading "=" */
+  /** formula text without the leading "=", in the form Excel stores (functionTable.ts: `_xldudf_RHEO_…`) */
   formula: string;
   result: Grid;
 }
@@ -77,5 +78,5 @@ export function rheo(jsName: SheetFunctionName, args: Arg[]): SheetCall {
       if (isCellError(cell)) throw new Error(`${entry.excelName} returned ${cell.code} ${cell.message} in a demo workbook`);
     }
   }
-  return { formula: `${entry.excelName}(${used.map(literal).join(",")})`, result };
+  return { formula: `${storedFunctionName(entry.excelName)}(${used.map(literal).join(",")})`, result };
 }

@@ -5,6 +5,9 @@ import { RheoError } from "../core/errors";
 import { type ByteSource, bytesSource } from "../io/rawInput";
 import { decodeBytes } from "../io/textDecode";
 import type { Warning } from "../core/errors";
+import type { OutputOptions } from "./safeWrite";
+
+export type { OutputOptions } from "./safeWrite";
 
 export interface CliIO {
   readFile(path: string): string;
@@ -17,8 +20,16 @@ export interface CliIO {
   stderr(text: string): void;
   /** receives the wall time of a phase (ms): "read", "reduce" (the core), "run" (the command); optional */
   timing?(phase: string, ms: number): void;
-  /** writes a binary file (creating its folder); needed by `reduce --out` */
-  writeFile?(path: string, data: Uint8Array): void;
+  /**
+   * Writes a file by the rules of safeWrite.ts: never over an existing file without `force`,
+   * never through a symlink or onto an input, never into a missing folder, all or nothing.
+   * Needed by `reduce --out` and `--report`.
+   */
+  writeFile?(path: string, data: Uint8Array | string, options: OutputOptions): void;
+  /** Checks an output path by the same rules before the work starts (optional: writeFile checks again). */
+  checkOutput?(path: string, options: OutputOptions): void;
+  /** SHA-256 (hex) and size of a file's bytes, for the method record (optional: else the text read is hashed). */
+  fileDigest?(path: string): { sha256: string; bytes: number };
 }
 
 /**

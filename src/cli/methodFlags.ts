@@ -13,6 +13,8 @@ export function flowCurveExtrasJson(g: ReductionGroup, i: number): Record<string
     out.shearRateRepresentative = rep.shearRateRepresentative;
     out.viscosityRepresentative = rep.viscosityRepresentative;
     out.representativeDeviation = rep.deviation;
+    out.representativeExpectedDeviation = rep.expectedDeviation;
+    out.representativeDeviationCorrected = rep.deviationCorrected;
   }
   const u = g.uncertainty?.[i];
   if (u) {
@@ -31,6 +33,7 @@ export function groupExtrasJson(g: ReductionGroup): Record<string, unknown> {
     out.slitWidth = g.slitWidth;
     out.slitHeight = g.slitHeight;
   }
+  if (g.slitShapeFactor !== undefined) out.slitShapeFactor = g.slitShapeFactor;
   if (g.entrancePressures) out.entrancePressures = g.entrancePressures;
   if (g.extensional) {
     out.extensional = g.extensional.map((e) => ({
@@ -41,8 +44,12 @@ export function groupExtrasJson(g: ReductionGroup): Record<string, unknown> {
       extensionRate: e.extensionRate,
       extensionalViscosity: e.extensionalViscosity,
       troutonRatio: e.troutonRatio,
+      shearRateBasis: e.shearRateBasis,
+      shearRate: e.shearRate,
+      viscosity: e.viscosity,
     }));
   }
+  if (g.uncertaintyBudget) out.uncertaintyBudget = g.uncertaintyBudget;
   if (g.heating) out.heating = g.heating;
   if (g.pressureDependence) out.pressureDependence = g.pressureDependence;
   return out;
@@ -56,6 +63,7 @@ export function topExtrasJson(result: ReductionResult): Record<string, unknown> 
       temperature: s.temperature,
       wallShearStress: s.wallShearStress,
       slipVelocity: s.slipVelocity,
+      slipApplied: s.slipApplied,
       shearRateApparentCorrected: s.shearRateApparentCorrected,
       slipVelocityStandardError: s.slipVelocityStandardError,
       r2: s.r2,

@@ -36,6 +36,10 @@ OPTIONS.json (dimensional values as "value unit" text; see workbooks/demo-plan.j
     priorModel + priorParameters   e.g. "power-law" + {"K": 12000, "n": 0.38} (SI), priorTemperature for cross-wlf
     mfr (or mvr) + mfrLoad         e.g. "2 g/10min" + "2.16 kg"; flowIndex n assumed (default 0.4)
     apparentViscosity + apparentShearRate   one point, e.g. "800 Pa.s" at "100 1/s"; flowIndex as above
+  priorTemperature     temperature the prior belongs to, e.g. "190 C"
+  testTemperature      melt temperature of the test, e.g. "210 C"
+  priorActivationEnergy  Arrhenius Ea that shifts the prior to the test's temperature, e.g. "50 kJ/mol"
+  priorWlfC1, priorWlfC2 or the WLF constants at priorTemperature, e.g. 4.5 and "150 K"
   endCorrection        assumed Bagley e in die radii (default ${DEFAULT_PLANNER_OPTIONS.endCorrection})
   lowFraction, highFraction   trusted share of full scale (default ${DEFAULT_PLANNER_OPTIONS.lowFraction * 100} % and ${DEFAULT_PLANNER_OPTIONS.highFraction * 100} %)
   settleTolerance      steady-state criterion (default ${DEFAULT_PLANNER_OPTIONS.settleTolerance * 100} %)
@@ -49,6 +53,7 @@ export function planJson(plan: Plan, prior: string) {
   return {
     units: { pressure: "Pa", length: "m", time: "s", volume: "m3", mass: "kg", viscosity: "Pa.s", shearRate: "1/s", speed: "m/s", flowRate: "m3/s" },
     prior,
+    caution: plan.caution,
     options: plan.options,
     barrelVolume: plan.barrelVolume,
     barrelMass: plan.barrelMass,
@@ -81,7 +86,7 @@ function render(t: SheetTable, pick?: number[]): string {
 /** Readable plan: one ladder per die, the summary, the warnings. */
 export function planText(plan: Plan, prior: string): string {
   const steps = planStepTable(plan);
-  const out: string[] = [`Prior viscosity: ${prior}`, ""];
+  const out: string[] = [`Prior viscosity: ${prior}`, ...plan.caution.map((c) => `Caution: ${c}`), ""];
   for (const d of plan.dies) {
     const rows = steps.rows.filter((r) => r[0] === d.die.name);
     out.push(`== die "${d.die.name}" (${d.die.kind}), transducer "${d.transducer.name}"`);

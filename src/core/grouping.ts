@@ -67,6 +67,7 @@ export function checkMeasurement(m: Measurement, index: number): number {
   need(m.dieLength, "dieLength");
   need(m.flowRate, "flowRate");
   need(m.pressure, "pressure");
+  if (m.pressureStd !== undefined) need(m.pressureStd, "pressureStd", true);
   if (m.temperature !== undefined) need(m.temperature, "temperature");
   return row;
 }
@@ -90,6 +91,7 @@ export function apparentPoint(m: Measurement, index: number): GroupedPoint {
       temperature: m.temperature ?? null,
       shearRateApparent: apparentSlitShearRate(m.flowRate, m.slitWidth, m.slitHeight),
       wallShearStressApparent: slitWallShearStress(m.pressure, m.slitHeight, m.dieLength),
+      ...(m.pressureStd !== undefined ? { pressureStd: m.pressureStd } : {}),
     };
   }
   const dieDiameter = m.dieDiameter as number;
@@ -102,6 +104,7 @@ export function apparentPoint(m: Measurement, index: number): GroupedPoint {
     temperature: m.temperature ?? null,
     shearRateApparent: apparentShearRate(m.flowRate, dieDiameter),
     wallShearStressApparent: apparentWallShearStress(m.pressure, dieDiameter, m.dieLength),
+    ...(m.pressureStd !== undefined ? { pressureStd: m.pressureStd } : {}),
   };
 }
 

@@ -13,16 +13,25 @@
  * (exact for a Newtonian liquid, conservative for a shear-thinning one whose tangent resistance
  * n'·ΔP/Q is smaller), reaching within a fraction ε of the final pressure after ln(1/ε) time
  * constants. V_melt is the melt left in the barrel at the start of the step. A planning estimate
- * derived here, not from a standard.
+ * derived here, not from a standard (compressionTime.ts holds the model and its source).
  *
  * Each die is assumed to be one barrel load (single-bore instrument, rates ascending); the total
  * time adds options.timePerLoad (loading, compaction, preheating) per die.
+ *
+ * The prior belongs to its own temperature: with priorTemperature, testTemperature and a shift law
+ * (priorShift) it is moved to the test's temperature (priorViscosity.ts, shiftPriorViscosity);
+ * without a law a prior at another temperature is used as it is, with a warning. The plan's
+ * caution says what the predictions leave out: the pressure dependence of viscosity (the real
+ * pressure of a long die at high pressure is higher than predicted) and, unless shifted, the
+ * temperature difference between prior and test.
  */
 import { RheoError, requireNonNegative, requirePositive, warning, type Warning } from "./errors";
 import { pistonSpeedForFlowRate } from "./flow";
 import { dieFlowPoint, validatePlanDie, type DieFlowPoint, type PlanDie } from "./diePressure";
 import { rangeFlag, suggestTransducer, validateTransducers, type PlanTransducer, type RangeFlag } from "./transducerChoice";
-import type { ViscosityFunction } from "./priorViscosity";
+import { shiftPriorViscosity, type ViscosityFunction } from "./priorViscosity";
+import type { ShiftLaw } from "./temperature/shiftFactors";
+import { compressionTimeConstant, settlingTime } from "./compressionTime";
 
 /** Rules of thumb of the planner, defined once. */
 export const DEFAULT_PLANNER_OPTIONS = Object.freeze({
@@ -66,7 +75,17 @@ export interface PlanInput {
   dwellTime: number;
   /** Melt compressibility β, 1/Pa; when given the steady-state criterion applies. */
   compressibility?: number;
+  /** Temperature the prior viscosity belongs to, K (optional). */
+  priorTemperature?: number;
+  /** Melt temperature of the planned test, K (optional). */
+  testTemperature?: number;
+  /** Shift law that moves the prior from priorTemperature to testTemperature (needs both). */
+  priorShift?: ShiftLaw;
 }
+
+/** The caution every plan carries: what the predicted pressures leave out. */
+export const PLAN_CAUTION_PRESSURE =
+  "Predicted pressures are estimates from the prior viscosity. They ignore the rise of viscosity with pressure, so a long die at high pressure can read more than predicted; the instrument's manual, the transducer's and die's ratings and local rules decide what is safe to run.";
 
 /** One step of the speed ladder. SI units. */
 export interface PlanStep extends DieFlowPoint {
@@ -113,6 +132,8 @@ export interface Plan {
   totalMass: number;
   totalDuration: number;
   options: PlannerOptions;
+  /** what the predictions leave out (the pressure dependence, the prior's temperature): to be shown with the plan */
+  caution: string[];
   warnings: Warning[];
 }
 
@@ -164,6 +185,11 @@ function validateInput(input: PlanInput): void {
   requirePositive(input.density, "density");
   requirePositive(input.dwellTime, "dwellTime");
   if (input.compressibility !== undefined) requirePositive(input.compressibility, "compressibility");
+  if (input.priorTemperature !== undefined) requirePositive(input.priorTemperature, "priorTemperature");
+  if (input.testTemperature !== undefined) requirePositive(input.testTemperature, "testTemperature");
+  if (input.priorShift !== undefined && (input.priorTemperature === undefined || input.testTemperature === undefined)) {
+    throw new RheoError("missing", input.priorTemperature === undefined ? "priorTemperature" : "testTemperature", "shifting the prior needs the temperature it belongs to (priorTemperature) and the test's (testTemperature)");
+  }
   if (input.dies.length === 0) throw new RheoError("missing", "dies", "give at least one die");
   const names = new Set<string>();
   for (const die of input.dies) {
@@ -187,8 +213,9 @@ export function planTest(input: PlanInput, options: Partial<PlannerOptions> = {}
   const rates = logSpaced(input.shearRateMin, input.shearRateMax, input.points);
   const basis = input.rateBasis ?? "apparent";
   const warnings: Warning[] = [];
+  const prior = priorAtTestTemperature(input, warnings);
   const dies = input.dies.map((die) => {
-    const flows = rates.map((r) => dieFlowPoint(input.viscosity, die, r, basis, o.endCorrection));
+    const flows = rates.map((r) => dieFlowPoint(prior.viscosity, die, r, basis, o.endCorrection));
     const pressures = flows.map((f) => f.pressure);
     let transducer: PlanTransducer;
     let suggested = true;
@@ -212,7 +239,30 @@ export function planTest(input: PlanInput, options: Partial<PlannerOptions> = {}
     totalMass: totalVolume * input.density,
     totalDuration: dies.reduce((s, d) => s + d.duration, 0),
     options: o,
+    caution: [PLAN_CAUTION_PRESSURE, prior.caution],
     warnings,
+  };
+}
+
+const celsius = (t: number) => `${Number((t - 273.15).toFixed(1))} °C`;
+
+/**
+ * The prior at the test's temperature (module comment) and the caution sentence about it.
+ * Warning code: PLAN_PRIOR_NOT_SHIFTED (prior and test temperatures differ and no law shifts it).
+ */
+function priorAtTestTemperature(input: PlanInput, warnings: Warning[]): { viscosity: ViscosityFunction; caution: string } {
+  const { priorTemperature: tp, testTemperature: tt, priorShift } = input;
+  if (priorShift && tp !== undefined && tt !== undefined) {
+    const law = priorShift.law === "arrhenius" ? `Arrhenius, Ea = ${Number((priorShift.activationEnergy / 1e3).toPrecision(4))} kJ/mol` : `WLF, C1 = ${Number(priorShift.C1.toPrecision(4))}, C2 = ${Number(priorShift.C2.toPrecision(4))} K`;
+    return { viscosity: shiftPriorViscosity(input.viscosity, priorShift, tp, tt), caution: `The prior viscosity was shifted from ${celsius(tp)} to the test's ${celsius(tt)} (${law}).` };
+  }
+  if (tp !== undefined && tt !== undefined && Math.abs(tp - tt) > 0.05) {
+    warnings.push(warning("PLAN_PRIOR_NOT_SHIFTED", `the prior viscosity belongs to ${celsius(tp)} but the test runs at ${celsius(tt)} and no shift law was given: it is used unshifted, so the predicted pressures are off by the viscosity's change over ${Math.abs(tt - tp).toFixed(1)} K`));
+    return { viscosity: input.viscosity, caution: `The prior viscosity belongs to ${celsius(tp)} and is used unshifted at the test's ${celsius(tt)}: give a shift law to move it.` };
+  }
+  return {
+    viscosity: input.viscosity,
+    caution: "The prior viscosity is used as given: if it was measured at another temperature than the test's, give both temperatures and a shift law so it is moved to the test's temperature.",
   };
 }
 
@@ -223,7 +273,7 @@ function dieSteps(die: PlanDie, flows: DieFlowPoint[], transducer: PlanTransduce
     let settleTime: number | null = null;
     if (input.compressibility !== undefined) {
       const melt = Math.max(0, capacity - cumulative);
-      settleTime = Math.log(1 / o.settleTolerance) * input.compressibility * melt * (f.pressure / f.flowRate);
+      settleTime = melt > 0 ? settlingTime(compressionTimeConstant(input.compressibility, melt, f.pressure, f.flowRate), o.settleTolerance) : 0;
     }
     const stepTime = Math.max(input.dwellTime, settleTime ?? 0);
     const volume = f.flowRate * stepTime;

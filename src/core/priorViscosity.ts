@@ -9,6 +9,7 @@
  */
 import { RheoError, requirePositive } from "./errors";
 import { getModel, parameterVector } from "./models";
+import { shiftFactor, verticalFactor, type ShiftLaw } from "./temperature/shiftFactors";
 
 /** Viscosity η (Pa·s) as a function of the true shear rate γ̇ (1/s). */
 export type ViscosityFunction = (shearRate: number) => number;
@@ -125,4 +126,21 @@ export function meltFlowApparentPoint(point: MeltFlowPoint): { shearRateApparent
 export function powerLawFromMeltFlow(point: MeltFlowPoint): { K: number; n: number } {
   const p = meltFlowApparentPoint(point);
   return powerLawFromApparentPoint(p.shearRateApparent, p.viscosityApparent, point.flowIndex ?? DEFAULT_ASSUMED_FLOW_INDEX);
+}
+
+/**
+ * A prior viscosity moved from the temperature it belongs to, T_prior, to the test's, T_test, by
+ * time–temperature superposition (Dealy & Wang, Melt Rheology (2013), ch. 4, from memory):
+ * η_test(γ̇) = a·b·η_prior(a·γ̇) with a = a_T(T_test)/a_T(T_prior) of the law (and b the ratio of
+ * its vertical factors, 1 without a vertical shift).
+ * @param temperatures T_prior and T_test, K
+ * @throws RheoError for non-positive temperatures or one outside the law's range (WLF)
+ * @example shiftPriorViscosity(() => 1000, { law: "arrhenius", referenceTemperature: 463.15, activationEnergy: 50e3 }, 463.15, 483.15)(10) // 584.2 Pa·s
+ */
+export function shiftPriorViscosity(viscosity: ViscosityFunction, shift: ShiftLaw, priorTemperature: number, testTemperature: number): ViscosityFunction {
+  requirePositive(priorTemperature, "priorTemperature");
+  requirePositive(testTemperature, "testTemperature");
+  const a = shiftFactor(shift, testTemperature) / shiftFactor(shift, priorTemperature);
+  const b = verticalFactor(shift, testTemperature) / verticalFactor(shift, priorTemperature);
+  return (rate) => a * b * viscosity(a * rate);
 }

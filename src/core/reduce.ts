@@ -54,7 +54,8 @@ export function reduce(measurements: Measurement[], options: Partial<ReduceOptio
     return r;
   });
   const groups = reduced.map((r) => r.group);
-  const fitted = opt.heating && opt.heating.temperatureCoefficient === undefined ? fittedTemperatureCoefficients(groups) : null;
+  // b for the heating estimate and the uncertainty budget's temperature term, fitted when not given
+  const fitted = (opt.heating || opt.transducer) && opt.heating?.temperatureCoefficient === undefined ? fittedTemperatureCoefficients(groups) : null;
   const warnings: Warning[] = [];
   for (const { group, sources } of reduced) {
     const given = opt.heating?.temperatureCoefficient;

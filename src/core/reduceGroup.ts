@@ -16,7 +16,7 @@ import { BagleyDie, BagleyRow, bagleyLines } from "./bagley";
 import { bagleyLineChecks } from "./bagleyChecks";
 import { rabinowitschCorrection } from "./rabinowitsch";
 import { slitWarnings } from "./slit";
-import { DEFAULT_ORIFICE_OPTIONS, OrificeOptions, compareEntrancePressures, orificeCorrection } from "./orifice";
+import { DEFAULT_ORIFICE_OPTIONS, OrificeOptions, compareEntrancePressures, orificeCorrection, orificeLandCorrection, shortestOrificeDie } from "./orifice";
 import { geometricMean, interpolateLogLog } from "./interpolate";
 import { bagleyStressUncertainty } from "./uncertainty";
 import type { CurveSource } from "./reduceMethods";
@@ -64,14 +64,17 @@ export function reduceGroup(
   const stableLong = allDies.filter((d) => !d.orifice && d.stable > 0);
   const longDies = stableLong.map((d) => d.steps.slice(0, d.stable));
   const orificeDies = allDies.filter((d) => d.orifice);
-  const orificePoints = orificeDies.flatMap((d) => d.steps).sort((a, b) => a.shearRateApparent - b.shearRateApparent);
+  // the orifice die (the shortest, when several); its land is subtracted (orifice.ts)
+  const orificeDie = shortestOrificeDie(orificeDies.flatMap((d) => d.steps));
+  const orificePoints = orificeDie?.points ?? [];
+  const orificeLength = orificeDie?.dieLength ?? 0;
   const ratioName = slit ? "L/H" : "L/D";
   if (longDies.length === 0) {
     throw new RheoError("missing", "dieLength", `${label} has only orifice dies (${ratioName} < ${orificeOpt.maxLengthOverDiameter}); a long die is needed too`);
   }
   if (orificePoints.length > 0 && opt.endCorrection !== "orifice") {
     warnings.push(
-      warning("ORIFICE_DIE_NOT_ON_BAGLEY", `The die of ${ratioName} < ${orificeOpt.maxLengthOverDiameter} (L = ${millimetres((orificePoints[0] as PointRow).dieLength)}) is treated as an orifice die: it is kept off the Bagley line and its entrance pressure is listed beside Bagley's.`),
+      warning("ORIFICE_DIE_NOT_ON_BAGLEY", `The die of ${ratioName} < ${orificeOpt.maxLengthOverDiameter} (L = ${millimetres((orificePoints[0] as PointRow).dieLength)}) is treated as an orifice die: it is kept off the Bagley line and its entrance pressure (its reading less its land) is listed beside Bagley's.${orificeDie && orificeDie.otherLengths.length > 0 ? ` The other orifice dies (L = ${orificeDie.otherLengths.map(millimetres).join(", ")}) are not used.` : ""}`),
     );
   }
   if (opt.endCorrection === "orifice" && orificePoints.length === 0) {
@@ -80,6 +83,15 @@ export function reduceGroup(
   const orificeRates = orificePoints.map((p) => p.shearRateApparent);
   const orificePressures = orificePoints.map((p) => p.pressure);
   const orificeAt = (rate: number) => (orificePoints.length > 0 ? (interpolateLogLog(orificeRates, orificePressures, rate) ?? null) : null);
+  // land-corrected orifice entrance pressure at a rate, with τ_w from Bagley or, failing that, from
+  // the longest die paired with the orifice (ΔP_long at this rate)
+  const orificeEntranceAt = (rate: number, bagleyStress: number | null, longPressure: number | null): number | null => {
+    const pO = orificeAt(rate);
+    if (pO === null) return null;
+    if (bagleyStress !== null) return pO - 2 * bagleyStress * xOf(orificeLength);
+    if (longPressure === null || !(longPressure > pO)) return null;
+    return orificeLandCorrection(longPressure, xOf(longestLength), pO, xOf(orificeLength)).entrancePressure;
+  };
   let bagley: BagleyRow[] = [];
   let bagleyDies: BagleyDie[] = [];
   let lines: ReturnType<typeof bagleyLines> | null = null;
@@ -126,10 +138,10 @@ export function reduceGroup(
         shearRateApparent: longest.map((p) => p.shearRateApparent),
         pressure: longest.map((p) => p.pressure),
       },
-      { shearRateApparent: orificeRates, pressure: orificePressures },
+      { shearRateApparent: orificeRates, pressure: orificePressures, dieLength: orificeLength },
     );
     warnings.push(...corrected.warnings);
-    const g = stressFactor(longestLength);
+    const g = stressFactor(longestLength - orificeLength);
     curve = corrected.rows
       .map((r) => ({
         rate: r.shearRateApparent,
@@ -146,7 +158,7 @@ export function reduceGroup(
       .map((p) => ({
         rate: p.shearRateApparent,
         stress: p.wallShearStressApparent,
-        source: { pressure: p.pressure, entrancePressure: orificeAt(p.shearRateApparent), stressUncertainty: (uP: number) => uP * g, bagleyPoints: null },
+        source: { pressure: p.pressure, entrancePressure: orificeEntranceAt(p.shearRateApparent, null, p.pressure), stressUncertainty: (uP: number) => uP * g, bagleyPoints: null },
       }))
       .sort((a, b) => a.rate - b.rate);
   }
@@ -183,13 +195,16 @@ export function reduceGroup(
   if (orificePoints.length > 0 && (bagley.length > 0 || opt.endCorrection !== "bagley")) {
     const rates = bagley.length > 0 ? bagley.map((r) => r.shearRateApparent) : curve.map((c) => c.rate);
     const fromBagley = rates.map((rate) => bagley.find((r) => r.shearRateApparent === rate)?.entrancePressure ?? null);
-    const fromOrifice = rates.map(orificeAt);
-    const cmp = compareEntrancePressures(rates, fromBagley, fromOrifice, orificeOpt.maxDisagreement);
+    const bagleyStress = (rate: number) => bagley.find((r) => r.shearRateApparent === rate)?.wallShearStress ?? null;
+    const longAt = (rate: number) => curve.find((c) => c.rate === rate)?.source.pressure ?? null;
+    const fromOrifice = rates.map((rate) => orificeEntranceAt(rate, bagleyStress(rate), longAt(rate)));
+    const cmp = compareEntrancePressures(rates, fromBagley, fromOrifice, orificeOpt.maxDisagreement, orificeLength / (slit ? slit.height : dieDiameter));
     warnings.push(...cmp.warnings);
     entrancePressures = rates.map((rate, i) => ({
       shearRateApparent: rate,
       entrancePressure: fromBagley[i] ?? null,
       entrancePressureOrifice: fromOrifice[i] ?? null,
+      orificePressure: orificeAt(rate),
       difference: cmp.difference[i] ?? null,
     }));
   }

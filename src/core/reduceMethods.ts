@@ -6,9 +6,15 @@
  * feeds them the group's data and gathers their results and warnings.
  */
 import { RheoError, Warning, warning } from "./errors";
-import type { ReductionGroup } from "./reduce";
+import type { FlowCurveRow, ReductionGroup } from "./reduce";
+import { slitEdgeCorrection } from "./slit";
 import { RepresentativeRateOptions, RepresentativeRateRow, representativeRateCheck } from "./representativeRate";
-import { Transducer, UncertaintyOptions, UncertaintyRow, flowCurveUncertainty, pressureStandardUncertainty, transducerWarnings, DEFAULT_UNCERTAINTY_OPTIONS } from "./uncertainty";
+import { Transducer, UncertaintyOptions, UncertaintyRow, transducerWarnings } from "./uncertainty";
+import { BudgetPoint, UncertaintyBudgetOptions, UncertaintyBudgetRow, uncertaintyBudget } from "./uncertaintyBudget";
+import { apparentPoint } from "./grouping";
+import { reduceGroup } from "./reduceGroup";
+import { geometricMean } from "./interpolate";
+import type { Measurement, ReduceOptions } from "./reduceTypes";
 import { HeatingOptions, HeatingProperties, HeatingRow, heatingTable, temperatureCoefficientFromShift } from "./viscousHeating";
 import { CogswellOptions, CogswellRow, cogswellTable } from "./cogswell";
 import { PressureDependenceOptions, PressureDependenceRow, pressureDependence } from "./pressureDependence";
@@ -26,10 +32,14 @@ export interface MethodOptions {
   heating: (HeatingProperties & Partial<HeatingOptions>) | null;
   /** curvature of the Bagley lines and the pressure coefficient of viscosity */
   pressureDependence: boolean | Partial<PressureDependenceOptions>;
-  /** transducer range and accuracy: low-reading flags and ± columns */
+  /** transducer range and accuracy: low-reading flags and the uncertainty budget (± columns) */
   transducer: (Transducer & Partial<UncertaintyOptions>) | null;
+  /** tolerances of the uncertainty budget (used when a transducer is given) */
+  uncertainty: Partial<UncertaintyBudgetOptions>;
   /** Mooney slip analysis across die diameters at each temperature */
   slip: boolean | Partial<SlipOptions>;
+  /** slit groups: divide the true wall rate by the channel's Newtonian shape factor (slitFlow.ts) */
+  slitEdgeCorrection: boolean;
 }
 
 /** Defaults of {@link MethodOptions}: every method off. */
@@ -39,7 +49,9 @@ export const DEFAULT_METHOD_OPTIONS: Readonly<MethodOptions> = Object.freeze({
   heating: null,
   pressureDependence: false,
   transducer: null,
+  uncertainty: {},
   slip: false,
+  slitEdgeCorrection: false,
 });
 
 /** Where a flow-curve point came from, as the methods need it. */
@@ -56,11 +68,24 @@ export interface CurveSource {
 
 /** The optional results of one group (each present only when its method was asked for). */
 export interface GroupMethodResults {
+  /** the flow curve after the slit edge correction (slit groups with slitEdgeCorrection only) */
+  flowCurve?: FlowCurveRow[];
+  /** the Newtonian shape factor F applied to a slit's flow curve */
+  slitShapeFactor?: number;
   representativeRate?: RepresentativeRateRow[];
+  /** expanded uncertainties (k·u_c) of τ_w, γ̇_w and η per flow-curve point, from the budget */
   uncertainty?: UncertaintyRow[];
+  /** the full budget per flow-curve point: each input's contribution, u_c and U */
+  uncertaintyBudget?: UncertaintyBudgetRow[];
   heating?: { temperatureCoefficient: number; temperatureCoefficientSource: "given" | "fitted"; rows: HeatingRow[] };
   extensional?: CogswellRow[];
-  pressureDependence?: { pressureCoefficient: number | null; rows: PressureDependenceRow[] };
+  pressureDependence?: {
+    /** @deprecated median β_γ (constant rate); use pressureCoefficientConstantStress */
+    pressureCoefficient: number | null;
+    /** median constant-stress β, 1/Pa */
+    pressureCoefficientConstantStress: number | null;
+    rows: PressureDependenceRow[];
+  };
 }
 
 const on = <T extends object>(v: boolean | T): T | undefined => (v === false ? undefined : v === true ? ({} as T) : v);
@@ -68,40 +93,64 @@ const on = <T extends object>(v: boolean | T): T | undefined => (v === false ? u
 /**
  * Applies the asked-for methods to a reduced group; returns their results and warnings.
  * @param radius R (m) of a round die, H/2 for a slit (for the Nahme number)
- * @param temperatureCoefficient b for this group's temperature (1/K), when heating is on
+ * @param temperatureCoefficient b for this group's temperature (1/K): given or fitted across temperatures
  */
 export function applyGroupMethods(
   group: ReductionGroup,
   sources: CurveSource[],
   geometry: "round" | "slit",
   radius: number,
-  opt: MethodOptions,
+  opt: ReduceOptions,
   temperatureCoefficient: { value: number; source: "given" | "fitted" } | null,
 ): { results: GroupMethodResults; warnings: Warning[] } {
   const results: GroupMethodResults = {};
   const warnings: Warning[] = [];
-  const fc = group.flowCurve;
+  let fc = group.flowCurve;
+  if (opt.slitEdgeCorrection && geometry === "slit" && group.slitWidth !== undefined && group.slitHeight !== undefined) {
+    const edge = slitEdgeCorrection(fc, group.slitWidth, group.slitHeight);
+    fc = edge.rows;
+    results.flowCurve = fc;
+    results.slitShapeFactor = edge.shapeFactor;
+    warnings.push(...edge.warnings);
+  }
   const rates = fc.map((f) => f.shearRateApparent);
   const stresses = fc.map((f) => f.wallShearStress);
   const rep = on(opt.representativeRate);
   if (rep && geometry === "round") {
-    const r = representativeRateCheck(rates, stresses, fc.map((f) => f.shearRateWall), fc.map((f) => f.viscosity), rep);
+    const r = representativeRateCheck(rates, stresses, fc.map((f) => f.shearRateWall), fc.map((f) => f.viscosity), rep, fc.map((f) => f.nPrime));
     results.representativeRate = r.rows;
     warnings.push(...r.warnings);
   }
   if (opt.transducer) {
-    const uP = pressureStandardUncertainty(opt.transducer);
-    const uTau = sources.map((s) => s.stressUncertainty(uP));
-    results.uncertainty = flowCurveUncertainty(rates, stresses, uTau, fc.map((f) => f.nPrime), fc.map((f) => f.shearRateWall), fc.map((f) => f.viscosity), geometry, opt.transducer.coverageFactor ?? DEFAULT_UNCERTAINTY_OPTIONS.coverageFactor);
+    const budget = uncertaintyBudget(
+      {
+        points: group.points.map((p) => ({ dieDiameter: p.dieDiameter, slitWidth: p.slitWidth, slitHeight: p.slitHeight, dieLength: p.dieLength, flowRate: p.flowRate, pressure: p.pressure, pressureStd: p.pressureStd })),
+        flowCurve: fc,
+        rerun: rerunGroup(group, geometry, opt),
+        geometry,
+        rabinowitsch: opt.rabinowitsch,
+        bagleyStressStandardError: fc.map((f) => {
+          const line = group.bagley.find((b) => b.shearRateApparent === f.shearRateApparent);
+          return opt.endCorrection === "bagley" && line && line.diesUsed >= 3 ? line.slopeStandardError / 2 : null;
+        }),
+        temperatureCoefficient: temperatureCoefficient?.value ?? null,
+      },
+      opt.transducer,
+      { ...(opt.transducer.coverageFactor !== undefined ? { coverageFactor: opt.transducer.coverageFactor } : {}), ...opt.uncertainty },
+    );
+    results.uncertaintyBudget = budget.rows;
+    results.uncertainty = budget.rows.map((r) => ({ wallShearStress: r.expanded.wallShearStress, shearRateWall: r.expanded.shearRateWall, viscosity: r.expanded.viscosity }));
+    warnings.push(...budget.warnings);
     warnings.push(...transducerWarnings(group.points.map((p) => p.pressure), opt.transducer, opt.transducer));
   }
   if (opt.heating) {
     if (!temperatureCoefficient) {
       throw new RheoError("missing", "heating.temperatureCoefficient", "give b = −d ln η/dT (1/K), or measure at two or more temperatures so it can be fitted");
     }
+    const longest = Math.max(...group.dies.filter((d) => !d.orifice).map((d) => d.dieLength));
     const h = heatingTable(
-      fc.map((f, i) => ({ shearRateApparent: f.shearRateApparent, pressure: (sources[i] as CurveSource).pressure, shearRateWall: f.shearRateWall, viscosity: f.viscosity })),
-      radius,
+      fc.map((f, i) => ({ shearRateApparent: f.shearRateApparent, pressure: (sources[i] as CurveSource).pressure, nPrime: f.nPrime, shearRateWall: f.shearRateWall, viscosity: f.viscosity })),
+      { geometry, radius, dieLength: longest },
       { ...opt.heating, temperatureCoefficient: temperatureCoefficient.value },
       opt.heating,
     );
@@ -114,7 +163,7 @@ export function applyGroupMethods(
       warnings.push(warning("COGSWELL_ROUND_ONLY", "The Cogswell analysis here is for round dies; it was not applied to the slit."));
     } else {
       const c = cogswellTable(
-        fc.map((f, i) => ({ shearRateApparent: f.shearRateApparent, shearRateWall: f.shearRateWall, viscosity: f.viscosity, nPrime: f.nPrime, entrancePressure: (sources[i] as CurveSource).entrancePressure })),
+        fc.map((f, i) => ({ shearRateApparent: f.shearRateApparent, shearRateWall: f.shearRateWall, viscosity: f.viscosity, viscosityApparent: f.viscosityApparent, nPrime: f.nPrime, entrancePressure: (sources[i] as CurveSource).entrancePressure })),
         ext,
       );
       results.extensional = c.rows;
@@ -124,13 +173,38 @@ export function applyGroupMethods(
   const pd = on(opt.pressureDependence);
   if (pd) {
     const lines = fc
-      .map((f, i) => ({ shearRateApparent: f.shearRateApparent, points: (sources[i] as CurveSource).bagleyPoints }))
-      .filter((l): l is { shearRateApparent: number; points: { lengthOverRadius: number; pressure: number }[] } => l.points !== null);
+      .map((f, i) => ({ shearRateApparent: f.shearRateApparent, points: (sources[i] as CurveSource).bagleyPoints, nPrime: f.nPrime }))
+      .filter((l): l is { shearRateApparent: number; points: { lengthOverRadius: number; pressure: number }[]; nPrime: number } => l.points !== null);
     const r = pressureDependence(lines, pd);
-    results.pressureDependence = { pressureCoefficient: r.pressureCoefficient, rows: r.rows };
+    results.pressureDependence = { pressureCoefficient: r.pressureCoefficient, pressureCoefficientConstantStress: r.pressureCoefficientConstantStress, rows: r.rows };
     warnings.push(...r.warnings);
   }
   return { results, warnings };
+}
+
+/**
+ * The group's reduction as a function of (perturbed) input points, for the uncertainty budget:
+ * the same pipeline and options, warnings dropped; null when the perturbed data cannot be reduced.
+ */
+function rerunGroup(group: ReductionGroup, geometry: "round" | "slit", opt: ReduceOptions): (points: BudgetPoint[], stressOnly?: boolean) => FlowCurveRow[] | null {
+  // the stresses do not depend on the smoother: the cheapest one serves when only they are read
+  const cheap: ReduceOptions = { ...opt, rabinowitsch: { ...opt.rabinowitsch, method: "difference" } };
+  return (points, stressOnly = false) => {
+    try {
+      const rows = points.map((p, i) => {
+        const m: Measurement =
+          geometry === "slit"
+            ? { slitWidth: p.slitWidth, slitHeight: p.slitHeight, dieLength: p.dieLength, flowRate: p.flowRate, pressure: p.pressure }
+            : { dieDiameter: p.dieDiameter, dieLength: p.dieLength, flowRate: p.flowRate, pressure: p.pressure };
+        return apparentPoint(m, i);
+      });
+      const slit = geometry === "slit" ? { width: geometricMean(rows.map((r) => r.slitWidth as number)), height: geometricMean(rows.map((r) => r.slitHeight as number)) } : undefined;
+      return reduceGroup(rows, group.temperature, stressOnly ? cheap : opt, slit).group.flowCurve;
+    } catch (e) {
+      if (e instanceof RheoError) return null;
+      throw e;
+    }
+  };
 }
 
 /**

@@ -26,6 +26,11 @@ export interface Measurement {
   flowRate: number;
   /** measured pressure drop ΔP (includes entrance and exit losses), Pa */
   pressure: number;
+  /**
+   * standard deviation of the plateau pressure, Pa (a step read off a pressure–time trace;
+   * optional, ≥ 0): the reading's own scatter, propagated by the uncertainty budget (uncertaintyBudget.ts)
+   */
+  pressureStd?: number;
   /** melt temperature, K (optional; points without one form their own group) */
   temperature?: number;
   /** the source row (1-based), carried into error messages */
@@ -83,6 +88,8 @@ export interface PointRow {
   dieLength: number;
   flowRate: number;
   pressure: number;
+  /** plateau standard deviation of the pressure, Pa (when given) */
+  pressureStd?: number;
   /** γ̇_a, 1/s */
   shearRateApparent: number;
   /** τ_w,app = ΔP·D/(4L) (ΔP·H/(2L) for a slit), Pa */
@@ -181,8 +188,13 @@ export interface EntrancePressureRow {
   shearRateApparent: number;
   /** Bagley intercept, or null where no Bagley line exists at this rate */
   entrancePressure: number | null;
-  /** orifice die's pressure at this rate (interpolated log–log), or null outside its range */
+  /**
+   * entrance pressure from the orifice die: its reading at this rate (interpolated log–log) minus
+   * the pressure of its own land, 2τ_w·L_o/R (orifice.ts); null outside its range
+   */
   entrancePressureOrifice: number | null;
+  /** the orifice die's reading at this rate (entrance plus its land), Pa, or null outside its range */
+  orificePressure: number | null;
   /** (Bagley − orifice)/orifice, or null */
   difference: number | null;
 }

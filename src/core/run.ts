@@ -5,32 +5,59 @@
  * The surfaces only read their settings (src/io/reduceOptions.ts) and render the run
  * (src/io/resultTables.ts); nothing here knows about cells, flags or fields.
  */
-import { RheoError, Warning, scoped, warning } from "./errors";
+import { RheoError, Warning, scoped } from "./errors";
 import { reduce, groupLabel, type Measurement, type ReduceOptions, type ReductionGroup, type ReductionResult } from "./reduce";
-import { fitModel, type FitResult } from "./fit";
-import { DEFAULT_FLOW_CURVE_MODELS, fitFlowCurves, type GroupFits } from "./flowCurveFits";
+import type { FitResult } from "./fit";
+import { fitFlowCurves, trueFlowCurve, verdictAgreement, type GroupFits, type MaterialClass } from "./flowCurveFits";
 import { getModel, type ModelId } from "./models";
 import {
   fitArrheniusShift,
+  fitMasterCurve,
   fitWlfShift,
   masterCurve,
   type ArrheniusShiftFit,
   type MasterCurve,
+  type MasterFitResult,
+  type MasterLaw,
+  type MasterModel,
   type ShiftLaw,
   type TemperatureCurve,
+  type VerticalShift,
   type WlfShiftFit,
 } from "./temperature";
+import type { TraceSteps } from "./steps/traceSteps";
+import { fitJoinedCurve, type JoinedFit } from "./joinedFit";
+import type { RotationalCurve } from "./rotationalJoin";
 
-/** The model fits and shift a run is asked for. */
+export { trueFlowCurve };
+
+/**
+ * The model fits and shift a run is asked for. Every run fits each group's true flow curve with
+ * the one fitter (flowCurveFits.ts) and decides its verdict: over `compare` and `model` when
+ * given, else over the default models of the material class.
+ */
 export interface FitRequest {
   /** fit this one model to every group (an error in any group stops the run) */
   model?: ModelId;
-  /** rank these models by AIC per group; absent: {@link DEFAULT_FLOW_CURVE_MODELS} when `rank` is on */
+  /** rank these models by AIC per group (the ranking is shown) */
   compare?: readonly string[];
-  /** rank the default models even when `compare` is not given (the summary and the workbook use it) */
+  /** show the ranking of the default models even when `compare` is not given (summary, workbook) */
   rank?: boolean;
-  /** temperature shift over the groups; referenceTemperature K, or null for the middle temperature */
-  shift?: { law: "arrhenius" | "wlf"; referenceTemperature: number | null };
+  /**
+   * temperature shift over the groups; referenceTemperature K, or null for the middle temperature;
+   * glassTransitionTemperature (K, WLF) converts the universal constants when C2 cannot be fitted;
+   * verticalShift applies b_T = ρ(T)T/(ρ_ref T_ref) (temperature/shiftFactors.ts)
+   */
+  shift?: { law: "arrhenius" | "wlf"; referenceTemperature: number | null; glassTransitionTemperature?: number; verticalShift?: VerticalShift };
+  /** melt (default) or paste: yield-stress models and a free η∞ only for a paste */
+  material?: MaterialClass;
+  /**
+   * the fit across temperatures (temperature/masterFit.ts): law and reference temperature (K, or
+   * null for the middle temperature) for every model but cross-wlf; for cross-wlf, D2 (K) to hold
+   */
+  master?: { model: MasterModel; law: MasterLaw | null; referenceTemperature: number | null; D2?: number };
+  /** a rotational curve to join to the capillary curve of its temperature and fit (joinedFit.ts) */
+  rotational?: RotationalCurve;
 }
 
 /** The temperature shift of a run. */
@@ -43,32 +70,27 @@ export interface RunShift {
   referenceChoice: "given" | "middle";
 }
 
+/** The fit across temperatures of a run, with the bore whose curves it used. */
+export type RunMasterFit = MasterFitResult & { dieDiameter: number };
+
 /** Everything one run produced, SI units. */
 export interface ReductionRun {
   result: ReductionResult;
+  /** every group's fits and the one verdict on them, in the order of result.groups */
+  groupFits: GroupFits[];
   /** `model`: one fit per group, in the order of result.groups */
   modelFits?: FitResult[];
-  /** `compare` or `rank`: models ranked per group, in the order of result.groups */
+  /** `compare` or `rank`: the same fits as groupFits, when the ranking is to be shown */
   comparisons?: GroupFits[];
   shift?: RunShift;
+  /** `master`: the fit across temperatures */
+  master?: RunMasterFit;
+  /** `rotational`: the joined curve and its fits */
+  joined?: JoinedFit;
   /** every warning of the run: input (given), reduction, fits, shift; each with severity and scope */
   warnings: Warning[];
-}
-
-/** Re-raises a core error with the group in front, keeping kind and code. */
-function inGroup<T>(g: ReductionGroup, call: () => T): T {
-  try {
-    return call();
-  } catch (e) {
-    if (e instanceof RheoError) throw e.retarget({ argument: "model", context: `group ${groupLabel(g)}:` });
-    throw e;
-  }
-}
-
-/** The points of a group's true flow curve (those with a Rabinowitsch-corrected rate). */
-export function trueFlowCurve(g: ReductionGroup): { shearRate: number[]; viscosity: number[] } {
-  const points = g.flowCurve.filter((p) => p.shearRateWall !== null && p.viscosity !== null);
-  return { shearRate: points.map((p) => p.shearRateWall as number), viscosity: points.map((p) => p.viscosity as number) };
+  /** the steps of a pressure recording, when the run started from one (traceRun.ts) */
+  steps?: TraceSteps;
 }
 
 /**
@@ -95,27 +117,22 @@ export function shiftCurves(groups: readonly ReductionGroup[]): { curves: Temper
 /**
  * Fits a temperature shift law over the groups and reduces every point onto the master curve.
  * @param referenceTemperature K, or null for the middle measured temperature
+ * @param options WLF's glass transition temperature (K) and the optional vertical shift
  */
-export function shiftAcrossGroups(groups: readonly ReductionGroup[], law: "arrhenius" | "wlf", referenceTemperature: number | null): RunShift {
+export function shiftAcrossGroups(
+  groups: readonly ReductionGroup[],
+  law: "arrhenius" | "wlf",
+  referenceTemperature: number | null,
+  options: { glassTransitionTemperature?: number; verticalShift?: VerticalShift } = {},
+): RunShift {
   const { curves, dieDiameter } = shiftCurves(groups);
   const temps = curves.map((c) => c.temperature);
   const reference = referenceTemperature ?? (temps[temps.length >> 1] as number);
-  const fit = law === "arrhenius" ? fitArrheniusShift(curves, reference) : fitWlfShift(curves, reference);
-  const shiftLaw: ShiftLaw = fit.law === "arrhenius" ? { law: "arrhenius", referenceTemperature: reference, activationEnergy: fit.activationEnergy } : { law: "wlf", referenceTemperature: reference, C1: fit.C1, C2: fit.C2 };
+  const fit = law === "arrhenius" ? fitArrheniusShift(curves, reference, { verticalShift: options.verticalShift }) : fitWlfShift(curves, reference, options);
+  const vertical = options.verticalShift ? { verticalShift: options.verticalShift } : {};
+  const shiftLaw: ShiftLaw =
+    fit.law === "arrhenius" ? { law: "arrhenius", referenceTemperature: reference, activationEnergy: fit.activationEnergy, ...vertical } : { law: "wlf", referenceTemperature: reference, C1: fit.C1, C2: fit.C2, ...vertical };
   return { fit, law: shiftLaw, master: masterCurve(curves, shiftLaw), dieDiameter, referenceChoice: referenceTemperature === null ? "middle" : "given" };
-}
-
-/** The warnings of a group's ranked and failed fits, scoped to the group. */
-function comparisonWarnings(g: ReductionGroup, fits: GroupFits): Warning[] {
-  const label = groupLabel(g);
-  const out: Warning[] = [];
-  if (fits.pointCount < 3 && fits.ranked.length === 0) {
-    out.push(warning("FIT_SKIPPED", `${label}: only ${fits.pointCount} corrected point(s); no model was fitted.`, label));
-    return out;
-  }
-  for (const f of fits.failed) out.push(warning("FIT_FAILED", `${label}: ${f.model} was not fitted (${f.reason}).`, label));
-  for (const r of fits.ranked) out.push(...r.result.warnings.map((w) => scoped({ ...w, message: `${r.model}: ${w.message}` }, label)));
-  return out;
 }
 
 /**
@@ -127,20 +144,72 @@ function comparisonWarnings(g: ReductionGroup, fits: GroupFits): Warning[] {
 export function runReduction(measurements: Measurement[], options: Partial<ReduceOptions>, fits: FitRequest = {}, inputWarnings: Warning[] = []): ReductionRun {
   const result = reduce(measurements, options);
   const warnings: Warning[] = [...inputWarnings.map((w) => (w.scope ? w : { ...w, scope: "input" })), ...result.warnings];
-  const run: ReductionRun = { result, warnings };
+  const asked = [...(fits.compare ?? []), ...(fits.model !== undefined ? [fits.model] : [])];
+  const groupFits = fitFlowCurves(result, { models: asked, material: fits.material });
+  const run: ReductionRun = { result, groupFits, warnings };
+  for (const gf of groupFits) warnings.push(...gf.warnings);
   if (fits.model !== undefined) {
     const def = getModel(fits.model);
-    if (def.needsTemperature) throw new RheoError("value", "model", `${def.id} needs a temperature per point; fit each group with an isothermal model, or use a temperature shift`);
-    run.modelFits = result.groups.map((g) => inGroup(g, () => fitModel(def.id, trueFlowCurve(g))));
-    result.groups.forEach((g, i) => warnings.push(...(run.modelFits?.[i]?.warnings ?? []).map((w) => scoped(w, groupLabel(g)))));
+    run.modelFits = result.groups.map((g, i) => {
+      const gf = groupFits[i] as GroupFits;
+      const ranked = gf.ranked.find((r) => r.model === def.id);
+      if (ranked) {
+        if (gf.verdict.recommended !== def.id) warnings.push(...ranked.result.warnings.map((w) => scoped({ ...w, message: `${def.id}: ${w.message}` }, gf.label)));
+        return ranked.result;
+      }
+      const failed = gf.failed.find((f) => f.model === def.id);
+      if (failed?.result) return failed.result; // did not converge: reported with converged false
+      const context = `group ${groupLabel(g)}:`;
+      if (failed?.error) throw failed.error.retarget({ argument: "model", context });
+      throw new RheoError("convergence", "model", `${context} ${def.id} could not be fitted${failed ? ` (${failed.reason})` : ""}`);
+    });
   }
-  if (fits.compare !== undefined || fits.rank) {
-    run.comparisons = fitFlowCurves(result, fits.compare ?? DEFAULT_FLOW_CURVE_MODELS);
-    result.groups.forEach((g, i) => warnings.push(...comparisonWarnings(g, run.comparisons?.[i] as GroupFits)));
+  if (fits.compare !== undefined) {
+    // the user asked to see these models: their own warnings join the run's (the recommended one's are there already)
+    for (const gf of groupFits) {
+      for (const r of gf.ranked) {
+        if (r.model !== gf.verdict.recommended && r.model !== fits.model) warnings.push(...r.result.warnings.map((w) => scoped({ ...w, message: `${r.model}: ${w.message}` }, gf.label)));
+      }
+    }
   }
+  if (fits.compare !== undefined || fits.rank) run.comparisons = groupFits;
+  warnings.push(...verdictAgreement(groupFits));
   if (fits.shift) {
-    run.shift = shiftAcrossGroups(result.groups, fits.shift.law, fits.shift.referenceTemperature);
+    const { glassTransitionTemperature, verticalShift } = fits.shift;
+    run.shift = shiftAcrossGroups(result.groups, fits.shift.law, fits.shift.referenceTemperature, {
+      ...(glassTransitionTemperature !== undefined ? { glassTransitionTemperature } : {}),
+      ...(verticalShift ? { verticalShift } : {}),
+    });
     warnings.push(...run.shift.fit.warnings.map((w) => scoped(w, "temperature shift")));
   }
+  if (fits.master) {
+    run.master = masterAcrossGroups(result.groups, fits.master, fits.material);
+    warnings.push(...run.master.warnings.map((w) => scoped(w, "fit across temperatures")));
+  }
+  if (fits.rotational) {
+    run.joined = fitJoinedCurve(result, fits.rotational, { models: asked, material: fits.material });
+    warnings.push(...run.joined.warnings);
+  }
   return run;
+}
+
+/**
+ * The fit across temperatures over the curves {@link shiftCurves} picks (one bore, one curve per
+ * temperature). Errors are re-addressed to the run's settings: "master" (model, curves, data),
+ * "shift" (the law), "referenceTemperature".
+ * @param referenceTemperature of `master`: K, or null for the middle measured temperature
+ */
+export function masterAcrossGroups(groups: readonly ReductionGroup[], master: NonNullable<FitRequest["master"]>, material?: MaterialClass): RunMasterFit {
+  try {
+    const { curves, dieDiameter } = shiftCurves(groups);
+    const temps = curves.map((c) => c.temperature);
+    const crossWlf = master.model === "cross-wlf";
+    const referenceTemperature = crossWlf ? (master.D2 ?? null) : (master.referenceTemperature ?? (temps[temps.length >> 1] as number));
+    const fit = fitMasterCurve(curves, master.model, { law: crossWlf ? null : master.law, referenceTemperature, material });
+    return { ...fit, dieDiameter };
+  } catch (e) {
+    if (!(e instanceof RheoError)) throw e;
+    const argument = e.argument === "law" ? "shift" : e.argument === "referenceTemperature" ? (master.model === "cross-wlf" ? "crossWlfD2" : "referenceTemperature") : "master";
+    throw e.retarget({ argument });
+  }
 }

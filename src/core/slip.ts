@@ -10,7 +10,11 @@
  * Each die diameter's (end-corrected) flow curve is interpolated log–log to common wall stresses
  * inside the range all diameters cover; at each stress γ̇_a is fitted as a straight line in 1/R:
  * the slope is 4v_s and the intercept the slip-corrected apparent rate, which then goes through
- * the Rabinowitsch correction like any apparent rate.
+ * the Rabinowitsch correction like any apparent rate. A negative slope is not slip (the melt cannot
+ * flow backwards at the wall): that stress is flagged and left uncorrected, its corrected rate the
+ * mean of the diameters' rates (the line with v_s = 0). With three or more diameters a line whose
+ * R² is below minR2 is flagged (the rates do not follow 1/R: scatter, or a slip or end effect that
+ * differs between dies; threshold common practice, no source, as for Bagley lines).
  */
 import { RheoError, Warning, warning } from "./errors";
 import { fitLine } from "./regression";
@@ -33,6 +37,8 @@ export interface SlipOptions {
   stresses: number;
   /** diameters closer than this relative difference are one diameter */
   diameterTolerance: number;
+  /** warn when a Mooney line of three or more diameters has R² below this (common practice, no source) */
+  minR2: number;
   rabinowitsch: Partial<RabinowitschOptions>;
 }
 
@@ -40,6 +46,7 @@ export interface SlipOptions {
 export const DEFAULT_SLIP_OPTIONS: Readonly<SlipOptions> = Object.freeze({
   stresses: 8,
   diameterTolerance: 0.005,
+  minR2: 0.99,
   rabinowitsch: {},
 });
 
@@ -47,11 +54,13 @@ export const DEFAULT_SLIP_OPTIONS: Readonly<SlipOptions> = Object.freeze({
 export interface SlipRow {
   /** τ_w, Pa */
   wallShearStress: number;
-  /** v_s = slope/4, m/s */
+  /** v_s = slope/4 as fitted, m/s (negative: no slip detectable, and not used) */
   slipVelocity: number;
+  /** false where the fitted slip velocity is negative and the stress was left uncorrected */
+  slipApplied: boolean;
   /** standard error of v_s, m/s (0 with two diameters) */
   slipVelocityStandardError: number;
-  /** slip-corrected apparent rate (the intercept), 1/s */
+  /** slip-corrected apparent rate (the intercept; the diameters' mean rate where slipApplied is false), 1/s */
   shearRateApparentCorrected: number;
   /** R² of the line γ̇_a vs 1/R (1 with two diameters) */
   r2: number;
@@ -121,7 +130,9 @@ function checkCurve(c: SlipCurve, i: number): void {
  * Mooney slip analysis over the flow curves of two or more die diameters (module comment).
  *
  * Warning codes: SLIP_FEW_DIAMETERS (two diameters: the straightness of the Mooney lines cannot
- * be checked), SLIP_NEGATIVE_VELOCITY (a negative slope: no slip detectable within the scatter),
+ * be checked), SLIP_NEGATIVE_VELOCITY (a negative slope: no slip detectable within the scatter;
+ * those stresses are left uncorrected), SLIP_LOW_R2 (a line of three or more diameters with
+ * R² below minR2),
  * SLIP_CORRECTED_RATE_NONPOSITIVE (the intercept is not positive: those stresses are left out),
  * SLIP_STRESS_OVERLAP_NARROW (the diameters' stress ranges overlap over less than a factor 1.5),
  * plus the Rabinowitsch warnings of the corrected curve.
@@ -131,6 +142,7 @@ function checkCurve(c: SlipCurve, i: number): void {
  */
 export function mooneySlip(curves: SlipCurve[], options: Partial<SlipOptions> = {}): SlipResult {
   const opt: SlipOptions = { ...DEFAULT_SLIP_OPTIONS, ...options };
+  if (!(opt.minR2 >= 0 && opt.minR2 <= 1)) throw new RheoError("domain", "minR2", `must be between 0 and 1, got ${opt.minR2}`);
   if (!Number.isInteger(opt.stresses) || opt.stresses < 2) {
     throw new RheoError("value", "stresses", `must be a whole number of at least 2, got ${opt.stresses}`);
   }
@@ -167,23 +179,35 @@ export function mooneySlip(curves: SlipCurve[], options: Partial<SlipOptions> = 
   for (const tau of stresses) {
     const rates = merged.map((c) => interpolateLogLog(c.wallShearStress, c.shearRateApparent, tau) as number);
     const line = mooneyLine(diameters, rates);
-    if (line.slipVelocity < 0) negative.push(tau);
-    if (!(line.shearRateApparentCorrected > 0)) {
+    const applied = line.slipVelocity >= 0;
+    if (!applied) negative.push(tau);
+    const corrected = applied ? line.shearRateApparentCorrected : rates.reduce((s, r) => s + r, 0) / rates.length;
+    if (!(corrected > 0)) {
       nonPositive.push(tau);
       continue;
     }
     lines.push({
       wallShearStress: tau,
       slipVelocity: line.slipVelocity,
+      slipApplied: applied,
       slipVelocityStandardError: line.slipVelocityStandardError,
-      shearRateApparentCorrected: line.shearRateApparentCorrected,
+      shearRateApparentCorrected: corrected,
       r2: line.r2,
       shearRateApparentByDiameter: rates,
     });
   }
   if (negative.length > 0) {
     warnings.push(
-      warning("SLIP_NEGATIVE_VELOCITY", `The slip velocity comes out negative at ${negative.map(fmt).join(", ")} Pa: the smaller dies do not give higher apparent rates, so no slip is detectable there (scatter or end-correction error).`),
+      warning("SLIP_NEGATIVE_VELOCITY", `The slip velocity comes out negative at ${negative.map(fmt).join(", ")} Pa: the smaller dies do not give higher apparent rates, so no slip is detectable there (scatter or end-correction error); those stresses are left uncorrected (v_s = 0).`),
+    );
+  }
+  const crooked = merged.length >= 3 ? lines.filter((l) => l.slipApplied && l.r2 < opt.minR2) : [];
+  if (crooked.length > 0) {
+    warnings.push(
+      warning(
+        "SLIP_LOW_R2",
+        `The Mooney lines are not straight in 1/R at ${crooked.map((l) => fmt(l.wallShearStress)).join(", ")} Pa (R² down to ${Math.min(...crooked.map((l) => l.r2)).toFixed(3)}, below ${opt.minR2}): the slip velocity there is uncertain; look for scatter, a die whose entrance or surface differs, or slip that is not a wall property.`,
+      ),
     );
   }
   if (nonPositive.length > 0) {

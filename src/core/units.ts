@@ -22,6 +22,7 @@ export const QUANTITY_SI_UNIT = {
   viscosity: "Pa.s",
   density: "kg/m3",
   shearRate: "1/s",
+  angularFrequency: "rad/s",
   time: "s",
   area: "m2",
   volume: "m3",
@@ -118,6 +119,11 @@ const TABLE: Record<Quantity, UnitDef[]> = {
     { symbol: "g/L", factor: 1, aliases: ["g/l"] },
   ],
   shearRate: [{ symbol: "1/s", factor: 1, aliases: ["s-1", "/s", "s^-1"] }],
+  // ω = 2π·f: a frequency in Hz is 2π rad/s per hertz.
+  angularFrequency: [
+    { symbol: "rad/s", factor: 1, aliases: ["rad s-1", "rad/sec", "rad.s-1"] },
+    { symbol: "Hz", factor: 2 * Math.PI },
+  ],
   time: [
     { symbol: "s", factor: 1, aliases: ["sec"] },
     { symbol: "ms", factor: 1e-3 },

@@ -37,6 +37,12 @@ export const WARNING_CODES = Object.freeze({
   READINGS_NOT_USED: "caution",
   FLOW_INSTABILITY: "caution",
   MELT_FRACTURE_STRESS: "info",
+  // Steps of a pressure–time trace
+  STEP_NOT_STEADY: "caution",
+  STEP_WINDOW_SET: "info",
+  STEP_PRESSURE_NONPOSITIVE: "serious",
+  BLANK_SPEED_OUTSIDE: "caution",
+  THERMAL_CHECK_CHANGE: "caution",
 
   // End correction
   BAGLEY_FEW_DIES: "caution",
@@ -63,10 +69,12 @@ export const WARNING_CODES = Object.freeze({
   // Optional checks
   REPRESENTATIVE_RATE_DISAGREES: "caution",
   SLIT_NARROW: "caution",
+  SLIT_EDGE_CORRECTED: "info",
   SLIP_ONE_DIAMETER: "caution",
   SLIP_FEW_DIAMETERS: "caution",
   SLIP_STRESS_OVERLAP_NARROW: "caution",
   SLIP_NEGATIVE_VELOCITY: "serious",
+  SLIP_LOW_R2: "caution",
   SLIP_CORRECTED_RATE_NONPOSITIVE: "serious",
   COGSWELL_ROUND_ONLY: "info",
   COGSWELL_POINT_SKIPPED: "info",
@@ -77,8 +85,12 @@ export const WARNING_CODES = Object.freeze({
   PRESSURE_CURVATURE_DOWNWARD: "caution",
   PRESSURE_FEW_DIES: "info",
   PRESSURE_FIT_NOT_CONVERGED: "caution",
+  PRESSURE_EXACT_FIT: "caution",
   TRANSDUCER_LOW_READING: "caution",
   TRANSDUCER_OVER_RANGE: "serious",
+  UNCERTAINTY_NO_SCATTER: "caution",
+  UNCERTAINTY_TEMPERATURE_OMITTED: "info",
+  UNCERTAINTY_PARTIAL: "caution",
   MFR_APPARENT_POINT: "info",
   MFR_UNUSUAL_LOAD: "caution",
 
@@ -90,6 +102,23 @@ export const WARNING_CODES = Object.freeze({
   FIT_FAILED: "caution",
   FIT_SKIPPED: "info",
   REFERENCE_OUTSIDE_DATA: "caution",
+  WLF_C2_UNIVERSAL: "info",
+  WLF_C2_POORLY_DETERMINED: "caution",
+  ZERO_SHEAR_NOT_DETERMINED: "caution",
+  ONSET_NOT_DETERMINED: "caution",
+  NO_WELL_DETERMINED_MODEL: "caution",
+  VERDICT_FAMILIES_DIFFER: "caution",
+  FIT_EXACT: "info",
+  R2_UNDEFINED: "info",
+  EXTRAPOLATED: "caution",
+  OUTPUT_VALUE_UNDEFINED: "caution",
+  MASTER_C2_HELD: "info",
+  MASTER_PRESSURE_TERM_HELD: "info",
+
+  // Rotational data joined to the capillary curve
+  COX_MERZ_APPLIED: "info",
+  ROTATIONAL_OVERLAP_MISMATCH: "caution",
+  ROTATIONAL_NO_OVERLAP: "caution",
 
   // Planner and lot check
   PLAN_PRESSURE_OVER_FULL_SCALE: "serious",
@@ -97,8 +126,12 @@ export const WARNING_CODES = Object.freeze({
   PLAN_PRESSURE_LOW: "caution",
   PLAN_NO_TRANSDUCER_COVERS: "serious",
   PLAN_BARREL_CAPACITY_EXCEEDED: "serious",
+  PLAN_PRIOR_NOT_SHIFTED: "caution",
   LOT_NOTHING_COMPARED: "serious",
   LOT_POINTS_NOT_COMPARED: "info",
+
+  // Written results (workbook, report)
+  RESULT_NOT_FINITE: "caution",
 } satisfies Record<string, WarningSeverity>);
 
 /** A registered warning code. */

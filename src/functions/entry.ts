@@ -13,6 +13,7 @@ import * as coreFunctions from "./functions";
 import * as fittingFunctions from "./fitting";
 import * as methodFunctions from "./methods";
 import * as planningFunctions from "./planning";
+import * as stepFunctions from "./steps";
 
 /** Each declaring file (name within src/functions) with its exports. */
 export const FUNCTION_MODULES = Object.freeze({
@@ -20,6 +21,7 @@ export const FUNCTION_MODULES = Object.freeze({
   "fitting.ts": fittingFunctions,
   "methods.ts": methodFunctions,
   "planning.ts": planningFunctions,
+  "steps.ts": stepFunctions,
 });
 
 /** The exported JavaScript name of any declared worksheet function. */

@@ -9,8 +9,10 @@
  * NOT_CONVERGED warning row; RHEO.MODEL refuses a parameter range whose converged row is FALSE.
  */
 import { RheoError, type Warning } from "../core/errors";
-import { compareModels, DEFAULT_FIT_OPTIONS, fitModel, type FitData, type FitResult, type ResidualSpace } from "../core/fit";
-import { checkParameterValue, evaluateModel, getModel, MODEL_IDS, MODEL_REGISTRY, type ModelDefinition } from "../core/models";
+import { DEFAULT_FIT_OPTIONS, fitModel, type FitData, type FitResult, type ResidualSpace } from "../core/fit";
+import { fitCurve, MATERIAL_CLASSES, type MaterialClass } from "../core/flowCurveFits";
+import { CROSS_WLF_LITERATURE, fitMasterCurve, MASTER_LAWS, MASTER_MODELS, type MasterFitResult } from "../core/temperature/masterFit";
+import { checkParameterValue, evaluateModel, getModel, MODEL_IDS, type ModelDefinition } from "../core/models";
 import { fitArrheniusShift, fitWlfShift, shiftFactor, WLF_UNIVERSAL_C2, type TemperatureCurve } from "../core/temperature";
 import { fromSI } from "../core/units";
 import {
@@ -43,8 +45,14 @@ export const FIT_ROW_LABELS = Object.freeze({
   points: "points",
   converged: "converged",
   stopReason: "stop reason",
+  wellDetermined: "well determined",
+  rateMin: "rate min",
+  rateMax: "rate max",
   warning: "warning",
 });
+
+/** Row labels of the RHEO.MASTERFIT spill that are not model parameters (RHEO.MODEL skips them). */
+export const MASTER_ROW_LABELS = Object.freeze({ activationEnergy: "activationEnergy", c1: "c1", c2: "c2", referenceTemperature: "Tref", factors: "aT" });
 
 const confidencePercent = `${Math.round(DEFAULT_FIT_OPTIONS.confidenceLevel * 100)} %`;
 
@@ -52,7 +60,10 @@ const confidencePercent = `${Math.round(DEFAULT_FIT_OPTIONS.confidenceLevel * 10
 export const FIT_HEADER = Object.freeze(["parameter", "value", "std error", `CI low (${confidencePercent})`, `CI high (${confidencePercent})`, "unit"]);
 
 /** Header row of the RHEO.COMPAREFITS spill. */
-export const COMPARE_HEADER = Object.freeze(["rank", "model", "AIC", "ΔAIC", "Akaike weight", "R²", "RMSE", "converged", "note"]);
+export const COMPARE_HEADER = Object.freeze(["rank", "model", "AIC", "ΔAIC", "Akaike weight", "R²", "RMSE", "converged", "note", "well determined", "recommended"]);
+
+/** Header row of the RHEO.MASTERFIT spill. */
+export const MASTER_HEADER = Object.freeze(["parameter", "value", "std error", `CI low (${confidencePercent})`, `CI high (${confidencePercent})`, "unit", "determined"]);
 
 /** A model's unit as the spills show it: "-" for dimensionless. */
 export function unitLabel(unit: string): string {
@@ -79,7 +90,7 @@ function rowsOf(range: unknown): unknown[][] {
   return range.map((r: unknown) => (Array.isArray(r) ? (r as unknown[]) : [r]));
 }
 
-const skipLabels = new Set(["parameter", "r2", ...Object.values(FIT_ROW_LABELS)].map((s) => s.toLowerCase()));
+const skipLabels = new Set(["parameter", "r2", ...Object.values(FIT_ROW_LABELS), ...Object.values(MASTER_ROW_LABELS)].map((s) => s.toLowerCase()));
 
 /**
  * Reads parameter values (SI): a two-column range of names and values (extra columns ignored, so
@@ -104,20 +115,22 @@ export function parameterRecord(range: unknown, argument: string): Record<string
     }
     return record;
   }
-  grid.forEach((row, i) => {
+  for (const [i, row] of grid.entries()) {
     const name = row[0];
-    if (isBlank(name)) return;
+    if (isBlank(name)) continue;
     if (typeof name !== "string") throw new RheoError("value", argument, `row ${i + 1}: the first column must hold parameter names, got ${describe(name)}`);
     const key = name.trim();
     if (key.toLowerCase() === FIT_ROW_LABELS.converged && row[1] === false) {
       throw new RheoError("value", argument, `row ${i + 1}: comes from a fit that did not converge (converged FALSE); its parameters are not an optimum`);
     }
-    if (skipLabels.has(key.toLowerCase())) return;
+    // the aT block of a RHEO.SHIFTFIT or RHEO.MASTERFIT spill ends the parameters
+    if (/^temperature \[/.test(key)) break;
+    if (skipLabels.has(key.toLowerCase())) continue;
     if (row.length < 2) throw new RheoError("value", argument, "must have two columns: parameter names and their values");
     const v = readNumber(row[1], argument, `row ${i + 1}`);
     if (v === null) throw new RheoError("missing", argument, `row ${i + 1}: ${key} has no value`);
     record[key] = v;
-  });
+  }
   return record;
 }
 
@@ -169,6 +182,9 @@ function residualArg(value: unknown): ResidualSpace {
   return choiceArg(value, "residuals", ["log", "linear"] as const, DEFAULT_FIT_OPTIONS.residualSpace);
 }
 
+/** Why R² = 1 − SSR/SST is not finite: SST = 0. */
+const R2_UNDEFINED = "fit: R² is undefined: every viscosity is the same, so there is no spread to explain";
+
 /** Why AIC = n·ln(SSR/n) + 2p is not finite: SSR = 0. */
 const EXACT_FIT = "AIC is −∞: the model passes through every point (zero residuals), so AIC cannot rank it";
 
@@ -191,12 +207,15 @@ export function fitSpill(def: ModelDefinition, fit: FitResult, header: boolean):
     out.push([spec.name, value, finiteOr(fit.standardErrors[spec.name] as number, undetermined), finiteOr(ci[0], undetermined), finiteOr(ci[1], undetermined), unitLabel(spec.unit)]);
   }
   const L = FIT_ROW_LABELS;
-  out.push([L.r2, fit.r2, "", "", "", "-"]);
+  out.push([L.r2, finiteOr(fit.r2, R2_UNDEFINED), "", "", "", "-"]);
   out.push([L.rmse, fit.rmse, "", "", "", fit.residualSpace === "log" ? "-" : "Pa.s"]);
   out.push([L.aic, finiteOr(fit.aic, EXACT_FIT), "", "", "", "-"]);
   out.push([L.points, fit.pointCount, "", "", "", "-"]);
   out.push([L.converged, fit.converged, "", "", "", ""]);
   out.push([L.stopReason, fit.stopReason, "", "", "", ""]);
+  out.push([L.wellDetermined, fit.wellDetermined, "", "", "", ""]);
+  out.push([L.rateMin, fit.shearRateRange[0], "", "", "", "1/s"]);
+  out.push([L.rateMax, fit.shearRateRange[1], "", "", "", "1/s"]);
   for (const w of fit.warnings) out.push(warningRow(w, 6));
   return out;
 }
@@ -218,6 +237,18 @@ export function fitTable(a: FitArgs & { model: unknown; fixed?: unknown; residua
   return fitSpill(def, fit, header);
 }
 
+/**
+ * Cross-WLF parameters under their moulding-simulation names (a RHEO.MASTERFIT spill: D2, D3,
+ * A2tilde) as the model registry names them (Tstar = D2 + D3·p and A2 = Ã2 + D3·p at p = 0).
+ * @throws RheoError("value", "parameters") for D3 other than 0 (no pressure is given to RHEO.MODEL)
+ */
+function crossWlfModelNames(def: ModelDefinition, record: Record<string, number>): Record<string, number> {
+  if (def.id !== "cross-wlf" || !("D2" in record || "A2tilde" in record || "D3" in record)) return record;
+  const { D2, D3, A2tilde, ...rest } = record;
+  if (D3 !== undefined && D3 !== 0) throw new RheoError("value", "parameters", `D3 = ${D3} needs a pressure; RHEO.MODEL evaluates Cross-WLF at zero pressure (D3 = 0)`);
+  return { ...rest, ...(D2 !== undefined ? { Tstar: D2 } : {}), ...(A2tilde !== undefined ? { A2: A2tilde } : {}) };
+}
+
 /** Arguments of RHEO.MODEL as Excel passes them. */
 export interface ModelArgs {
   model: unknown;
@@ -234,7 +265,7 @@ export function modelColumn(a: ModelArgs): unknown[][] {
   const outputUnit = unitArg(a.outputUnit, "outputUnit", "viscosity", U.viscosity);
   const temperatureUnit = unitArg(a.temperatureUnit, "temperatureUnit", "temperature", U.temperature);
   if (isBlankArg(a.parameters)) throw new RheoError("missing", "parameters", `is required: ${def.parameters.map((p) => p.name).join(", ")} (SI), e.g. the RHEO.FIT spill`);
-  const parameters = parameterRecord(a.parameters, "parameters");
+  const parameters = crossWlfModelNames(def, parameterRecord(a.parameters, "parameters"));
   const withTemperature = !isBlankArg(a.temperature);
   if (withTemperature && !def.needsTemperature) {
     throw new RheoError("value", "temperature", `${def.id} does not depend on temperature; leave temperature blank (shift rates and viscosities with RHEO.SHIFT)`);
@@ -248,9 +279,9 @@ export function modelColumn(a: ModelArgs): unknown[][] {
   return spill(rows, eta.map((v) => fromSI(v, outputUnit, "viscosity")));
 }
 
-/** Reads the `models` argument: a range of ids, text "a, b, c", or blank for every isothermal model. */
+/** Reads the `models` argument: a range of ids, text "a, b, c", or blank (empty: the core's default list of the material). */
 export function modelListArg(value: unknown): string[] {
-  if (isBlankArg(value)) return MODEL_IDS.filter((id) => !MODEL_REGISTRY[id].needsTemperature);
+  if (isBlankArg(value)) return [];
   const cells = rowsOf(value).flat().filter((c) => !isBlank(c));
   const names = cells.flatMap((c) => {
     if (typeof c !== "string") throw new RheoError("value", "models", `must hold model names, got ${describe(c)}; accepted: ${MODEL_IDS.join(", ")}`);
@@ -259,21 +290,117 @@ export function modelListArg(value: unknown): string[] {
   return [...new Set(names.map((n) => modelArg(n, "models").id))];
 }
 
-/** RHEO.COMPAREFITS: ranks models by AIC over one data set. */
-export function compareTable(a: FitArgs & { models?: unknown; residuals?: unknown; header?: unknown }): unknown[][] {
+/** Reads the `material` argument: melt (default) or paste. */
+export function materialArg(value: unknown): MaterialClass {
+  return choiceArg(value, "material", MATERIAL_CLASSES, "melt");
+}
+
+/** RHEO.COMPAREFITS: ranks models by AIC over one data set with the core's one fitter, and marks its verdict. */
+export function compareTable(a: FitArgs & { models?: unknown; residuals?: unknown; header?: unknown; material?: unknown }): unknown[][] {
   const models = modelListArg(a.models);
   const residualSpace = residualArg(a.residuals);
+  const material = materialArg(a.material);
   const header = booleanArg(a.header, "header", false);
   const { rows, data } = fitData(a);
-  const result = atRows(rows, () => compareModels(models, data, { shared: { residualSpace } }));
+  const result = atRows(rows, () => fitCurve(data, { models, material, residualSpace }));
   if (result.ranked.length === 0) {
     throw new RheoError("missing", "models", `no model gave a converged fit: ${result.failed.map((f) => `${f.model}: ${f.reason}`).join("; ")}`);
   }
+  const verdict = result.verdict;
   const out: unknown[][] = header ? [[...COMPARE_HEADER]] : [];
   result.ranked.forEach((r, i) => {
-    out.push([i + 1, r.model, finiteOr(r.aic, EXACT_FIT), finiteOr(r.deltaAic, EXACT_FIT), finiteOr(r.akaikeWeight, EXACT_FIT), r.result.r2, r.result.rmse, true, r.result.warnings.map((w) => w.code).join(", ")]);
+    const recommended = verdict.recommended === r.model;
+    const codes = r.result.warnings.map((w) => w.code).join(", ");
+    const note = recommended ? `${verdict.reason}${codes ? ` [${codes}]` : ""}` : codes;
+    out.push([
+      i + 1,
+      r.model,
+      finiteOr(r.aic, EXACT_FIT),
+      finiteOr(r.deltaAic, EXACT_FIT),
+      finiteOr(r.akaikeWeight, EXACT_FIT),
+      finiteOr(r.result.r2, R2_UNDEFINED),
+      r.result.rmse,
+      true,
+      note,
+      r.result.wellDetermined,
+      recommended,
+    ]);
   });
-  for (const f of result.failed) out.push(["", f.model, "", "", "", "", "", false, f.reason]);
+  for (const f of result.failed) out.push(["", f.model, "", "", "", "", "", false, f.reason, false, false]);
+  return out;
+}
+
+/** Arguments of RHEO.MASTERFIT as Excel passes them. */
+export interface MasterFitArgs {
+  temperature: unknown;
+  shearRate: unknown;
+  viscosity: unknown;
+  model: unknown;
+  law?: unknown;
+  referenceTemperature?: unknown;
+  fixed?: unknown;
+  material?: unknown;
+  temperatureUnit?: unknown;
+  viscosityUnit?: unknown;
+}
+
+/** RHEO.MASTERFIT: one model fitted to every temperature at once with its temperature law. */
+export function masterFitTable(a: MasterFitArgs): unknown[][] {
+  if (isBlank(a.model)) throw new RheoError("missing", "model", `is required; accepted: ${MASTER_MODELS.join(", ")}`);
+  const model = choiceArg(a.model, "model", MASTER_MODELS, "cross");
+  const crossWlf = model === "cross-wlf";
+  if (crossWlf && !isBlank(a.law)) throw new RheoError("value", "law", "belongs to the shifted models; cross-wlf carries its own WLF law (leave law blank)");
+  const law = crossWlf ? null : choiceArg(a.law, "law", MASTER_LAWS, "arrhenius");
+  const temperatureUnit = unitArg(a.temperatureUnit, "temperatureUnit", "temperature", U.temperature);
+  const viscosityUnit = unitArg(a.viscosityUnit, "viscosityUnit", "viscosity", U.viscosity);
+  const material = materialArg(a.material);
+  const fixed = isBlankArg(a.fixed) ? {} : parameterRecord(a.fixed, "fixed");
+  let referenceTemperature: number | null = null;
+  if (!isBlankArg(a.referenceTemperature)) {
+    const ref = readRows([{ argument: "referenceTemperature", range: a.referenceTemperature, quantity: "temperature", unit: temperatureUnit }]);
+    const Tref = column(ref, "referenceTemperature")[0];
+    if (ref.length !== 1 || Tref === undefined) throw new RheoError("value", "referenceTemperature", "must be one temperature");
+    referenceTemperature = Tref;
+  } else if (!crossWlf) {
+    throw new RheoError("missing", "referenceTemperature", `is required with the ${law} law, e.g. 210 (${temperatureUnit})`);
+  }
+  const rows = readRows([
+    { argument: "temperature", range: a.temperature, quantity: "temperature", unit: temperatureUnit },
+    { argument: "shearRate", range: a.shearRate },
+    { argument: "viscosity", range: a.viscosity, quantity: "viscosity", unit: viscosityUnit },
+  ]);
+  for (const name of ["temperature", "shearRate", "viscosity"]) eachRow(rows, [name], (v) => (v > 0 ? v : throwDomain(name, v)));
+  const curves = curvesByTemperature(column(rows, "temperature"), column(rows, "shearRate"), column(rows, "viscosity"));
+  const fit = atRows(rows, () => fitMasterCurve(curves, model, { law, referenceTemperature, material, fixed }), { curves: "temperature" });
+  return masterSpill(fit, (k) => fromSI(k, temperatureUnit, "temperature"), temperatureUnit);
+}
+
+/** The RHEO.MASTERFIT spill: parameters (with "determined"), the law's constants, Tref, statistics, aT per temperature, warnings. */
+export function masterSpill(fit: MasterFitResult, T: (kelvin: number) => number, temperatureUnit: string): unknown[][] {
+  const specs = fit.model === "cross-wlf" ? CROSS_WLF_LITERATURE : getModel(fit.model).parameters;
+  const undetermined = (name: string) => `masterFit: the uncertainty of ${name} is undetermined (the data do not determine the parameters independently)`;
+  const row = (name: string, value: number, unit: string): unknown[] => {
+    if (fit.fixed.includes(name) || (fit.model === "cross-wlf" && name === "c2")) return [name, value, "held", "", "", unit, false];
+    const ci = fit.confidenceIntervals[name];
+    const se = fit.standardErrors[name] ?? NaN;
+    return [name, value, finiteOr(se, undetermined(name)), ci ? finiteOr(ci[0], undetermined(name)) : "", ci ? finiteOr(ci[1], undetermined(name)) : "", unit, fit.determined[name] === true];
+  };
+  const M = MASTER_ROW_LABELS;
+  const out: unknown[][] = specs.map((s) => row(s.name, fit.parameters[s.name] as number, unitLabel(s.unit)));
+  if (fit.law === "arrhenius") out.push(row(M.activationEnergy, fit.activationEnergy as number, "J/mol"));
+  else out.push(row(M.c1, fit.c1 as number, "-"), row(M.c2, fit.c2 as number, "K"));
+  const L = FIT_ROW_LABELS;
+  out.push([M.referenceTemperature, T(fit.referenceTemperature), "", "", "", temperatureUnit, ""]);
+  out.push([L.r2, finiteOr(fit.r2, R2_UNDEFINED), "", "", "", "-", ""]);
+  out.push([L.rmse, fit.rmse, "", "", "", "-", ""]);
+  out.push([L.aic, finiteOr(fit.aic, EXACT_FIT), "", "", "", "-", ""]);
+  out.push([L.points, fit.pointCount, "", "", "", "-", ""]);
+  out.push([L.converged, fit.converged, "", "", "", "", ""]);
+  out.push([L.stopReason, fit.stopReason, "", "", "", "", ""]);
+  out.push([L.wellDetermined, fit.wellDetermined, "", "", "", "", ""]);
+  out.push([`temperature [${temperatureUnit}]`, M.factors, "", "", "", "", ""]);
+  for (const f of fit.factors) out.push([T(f.temperature), finiteOr(f.aT, "masterFit: aT is not a finite number"), "", "", "", "-", ""]);
+  for (const w of fit.warnings) out.push(warningRow(w, 7));
   return out;
 }
 

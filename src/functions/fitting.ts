@@ -8,7 +8,7 @@
  * still spills, with converged FALSE and its stop reason; errors become cell errors, never throws.
  */
 import { guard } from "./adapter";
-import { compareTable, fitTable, modelColumn, shiftColumn, shiftFitTable } from "./fitTables";
+import { compareTable, fitTable, masterFitTable, modelColumn, shiftColumn, shiftFitTable } from "./fitTables";
 
 /**
  * Fits a viscosity model; spills parameter, value, std error, 95 % CI low/high and SI unit, then rows R², RMSE, AIC, points, converged, stop reason and warnings.
@@ -65,17 +65,18 @@ export function modelViscosity(
 }
 
 /**
- * Fits several models to one flow curve and ranks them by AIC: rank, model, AIC, ΔAIC, Akaike weight, R², RMSE, converged, note.
+ * Fits several models to one flow curve, ranks them by AIC and marks the recommended one: rank, model, AIC, ΔAIC, Akaike weight, R², RMSE, converged, note, well determined, recommended.
  * @customfunction COMPAREFITS
  * @example =RHEO.COMPAREFITS(F2:F20, G2:G20, "cross, carreau, carreau-yasuda", , , , TRUE)
  * @param shearRate True wall shear rate γ̇ in 1/s: a column or row; blank rows are skipped.
  * @param viscosity Viscosity η at each rate, as long as shearRate (default unit Pa.s).
- * @param models Model ids: a range of names or text "cross, carreau" (default every model without temperature).
+ * @param models Model ids: a range of names or text "cross, carreau" (default: newtonian, power-law, cross, carreau, carreau-yasuda; a paste adds bingham, herschel-bulkley, casson).
  * @param residuals "log" (relative errors, ln η) or "linear" (η in Pa.s) (default log).
  * @param weights Weight ≥ 0 per point, as long as shearRate; 0 leaves a point out (default all 1).
  * @param viscosityUnit Unit of viscosity, e.g. "Pa.s", "mPa.s" (default Pa.s).
  * @param header TRUE to start with a header row (default FALSE).
- * @returns One row per model, best first; models that failed last with converged FALSE and the reason.
+ * @param material "melt" (η∞ held at 0, no yield stress unless named) or "paste" (default melt).
+ * @returns One row per model, best AIC first; the recommended row carries the reason in its note; models that failed last with converged FALSE.
  */
 export function compareFits(
   shearRate: unknown[][],
@@ -85,8 +86,40 @@ export function compareFits(
   weights?: unknown[][],
   viscosityUnit?: string,
   header?: boolean,
+  material?: string,
 ): unknown[][] {
-  return guard("compareFits", () => compareTable({ shearRate, viscosity, models, residuals, weights, viscosityUnit, header }));
+  return guard("compareFits", () => compareTable({ shearRate, viscosity, models, residuals, weights, viscosityUnit, header, material }));
+}
+
+/**
+ * Fits one viscosity model to flow curves at several temperatures at once, with its temperature law (time–temperature superposition); spills the parameters at Tref with "determined", the law's constants, aT per temperature.
+ * @customfunction MASTERFIT
+ * @example =RHEO.MASTERFIT(A2:A40, F2:F40, G2:G40, "carreau-yasuda", "arrhenius", 210) spills eta0, lambda, n, a at 210 °C and Ea in J/mol.
+ * @param temperature Temperature of each point (default unit C); points of equal temperature form one curve.
+ * @param shearRate True wall shear rate γ̇ in 1/s, as long as temperature.
+ * @param viscosity Viscosity η, as long as temperature (default unit Pa.s).
+ * @param model power-law, cross, carreau, carreau-yasuda, or cross-wlf (reported as n, tauStar, D1, D2, D3, A1, A2tilde).
+ * @param law "arrhenius" or "wlf" (default arrhenius); blank for cross-wlf, which carries its own law.
+ * @param referenceTemperature Tref of the law, one cell (same unit as temperature); for cross-wlf, D2 to hold (blank: fitted).
+ * @param fixed Parameters held, in SI: text "a=1, activationEnergy=50000" or a two-column range (default none).
+ * @param material "melt" (η∞ held at 0) or "paste" (default melt).
+ * @param temperatureUnit Unit of temperature and referenceTemperature, e.g. "C", "K" (default C).
+ * @param viscosityUnit Unit of viscosity, e.g. "Pa.s", "mPa.s" (default Pa.s).
+ * @returns Seven columns: name, value (SI), std error, CI low, CI high, unit, determined; then Tref, R², RMSE, AIC, points, converged, stop reason, well determined, and a "temperature | aT" block.
+ */
+export function masterFit(
+  temperature: unknown[][],
+  shearRate: unknown[][],
+  viscosity: unknown[][],
+  model: string,
+  law?: string,
+  referenceTemperature?: unknown[][],
+  fixed?: unknown[][],
+  material?: string,
+  temperatureUnit?: string,
+  viscosityUnit?: string,
+): unknown[][] {
+  return guard("masterFit", () => masterFitTable({ temperature, shearRate, viscosity, model, law, referenceTemperature, fixed, material, temperatureUnit, viscosityUnit }));
 }
 
 /**

@@ -317,7 +317,7 @@ export function viscosityApp(shearRateApparent: unknown[][], wallShearStress: un
  * Full reduction of raw capillary data (Bagley, Rabinowitsch, viscosities) to a flow-curve table with a header row.
  * @customfunction REDUCE
  * @example =RHEO.REDUCE(Raw!A1:F61, "bagley", , , "kPa") spills the flow curve of every temperature and diameter.
- * @param rawData The raw table including its header row of "quantity [unit]" cells: die_diameter, die_length, pressure, and flow_rate (or piston_speed with barrel_diameter, or mass_rate with density); temperature optional.
+ * @param rawData The raw table including its header row of "quantity [unit]" cells: die_diameter, die_length, pressure, and flow_rate (or piston_speed with barrel_diameter, or mass_rate with density); temperature optional. Recordings: RHEO.PLATEAUS.
  * @param endCorrection "bagley" (needs two or more die lengths per diameter), "orifice" (subtracts a zero-length die's pressure) or "none" (default bagley).
  * @param method Rabinowitsch slope method: "transition", "local", "global" or "difference" (default transition).
  * @param degree Polynomial degree for local (1–2) or global (1–3) (default 2).

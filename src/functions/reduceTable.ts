@@ -1,12 +1,14 @@
 /**
  * RHEO.REDUCE: a raw-data range with its `quantity [unit]` header row (as the CLI reads CSV files)
- * to the flow-curve table, one row per point of every temperature/diameter group.
+ * to the flow-curve table, one row per point of every temperature/diameter group. A pressure
+ * recording (a `time` column) is refused with a pointer to RHEO.PLATEAUS and the command line.
  */
 import { RheoError, Warning } from "../core/errors";
-import { reduce } from "../core/reduce";
+import { reduce, type ReductionResult } from "../core/reduce";
+import { isTraceHeader } from "../io/traceTable";
 import { fromSI } from "../core/units";
 import { readRawTable } from "../io/rawTable";
-import { KEYED_SETTINGS_SOURCE, REDUCE_SETTINGS, readReduceSettings, type ReduceSettingSpec } from "../io/reduceOptions";
+import { KEYED_SETTINGS_SOURCE, REDUCE_SETTINGS, readReduceSettings, type ReduceRequest, type ReduceSettingSpec } from "../io/reduceOptions";
 import { DEFAULT_SHEET_UNITS as U, booleanArg, cellError, isBlank, readSettingsRange, unitArg } from "./adapter";
 
 /** Arguments of RHEO.REDUCE as Excel passes them. */
@@ -73,13 +75,15 @@ export function reduceTable(a: ReduceArgs): unknown[][] {
     throw new RheoError("missing", "rawData", "needs a header row and at least one data row");
   }
   const cells = a.rawData.map((row: unknown) => (Array.isArray(row) ? (row as unknown[]) : [row]));
-  const raw = readRawTable(cells, { rowWord: "row", headerNumber: 1, ...request.input });
-  const fitKeys = (["model", "compare", "shift", "referenceTemperature"] as const).filter((k) => request.fits[k === "referenceTemperature" ? "shift" : k] !== undefined);
+  const fitKeys: string[] = (["model", "compare", "shift", "referenceTemperature", "material", "master"] as const).filter((k) => request.fits[k === "referenceTemperature" ? "shift" : k] !== undefined);
+  if (request.input.rotational !== undefined) fitKeys.push("rotational");
   if (fitKeys.length > 0) {
-    throw new RheoError("value", `settings ${fitKeys[0]}`, "RHEO.REDUCE spills the flow curve only; fit models with RHEO.FIT or RHEO.COMPAREFITS and shift with RHEO.SHIFTFIT", undefined, "SETTING_NOT_USED_HERE");
+    throw new RheoError("value", `settings ${fitKeys[0]}`, "RHEO.REDUCE spills the flow curve only; fit models with RHEO.FIT or RHEO.COMPAREFITS, across temperatures with RHEO.MASTERFIT, and shift with RHEO.SHIFTFIT", undefined, "SETTING_NOT_USED_HERE");
   }
-  const result = reduce(raw.measurements, request.options);
-  const run = { result, warnings: [...raw.warnings, ...result.warnings] };
+  if (isTraceHeader(cells[0] ?? [])) {
+    throw new RheoError("value", "rawData", "is a pressure recording (it has a time column); find its steady steps with RHEO.PLATEAUS per die run, or reduce the recording with the command line (rheoledger reduce) or the task pane", undefined, "SETTING_NOT_USED_HERE");
+  }
+  const run = pointRun(cells, request);
   const table: unknown[][] = [reduceHeader(stressUnit, viscosityUnit)];
   for (const g of run.result.groups) {
     const temperature = g.temperature === null ? "" : fromSI(g.temperature, U.temperature, "temperature");
@@ -102,6 +106,18 @@ export function reduceTable(a: ReduceArgs): unknown[][] {
   }
   if (showWarnings) appendWarnings(table, run.warnings);
   return table;
+}
+
+/** A point table reduced; step settings are refused (they apply to recordings, which RHEO.REDUCE does not read). */
+function pointRun(cells: unknown[][], request: ReduceRequest): { result: ReductionResult; warnings: Warning[] } {
+  const stepKey = Object.keys(request.steps)[0];
+  if (stepKey !== undefined) {
+    throw new RheoError("value", `settings ${stepKey}`, "applies to pressure recordings, which RHEO.REDUCE does not read (use the command line or the task pane)", undefined, "SETTING_NOT_USED_HERE");
+  }
+  const { rotational: _rotational, ...input } = request.input;
+  const raw = readRawTable(cells, { rowWord: "row", headerNumber: 1, ...input });
+  const result = reduce(raw.measurements, request.options);
+  return { result, warnings: [...raw.warnings, ...result.warnings] };
 }
 
 /** Appends a blank row and one `[code, message]` row per warning (or `warnings | none`), padded to the table width. */

@@ -40,6 +40,12 @@ export const PARAMETER_SYMBOLS: Readonly<Record<string, string>> = Object.freeze
   Tstar: "T*",
   A1: "A1",
   A2: "A2",
+  D2: "D2",
+  D3: "D3",
+  A2tilde: "Ã2",
+  activationEnergy: "Ea",
+  c1: "c1",
+  c2: "c2",
 });
 
 /** The display name of a model id (the id itself when unknown). */
@@ -56,4 +62,41 @@ export function parameterSymbol(name: string): string {
 export function displayUnit(unit: string): string {
   if (unit === "1" || unit === "-") return "";
   return unit.replace(/\.s\^n/g, "·sⁿ").replace(/\./g, "·").replace(/m3/g, "m³").replace(/m2/g, "m²");
+}
+
+/** One spelling of each unit code on screen, beyond {@link displayUnit}'s rules. */
+const UNIT_SPELLINGS: Readonly<Record<string, string>> = Object.freeze({
+  C: "°C",
+  degC: "°C",
+  "g/cm3": "g/cm³",
+  "kg/m3": "kg/m³",
+  "kJ/(kg.K)": "kJ/(kg·K)",
+  "J/(kg.K)": "J/(kg·K)",
+  "W/(m.K)": "W/(m·K)",
+  "1": "–",
+  "-": "–",
+});
+
+/** A unit code in a label or a header: "Pa.s" → "Pa·s", "C" → "°C", "g/cm3" → "g/cm³", "1" → "–". */
+export function unitLabel(unit: string): string {
+  return UNIT_SPELLINGS[unit] ?? displayUnit(unit);
+}
+
+/** Column names of the shared tables (snake_case ids) read as words in the usual order. */
+const WORD_ORDER: readonly [RegExp, string][] = [
+  [/^shear rate apparent\b/, "apparent shear rate"],
+  [/^shear rate wall\b/, "wall shear rate"],
+];
+
+/**
+ * A header as shown: snake_case ids as words and every bracketed unit code respelled
+ * ("shear_rate_apparent [1/s]" → "apparent shear rate [1/s]", "viscosity [Pa.s]" → "viscosity [Pa·s]").
+ */
+export function headerLabel(header: string): string {
+  const bracket = header.indexOf("[");
+  const name = bracket < 0 ? header : header.slice(0, bracket);
+  const unit = bracket < 0 ? "" : header.slice(bracket);
+  let words = name.includes("_") ? name.replace(/_/g, " ") : name;
+  for (const [from, to] of WORD_ORDER) words = words.replace(from, to);
+  return words + unit.replace(/\[([^\]]+)\]/g, (_, u: string) => `[${unitLabel(u.trim())}]`);
 }

@@ -21,13 +21,13 @@ export const COLUMN_QUANTITIES = {
 
 export type ColumnName = keyof typeof COLUMN_QUANTITIES;
 
-/** What a header cell was read as. */
-export interface ColumnInfo {
+/** What a header cell was read as (N: the quantity names of the table being read). */
+export interface ColumnInfo<N extends string = ColumnName> {
   /** 0-based column index */
   index: number;
   header: string;
   /** the recognised quantity name, or null */
-  name: ColumnName | null;
+  name: N | null;
   /** the unit text as written, or null when none was given */
   unit: string | null;
   /** why the column was not recognised or its unit not accepted, if so */
@@ -44,15 +44,24 @@ export function normaliseColumnName(text: string): string {
  * @example readHeader("Die diameter [mm]", 0).name // "die_diameter"
  */
 export function readHeader(header: string, index: number): ColumnInfo {
+  return readHeaderOf(header, index, COLUMN_QUANTITIES);
+}
+
+/**
+ * Reads one header cell against a table of known quantities (the raw point table's
+ * {@link COLUMN_QUANTITIES}, or a larger one such as the trace table's).
+ * @example readHeaderOf("time [min]", 0, { time: { quantity: "time", description: "" } }).unit // "min"
+ */
+export function readHeaderOf<N extends string>(header: string, index: number, quantities: Record<N, { quantity: Quantity; description: string }>): ColumnInfo<N> {
   const match = /^\s*([^[(]+?)\s*(?:[[(]\s*([^\])]*?)\s*[\])])?\s*$/.exec(header);
   const rawName = match?.[1] ?? header;
   const unit = match?.[2] ?? null;
   const key = normaliseColumnName(rawName);
-  if (!(key in COLUMN_QUANTITIES)) {
-    return { index, header, name: null, unit, problem: `"${header}" is not a known quantity; known: ${Object.keys(COLUMN_QUANTITIES).join(", ")}` };
+  if (!Object.prototype.hasOwnProperty.call(quantities, key)) {
+    return { index, header, name: null, unit, problem: `"${header}" is not a known quantity; known: ${Object.keys(quantities).join(", ")}` };
   }
-  const name = key as ColumnName;
-  const quantity = COLUMN_QUANTITIES[name].quantity;
+  const name = key as N;
+  const quantity = quantities[name].quantity;
   if (unit === null) {
     return { index, header, name, unit, problem: `"${header}" has no unit; write it as "${name} [unit]" with one of ${acceptedUnits(quantity).join(", ")}` };
   }

@@ -18,6 +18,7 @@ import {
   DEFAULT_ASSUMED_FLOW_INDEX,
 } from "../core/priorViscosity";
 import type { PlanInput, PlannerOptions } from "../core/planner";
+import type { ShiftLaw } from "../core/temperature/shiftFactors";
 import type { PlanDie, PlanDieKind } from "../core/diePressure";
 import type { PlanTransducer } from "../core/transducerChoice";
 
@@ -36,6 +37,10 @@ export const PLAN_SETTING_KEYS = {
   priorModel: "text",
   priorParameters: "parameters",
   priorTemperature: "temperature",
+  testTemperature: "temperature",
+  priorActivationEnergy: "molarEnergy",
+  priorWlfC1: "number",
+  priorWlfC2: "temperatureDifference",
   mfr: "massRate",
   mvr: "volumetricFlow",
   mfrLoad: "mass",
@@ -64,6 +69,8 @@ export const PLAN_SHEET_UNITS: Partial<Record<Quantity, string>> = Object.freeze
   inverseStress: "1/GPa",
   shearRate: "1/s",
   temperature: "C",
+  temperatureDifference: "K",
+  molarEnergy: "kJ/mol",
   massRate: "g/10min",
   volumetricFlow: "cm3/10min",
   mass: "kg",
@@ -185,7 +192,9 @@ function readPrior(s: Record<string, unknown>): { viscosity: PlanInput["viscosit
   if (s.priorModel !== undefined) {
     const model = getModel(s.priorModel as string).id;
     const parameters = need<Record<string, number>>(s, "priorParameters", '{"K": 10000, "n": 0.4}');
-    const t = s.priorTemperature as number | undefined;
+    // a model with its own temperature law (cross-wlf) is evaluated at the test's temperature
+    const own = getModel(model).needsTemperature;
+    const t = own ? ((s.testTemperature ?? s.priorTemperature) as number | undefined) : (s.priorTemperature as number | undefined);
     const viscosity = modelViscosity(model, parameters, t, "priorParameters");
     return { viscosity, description: `${model} ${Object.entries(parameters).map(([k, v]) => `${k}=${v}`).join(", ")} (SI)` };
   }
@@ -201,6 +210,20 @@ function readPrior(s: Record<string, unknown>): { viscosity: PlanInput["viscosit
         });
   const source = s.apparentViscosity !== undefined ? "one apparent-viscosity point" : "an MFR/MVR point";
   return { viscosity: powerLawViscosity(pl.K, pl.n), description: `power law K=${pl.K.toPrecision(5)} Pa.s^n, n=${pl.n} (assumed) from ${source}` };
+}
+
+/**
+ * The law that moves the prior from priorTemperature (its reference) to testTemperature:
+ * Arrhenius with priorActivationEnergy, or WLF with priorWlfC1 and priorWlfC2 (at priorTemperature).
+ */
+function readPriorShift(s: Record<string, unknown>): ShiftLaw | undefined {
+  const arrhenius = s.priorActivationEnergy !== undefined;
+  const wlf = s.priorWlfC1 !== undefined || s.priorWlfC2 !== undefined;
+  if (!arrhenius && !wlf) return undefined;
+  if (arrhenius && wlf) throw new RheoError("value", "priorActivationEnergy", "give either an Arrhenius activation energy or the WLF constants priorWlfC1 and priorWlfC2, not both");
+  const reference = need<number>(s, "priorTemperature", '"190 C" (the temperature the prior belongs to)');
+  if (arrhenius) return { law: "arrhenius", referenceTemperature: reference, activationEnergy: s.priorActivationEnergy as number };
+  return { law: "wlf", referenceTemperature: reference, C1: need<number>(s, "priorWlfC1", "4.5"), C2: need<number>(s, "priorWlfC2", '"150 K"') };
 }
 
 /**
@@ -243,6 +266,11 @@ export function readPlanOptions(raw: unknown, defaultUnits?: Partial<Record<Quan
     dwellTime: need(s, "dwellTime", '"60 s"'),
     compressibility: s.compressibility as number | undefined,
   };
+  const shift = readPriorShift(s);
+  if (shift) input.priorShift = shift;
+  const ownLaw = s.priorModel !== undefined && getModel(s.priorModel as string).needsTemperature;
+  if (s.priorTemperature !== undefined && !ownLaw) input.priorTemperature = s.priorTemperature as number;
+  if (s.testTemperature !== undefined && !ownLaw) input.testTemperature = s.testTemperature as number;
   const options: Partial<PlannerOptions> = {};
   for (const k of ["endCorrection", "lowFraction", "highFraction", "settleTolerance", "timePerLoad"] as const) {
     if (s[k] !== undefined) options[k] = s[k] as number;

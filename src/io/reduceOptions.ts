@@ -19,6 +19,9 @@ import { DEFAULT_ORIFICE_OPTIONS } from "../core/orifice";
 import { DEFAULT_REPEAT_OPTIONS } from "../core/speedSteps";
 import { getModel, type ModelId } from "../core/models";
 import type { FitRequest } from "../core/run";
+import type { StepOptions } from "../core/steps/options";
+import { MATERIAL_CLASSES, type MaterialClass } from "../core/flowCurveFits";
+import { MASTER_MODELS, type MasterModel } from "../core/temperature/masterFit";
 import { excerpt, readNumberText, readQuantityText } from "./numberText";
 
 /** What kind of value a setting takes. */
@@ -44,7 +47,7 @@ export interface ReduceSettingSpec {
   /** unit a bare number is read in on the pane and in worksheet settings, one spelling */
   unit?: string;
   /** where the setting belongs, for grouping on screen and in docs */
-  section: "input" | "reduction" | "checks" | "fits";
+  section: "input" | "steps" | "reduction" | "checks" | "fits";
 }
 
 const RABINOWITSCH_METHODS: readonly RabinowitschMethod[] = ["transition", "local", "global", "difference"];
@@ -54,6 +57,15 @@ export const REDUCE_SETTINGS: readonly ReduceSettingSpec[] = Object.freeze<Reduc
   { key: "barrelDiameter", flag: "barrel-diameter", kind: { type: "quantity", quantity: "length", positive: true }, unit: "mm", section: "input" },
   { key: "density", flag: "density", kind: { type: "quantity", quantity: "density", positive: true }, unit: "g/cm³", section: "input" },
   { key: "temperatureTolerance", flag: "temperature-tolerance", kind: { type: "quantity", quantity: "temperatureDifference", positive: false }, unit: "K", section: "input" },
+  { key: "unsteady", flag: "unsteady", kind: { type: "choice", choices: ["exclude", "keep"] }, section: "steps" },
+  { key: "speedTolerance", flag: "speed-tolerance", kind: { type: "quantity", quantity: "ratio", positive: true }, unit: "%", section: "steps" },
+  { key: "minWindowTime", flag: "min-window", kind: { type: "quantity", quantity: "time", positive: true }, unit: "s", section: "steps" },
+  { key: "driftLimit", flag: "drift-limit", kind: { type: "number", positive: true }, section: "steps" },
+  { key: "timeConstant", flag: "time-constant", kind: { type: "quantity", quantity: "time", positive: true }, unit: "s", section: "steps" },
+  { key: "compressibility", flag: "compressibility", kind: { type: "quantity", quantity: "inverseStress", positive: true }, unit: "1/GPa", section: "steps" },
+  { key: "meltVolume", flag: "melt-volume", kind: { type: "quantity", quantity: "volume", positive: true }, unit: "cm³", section: "steps" },
+  { key: "oscillationLimit", flag: "oscillation-limit", kind: { type: "quantity", quantity: "ratio", positive: true }, unit: "%", section: "steps" },
+  { key: "thermalCheckLimit", flag: "thermal-limit", kind: { type: "quantity", quantity: "ratio", positive: true }, unit: "%", section: "steps" },
   { key: "endCorrection", flag: "end-correction", kind: { type: "choice", choices: ["bagley", "orifice", "none"] }, section: "reduction" },
   { key: "orifice", flag: "orifice", kind: { type: "switch" }, section: "reduction" },
   { key: "orificeMaxLengthOverDiameter", flag: "orifice-max-ld", kind: { type: "number", positive: true }, section: "reduction" },
@@ -61,12 +73,20 @@ export const REDUCE_SETTINGS: readonly ReduceSettingSpec[] = Object.freeze<Reduc
   { key: "rabinowitschDegree", flag: "degree", kind: { type: "count", min: 1, max: 3 }, section: "reduction" },
   { key: "rabinowitschWindow", flag: "window", kind: { type: "count", min: 3, max: 99 }, section: "reduction" },
   { key: "stabilityThreshold", flag: "stability-threshold", kind: { type: "quantity", quantity: "ratio", positive: true }, unit: "%", section: "reduction" },
+  { key: "slitEdgeCorrection", flag: "slit-edge", kind: { type: "switch" }, section: "reduction" },
   { key: "transducer", flag: "transducer", kind: { type: "spec" }, section: "checks" },
   { key: "transducerFullScale", flag: null, kind: { type: "quantity", quantity: "pressure", positive: true }, unit: "bar", section: "checks" },
   { key: "transducerAccuracy", flag: null, kind: { type: "quantity", quantity: "ratio", positive: true }, unit: "%", section: "checks" },
+  { key: "transducerZeroOffset", flag: "zero-offset", kind: { type: "quantity", quantity: "pressure", positive: false }, unit: "bar", section: "checks" },
+  { key: "transducerGainError", flag: "gain-error", kind: { type: "quantity", quantity: "ratio", positive: false }, unit: "%", section: "checks" },
+  { key: "dieBoreTolerance", flag: "bore-tolerance", kind: { type: "quantity", quantity: "length", positive: false }, unit: "mm", section: "checks" },
+  { key: "dieLengthTolerance", flag: "length-tolerance", kind: { type: "quantity", quantity: "length", positive: false }, unit: "mm", section: "checks" },
+  { key: "meltTemperatureTolerance", flag: "melt-tolerance", kind: { type: "quantity", quantity: "temperatureDifference", positive: false }, unit: "K", section: "checks" },
+  { key: "pistonSpeedTolerance", flag: "piston-speed-tolerance", kind: { type: "quantity", quantity: "ratio", positive: false }, unit: "%", section: "checks" },
   { key: "representativeRate", flag: "representative", kind: { type: "switch" }, section: "checks" },
   { key: "slip", flag: "slip", kind: { type: "switch" }, section: "checks" },
   { key: "extensional", flag: "extensional", kind: { type: "switch" }, section: "checks" },
+  { key: "cogswellShearRate", flag: "cogswell-rate", kind: { type: "choice", choices: ["apparent", "wall"] }, section: "checks" },
   { key: "pressureDependence", flag: "pressure", kind: { type: "switch" }, section: "checks" },
   { key: "heating", flag: "heating", kind: { type: "spec" }, section: "checks" },
   { key: "heatingDensity", flag: null, kind: { type: "quantity", quantity: "density", positive: true }, unit: "g/cm³", section: "checks" },
@@ -78,6 +98,12 @@ export const REDUCE_SETTINGS: readonly ReduceSettingSpec[] = Object.freeze<Reduc
   { key: "compare", flag: "compare", kind: { type: "models" }, section: "fits" },
   { key: "shift", flag: "shift", kind: { type: "choice", choices: ["none", "arrhenius", "wlf"] }, section: "fits" },
   { key: "referenceTemperature", flag: "tref", kind: { type: "quantity", quantity: "temperature", positive: true }, unit: "°C", section: "fits" },
+  { key: "glassTransitionTemperature", flag: "tg", kind: { type: "quantity", quantity: "temperature", positive: true }, unit: "°C", section: "fits" },
+  { key: "verticalShift", flag: "vertical-shift", kind: { type: "quantity", quantity: "inverseTemperature", positive: false }, unit: "1/K", section: "fits" },
+  { key: "material", flag: "material", kind: { type: "choice", choices: MATERIAL_CLASSES }, section: "fits" },
+  { key: "master", flag: "master", kind: { type: "choice", choices: MASTER_MODELS }, section: "fits" },
+  { key: "crossWlfD2", flag: "d2", kind: { type: "quantity", quantity: "temperature", positive: true }, unit: "°C", section: "fits" },
+  { key: "rotational", flag: "rotational", kind: { type: "text" }, section: "fits" },
   { key: "si", flag: "si", kind: { type: "switch" }, section: "input" },
 ]);
 
@@ -96,13 +122,23 @@ export function reduceSettingOfFlag(flag: string): ReduceSettingSpec | undefined
   return BY_FLAG.get(flag);
 }
 
-/** What the reader hands back: the core's options, the reading options, the fits. */
+/** What the reader hands back: the core's options, the reading options, the fits, the step detection's settings. */
 export interface ReduceRequest {
   options: Partial<ReduceOptions>;
-  /** defaults for the table reader when a column is absent, SI */
-  input: { barrelDiameter?: number; density?: number };
+  /**
+   * defaults for the table reader when a column is absent, SI; `rotational`: where the rotational
+   * curve is (a file path on the command line, a range on the pane), read by the surface
+   */
+  input: { barrelDiameter?: number; density?: number; rotational?: string };
   fits: FitRequest;
+  /** step detection of a pressure recording (src/core/steps/options.ts), SI; empty when none given */
+  steps: Partial<StepOptions>;
 }
+
+/** The keys of the step-detection settings (section "steps"): they apply to pressure recordings only. */
+export const STEP_SETTING_KEYS: readonly (keyof StepOptions)[] = Object.freeze(
+  ["unsteady", "speedTolerance", "minWindowTime", "driftLimit", "timeConstant", "compressibility", "meltVolume", "oscillationLimit", "thermalCheckLimit"] as const,
+);
 
 /** How a surface gives its values. */
 export interface ReduceSettingsSource {
@@ -330,8 +366,18 @@ function buildRequest(
   const o: Partial<ReduceOptions> = {};
   const input: ReduceRequest["input"] = {};
   const fits: FitRequest = {};
+  const steps: Partial<StepOptions> = {};
   const fail = (e: RheoError) => errors.push(e);
   const get = <T>(key: string) => v.get(key) as T | undefined;
+  for (const key of STEP_SETTING_KEYS) {
+    const value = get<StepOptions[typeof key]>(key);
+    if (value !== undefined) (steps as Record<string, unknown>)[key] = value;
+  }
+  if ((steps.compressibility === undefined) !== (steps.meltVolume === undefined)) {
+    const missing = steps.compressibility === undefined ? "compressibility" : "meltVolume";
+    if (!alreadyFailed(missing)) fail(new RheoError("missing", nameOfKey(missing), `is needed with ${nameOfKey(missing === "compressibility" ? "meltVolume" : "compressibility")}: the time constant τ = β·V·ΔP/Q takes both`));
+  }
+  if (steps.speedTolerance !== undefined && !(steps.speedTolerance < 1)) fail(new RheoError("domain", nameOfKey("speedTolerance"), `must be below 100 %, got ${steps.speedTolerance * 100} %`));
   const end = get<ReduceOptions["endCorrection"]>("endCorrection");
   if (end !== undefined) o.endCorrection = end;
   if (get<boolean>("orifice")) {
@@ -360,6 +406,7 @@ function buildRequest(
     if (!(stability < 1)) fail(new RheoError("domain", nameOfKey("stabilityThreshold"), `must be below 100 %, got ${stability * 100} %`));
     else o.repeats = { stabilityThreshold: stability };
   }
+  if (get<boolean>("slitEdgeCorrection")) o.slitEdgeCorrection = true;
   const barrel = get<number>("barrelDiameter");
   if (barrel !== undefined) input.barrelDiameter = barrel;
   const density = get<number>("density");
@@ -372,6 +419,27 @@ function buildRequest(
   for (const [key, option] of [["slip", "slip"], ["representativeRate", "representativeRate"], ["extensional", "extensional"], ["pressureDependence", "pressureDependence"]] as const) {
     if (get<boolean>(key)) o[option] = true;
   }
+  const cogswellRate = get<"apparent" | "wall">("cogswellShearRate");
+  if (cogswellRate !== undefined) {
+    if (!get<boolean>("extensional")) fail(new RheoError("value", nameOfKey("cogswellShearRate"), `sets the shear rate of the extensional analysis; give ${nameOfKey("extensional")} too`));
+    else o.extensional = { shearRate: cogswellRate };
+  }
+  // tolerances of the uncertainty budget (half-widths, zero or more)
+  const budget: NonNullable<ReduceOptions["uncertainty"]> = {};
+  for (const [key, option] of [
+    ["transducerZeroOffset", "zeroOffset"],
+    ["transducerGainError", "gainError"],
+    ["dieBoreTolerance", "dieBoreTolerance"],
+    ["dieLengthTolerance", "dieLengthTolerance"],
+    ["meltTemperatureTolerance", "meltTemperatureTolerance"],
+    ["pistonSpeedTolerance", "pistonSpeedTolerance"],
+  ] as const) {
+    const value = get<number>(key);
+    if (value === undefined) continue;
+    if (!(value >= 0)) fail(new RheoError("domain", nameOfKey(key), `is a tolerance (±) and must be zero or more, got ${value}`));
+    else budget[option] = value;
+  }
+  if (Object.keys(budget).length > 0) o.uncertainty = budget;
   const fullScale = get<number>("transducerFullScale");
   const accuracy = get<number>("transducerAccuracy");
   // the full scale switches the transducer check on; an accuracy alone (a form's default) is not used
@@ -410,21 +478,55 @@ function buildRequest(
     }
   }
   const model = get<ModelId>("model");
+  let master = get<MasterModel>("master");
   if (model !== undefined) {
-    if (getModel(model).needsTemperature) fail(new RheoError("value", nameOfKey("model"), `${model} needs a temperature per point; fit each group with an isothermal model, or use a temperature shift`));
+    if (model === "cross-wlf") {
+      // Cross-WLF carries its own temperature law: --model cross-wlf is its fit across temperatures.
+      if (master !== undefined && master !== "cross-wlf") fail(new RheoError("value", nameOfKey("model"), `cross-wlf is fitted across temperatures, and ${nameOfKey("master")} asks for ${master}; give one of them`));
+      else master = "cross-wlf";
+    } else if (getModel(model).needsTemperature) fail(new RheoError("value", nameOfKey("model"), `${model} needs a temperature per point; fit each group with an isothermal model, or use a temperature shift`));
     else fits.model = model;
   }
   const compare = get<ModelId[]>("compare");
   if (compare !== undefined) fits.compare = compare;
   const shift = get<string>("shift");
   const tref = get<number>("referenceTemperature");
+  const tg = get<number>("glassTransitionTemperature");
+  const vertical = get<number>("verticalShift");
   if (shift !== undefined && shift !== "none") {
     if (tref === undefined && src.requireReferenceTemperature) fail(new RheoError("missing", nameOfKey("referenceTemperature"), `is required with ${nameOfKey("shift")}, e.g. "210 C"`));
-    else fits.shift = { law: shift as "arrhenius" | "wlf", referenceTemperature: tref ?? null };
-  } else if (tref !== undefined && src.requireReferenceTemperature) {
-    fail(new RheoError("value", nameOfKey("referenceTemperature"), `is the reference temperature of ${nameOfKey("shift")}; give ${nameOfKey("shift")} arrhenius or wlf too`));
+    else {
+      fits.shift = { law: shift as "arrhenius" | "wlf", referenceTemperature: tref ?? null };
+      if (tg !== undefined) {
+        if (shift !== "wlf") fail(new RheoError("value", nameOfKey("glassTransitionTemperature"), `is used by the WLF shift only; give ${nameOfKey("shift")} wlf, or leave it out`));
+        else fits.shift.glassTransitionTemperature = tg;
+      }
+      if (vertical !== undefined) {
+        if (!(vertical >= 0)) fail(new RheoError("domain", nameOfKey("verticalShift"), `is the melt's volumetric expansion coefficient and must be zero or more, got ${vertical}`));
+        else fits.shift.verticalShift = { thermalExpansion: vertical };
+      }
+    }
+  } else {
+    if (tref !== undefined && src.requireReferenceTemperature) {
+      fail(new RheoError("value", nameOfKey("referenceTemperature"), `is the reference temperature of ${nameOfKey("shift")}; give ${nameOfKey("shift")} arrhenius or wlf too${master === "cross-wlf" ? ` (Cross-WLF's own reference temperature is D2: ${nameOfKey("crossWlfD2")})` : ""}`));
+    }
+    for (const key of ["glassTransitionTemperature", "verticalShift"] as const) {
+      if (get<number>(key) !== undefined && src.requireReferenceTemperature) fail(new RheoError("value", nameOfKey(key), `belongs to the temperature shift; give ${nameOfKey("shift")} too`));
+    }
   }
-  return { options: o, input, fits };
+  const material = get<MaterialClass>("material");
+  if (material !== undefined) fits.material = material;
+  const d2 = get<number>("crossWlfD2");
+  if (d2 !== undefined && master !== "cross-wlf") fail(new RheoError("value", nameOfKey("crossWlfD2"), `is Cross-WLF's D2 (T*); it goes with ${nameOfKey("master")} cross-wlf`));
+  if (master === "cross-wlf") fits.master = { model: master, law: null, referenceTemperature: null, ...(d2 !== undefined ? { D2: d2 } : {}) };
+  else if (master !== undefined) {
+    if (shift === undefined || shift === "none") {
+      fail(new RheoError("missing", nameOfKey("shift"), `is the temperature law of ${nameOfKey("master")} ${master}: arrhenius or wlf (only cross-wlf carries its own)`));
+    } else fits.master = { model: master, law: shift as "arrhenius" | "wlf", referenceTemperature: tref ?? null };
+  }
+  const rotational = get<string>("rotational");
+  if (rotational !== undefined) input.rotational = rotational;
+  return { options: o, input, fits, steps };
 }
 
 /** Reads "12 g/10min, 2.16 kg" (MFR: needs a density) or "16 cm3/10min, 2.16 kg" (MVR). */

@@ -8,10 +8,13 @@ import { DEFAULT_ORIFICE_OPTIONS } from "../core/orifice";
 import { DEFAULT_RABINOWITSCH_OPTIONS } from "../core/rabinowitsch";
 import { DEFAULT_REPEAT_OPTIONS } from "../core/speedSteps";
 import { DEFAULT_UNCERTAINTY_OPTIONS } from "../core/uncertainty";
+import { DEFAULT_UNCERTAINTY_BUDGET_OPTIONS } from "../core/uncertaintyBudget";
 import { MODEL_IDS } from "../core/models";
-import { DEFAULT_FLOW_CURVE_MODELS } from "../core/flowCurveFits";
+import { DEFAULT_FLOW_CURVE_MODELS, defaultModels } from "../core/flowCurveFits";
+import { MASTER_MODELS } from "../core/temperature/masterFit";
 import { REDUCE_SETTINGS } from "./reduceOptions";
 import { DEFAULT_REDUCE_OPTIONS } from "../core/reduceTypes";
+import { DEFAULT_STEP_OPTIONS } from "../core/steps/options";
 
 /** Label, help and per-choice help of one setting. */
 export interface ReduceSettingWords {
@@ -35,6 +38,46 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
   temperatureTolerance: {
     label: "Temperature tolerance",
     help: `temperature readings closer than this form one set-point, reported at their mean with their spread, e.g. "2 K" (default ${DEFAULT_REDUCE_OPTIONS.temperatureTolerance} K)`,
+  },
+  unsteady: {
+    label: "Steps that never settle",
+    help: `pressure recordings: exclude (default) or keep, flagged, the steps whose pressure never becomes steady`,
+    choiceHelp: {
+      exclude: "Leaves a step out of the flow curve when its pressure still drifts, or it is cut short (a warning names it).",
+      keep: "Keeps such a step in the flow curve with its warning: its plateau may be off by the drift.",
+    },
+  },
+  speedTolerance: {
+    label: "Speed change that starts a step",
+    help: `pressure recordings: a piston-speed change beyond this starts a new step (default ${DEFAULT_STEP_OPTIONS.speedTolerance * 100} %)`,
+  },
+  minWindowTime: {
+    label: "Shortest steady window",
+    help: `pressure recordings: the plateau is read over at least this long (default ${DEFAULT_STEP_OPTIONS.minWindowTime} s)`,
+  },
+  driftLimit: {
+    label: "Drift limit (noise sd)",
+    help: `pressure recordings: steady when the drift over the window is at most this many noise standard deviations (default ${DEFAULT_STEP_OPTIONS.driftLimit})`,
+  },
+  timeConstant: {
+    label: "Time constant of the pressure",
+    help: "pressure recordings: time constant τ of the pressure's approach after a speed change (default: read off each step)",
+  },
+  compressibility: {
+    label: "Melt compressibility",
+    help: 'pressure recordings: melt compressibility β, e.g. "1 1/GPa"; with the melt volume gives τ = β·V·ΔP/Q as in the planner',
+  },
+  meltVolume: {
+    label: "Melt volume in the barrel",
+    help: 'pressure recordings: melt volume in the barrel, e.g. "25 cm3" (with the compressibility)',
+  },
+  oscillationLimit: {
+    label: "Oscillation reported above",
+    help: `pressure recordings: a pressure oscillation larger than this, peak to peak, is reported as flow instability (default ${DEFAULT_STEP_OPTIONS.oscillationLimit * 100} %)`,
+  },
+  thermalCheckLimit: {
+    label: "Repeated first speed: largest change",
+    help: `pressure recordings: the first speed repeated at the end of a die run may change its pressure by this much (default ${DEFAULT_STEP_OPTIONS.thermalCheckLimit * 100} %)`,
   },
   endCorrection: {
     label: "End correction",
@@ -75,6 +118,10 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
     label: "Repeat stability limit",
     help: `a speed run again (the stability check) whose pressure differs from the first reading by more than this has drifted: the first reading alone is used (default ${DEFAULT_REPEAT_OPTIONS.stabilityThreshold * 100} %)`,
   },
+  slitEdgeCorrection: {
+    label: "Slit edge correction",
+    help: "slit dies: divide the true wall rate by the channel's Newtonian shape factor (finite width; 6.7 % at W/H = 10)",
+  },
   transducer: {
     label: "Pressure transducer",
     help: 'pressure transducer "full scale, accuracy", e.g. "1000 bar, 0.25 %": low-reading flags and ± columns (k = 2)',
@@ -87,6 +134,30 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
     label: "Transducer accuracy",
     help: "accuracy in % of full scale from the transducer's certificate; gives the ± columns (k = 2, about 95 %)",
   },
+  transducerZeroOffset: {
+    label: "Transducer zero offset (±)",
+    help: "± zero offset of the transducer, shared by every reading (default: the accuracy × full scale); cancels in the Bagley slope",
+  },
+  transducerGainError: {
+    label: "Transducer gain error (±)",
+    help: "± gain (span) error of the transducer in % of the reading, shared by every reading (default: the accuracy)",
+  },
+  dieBoreTolerance: {
+    label: "Die bore tolerance (±)",
+    help: `± tolerance of each die's bore (slit: gap and width) for the uncertainty budget (default ${DEFAULT_UNCERTAINTY_BUDGET_OPTIONS.dieBoreTolerance * 1e3} mm)`,
+  },
+  dieLengthTolerance: {
+    label: "Die length tolerance (±)",
+    help: `± tolerance of each die's length for the uncertainty budget (default ${DEFAULT_UNCERTAINTY_BUDGET_OPTIONS.dieLengthTolerance * 1e3} mm)`,
+  },
+  meltTemperatureTolerance: {
+    label: "Melt temperature tolerance (±)",
+    help: `± deviation of the melt from its set temperature, propagated through the shift law (default ${DEFAULT_UNCERTAINTY_BUDGET_OPTIONS.meltTemperatureTolerance} K)`,
+  },
+  pistonSpeedTolerance: {
+    label: "Piston speed tolerance (±)",
+    help: `± error of the flow rate (piston speed and barrel bore) in % (default ${DEFAULT_UNCERTAINTY_BUDGET_OPTIONS.pistonSpeedTolerance * 100} %)`,
+  },
   representativeRate: {
     label: "Representative-rate cross-check",
     help: "representative-rate (Schümmer) viscosity beside the Rabinowitsch result",
@@ -98,6 +169,14 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
   extensional: {
     label: "Extensional viscosity (Cogswell)",
     help: "Cogswell extensional viscosity and Trouton ratio from the entrance pressure",
+  },
+  cogswellShearRate: {
+    label: "Cogswell shear rate",
+    help: "shear rate of the Cogswell formulas: apparent (default, as Cogswell 1972) or wall (Rabinowitsch-corrected); the Trouton ratio is the same",
+    choiceHelp: {
+      apparent: "Apparent wall rate 4Q/(πR³) with the apparent viscosity, as in Cogswell's derivation (default).",
+      wall: "True (Rabinowitsch-corrected) wall rate with the true viscosity: extension rate higher and extensional viscosity lower by (3n′+1)/(4n′).",
+    },
   },
   pressureDependence: {
     label: "Pressure dependence",
@@ -121,7 +200,7 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
   },
   heatingTemperatureCoefficient: {
     label: "Temperature coefficient b",
-    help: "b = −d ln η/dT; leave empty to fit it across the temperatures of the data",
+    help: "b = −d ln aT/dT, the shift-law coefficient (Ea/(R·T²)); leave empty to fit it across the temperatures of the data",
   },
   meltFlowRate: {
     label: "Melt-flow-rate result",
@@ -129,11 +208,11 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
   },
   model: {
     label: "Model",
-    help: `fit a viscosity model to each group's true flow curve: ${MODEL_IDS.filter((id) => id !== "cross-wlf").join(", ")}`,
+    help: `fit one viscosity model to each group's true flow curve: ${MODEL_IDS.join(", ")} (cross-wlf is fitted across the temperatures, as --master cross-wlf)`,
   },
   compare: {
     label: "Models to compare",
-    help: `rank models by AIC per group, e.g. power-law,cross,carreau-yasuda (default set: ${DEFAULT_FLOW_CURVE_MODELS.join(", ")})`,
+    help: `rank models by AIC per group, e.g. power-law,cross,carreau-yasuda (default: ${defaultModels("melt").join(", ")}; a paste adds ${DEFAULT_FLOW_CURVE_MODELS.filter((m) => !defaultModels("melt").includes(m)).join(", ")})`,
   },
   shift: {
     label: "Temperature shift",
@@ -147,6 +226,41 @@ export const REDUCE_SETTING_WORDS: Readonly<Record<string, ReduceSettingWords>> 
   referenceTemperature: {
     label: "Reference temperature",
     help: 'reference temperature of the shift, e.g. "210 C" or "483.15 K" (pane: empty = the middle temperature of the data)',
+  },
+  glassTransitionTemperature: {
+    label: "Glass transition temperature",
+    help: 'WLF: when the data cannot fit C2, hold it at the universal 51.6 K converted to the reference temperature with this Tg, e.g. "100 C"',
+  },
+  verticalShift: {
+    label: "Vertical shift (melt expansion)",
+    help: 'apply the vertical shift ρ(T)T/(ρref·Tref) to the viscosities, with the melt\'s volumetric expansion coefficient, e.g. "7e-4 1/K" (0: T/Tref only)',
+  },
+  material: {
+    label: "Material class",
+    help: "melt (default) or paste: yield-stress models and a free infinite-shear viscosity only for a paste or suspension (or when named)",
+    choiceHelp: {
+      melt: "Polymer melt: power law to Carreau–Yasuda with η∞ held at 0; no yield stress unless a yield-stress model is named.",
+      paste: "Paste, suspension or gel: adds Bingham, Herschel–Bulkley and Casson to the default models and fits η∞.",
+    },
+  },
+  master: {
+    label: "Fit across temperatures",
+    help: `fit one model to every temperature at once with the --shift law: ${MASTER_MODELS.join(", ")} (cross-wlf needs no --shift)`,
+    choiceHelp: {
+      "power-law": "Power law × the temperature law: K and n at Tref with Ea (or c1, c2).",
+      cross: "Cross × the temperature law: η0, λ and m at Tref with Ea (or c1, c2).",
+      carreau: "Carreau × the temperature law: η0, λ and n at Tref with Ea (or c1, c2).",
+      "carreau-yasuda": "Carreau–Yasuda × the temperature law: η0, λ, n and a at Tref with Ea (or c1, c2).",
+      "cross-wlf": "Cross-WLF (Hieber & Shen 1980) with its moulding-simulation constants n, τ*, D1, D2, D3 (held 0), A1, Ã2 (51.6 K).",
+    },
+  },
+  crossWlfD2: {
+    label: "Cross-WLF D2 (T*)",
+    help: 'hold Cross-WLF\'s D2 = T* (commonly the glass transition), e.g. "-20 C"; without it D2 is fitted',
+  },
+  rotational: {
+    label: "Rotational data",
+    help: "rotational-rheometer curve to join (CSV: angular_frequency [rad/s] + complex_viscosity [Pa.s], or shear_rate [1/s] + viscosity [Pa.s]; optional temperature [C])",
   },
   si: {
     label: "Bare numbers are SI",

@@ -9,8 +9,8 @@ import lotReferenceCsv from "../../workbooks/demo-lot-reference.csv";
 import lotNewCsv from "../../workbooks/demo-lot-new.csv";
 import demoPlan from "../../workbooks/demo-plan.json";
 import { parseCsv } from "../io/csv";
-import { plannerFormFromSettings } from "./plannerForm";
-import type { PlannerForm } from "./plannerPanel";
+import { plannerFormFromSettings } from "./panels/planner/form";
+import type { PlannerForm } from "./panels/planner/plan";
 
 /** How the demo data are named in the pane and the method record. */
 export const DEMO_CSV_LABEL = "demo-film-grade.csv (invented demo data)";

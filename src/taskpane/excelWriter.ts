@@ -4,12 +4,17 @@
  * failure the sheets created by the run are deleted in a fresh batch, so no half-written sheet
  * stays behind. Needs ExcelApi 1.7 (chart series, log axes; conditional formats need 1.6).
  */
+import { headerLabel } from "../io/displayNames";
 import { CellBlock, ChartSpec, SheetPlan, WorkbookPlan, a1, blockGrid, blockLayout, columnLetters, conditionalFormatAddress, seriesAddresses } from "./sheetPlan";
 
 /** Runs one batch against the workbook: `Excel.run` in the pane, a fake in tests. */
 export type ExcelBatch = <T>(batch: (context: Excel.RequestContext) => Promise<T>) => Promise<T>;
 
-/** Base names of the sheets a run creates ("Rheo results", "Rheo results 2", ...). */
+/**
+ * Base names of the sheets the pane's runs create ("Rheo results", "Rheo results 2", ...). Each
+ * panel lists its own in its `sheets` (src/taskpane/panels/); these are the reduction's, the
+ * planner's and the lot check's, kept here for the writer's tests and the pair below.
+ */
 export const SHEET_BASE_NAMES = Object.freeze({ results: "Rheo results", method: "Rheo method", plan: "Rheo plan", lot: "Rheo lot check" });
 
 /** Excel's limit on sheet names. */
@@ -35,15 +40,41 @@ export function uniqueSheetName(base: string, existing: readonly string[]): stri
   }
 }
 
-/** Result and method sheet names sharing one number, both new. */
-export function pairedSheetNames(existing: readonly string[]): { results: string; method: string } {
+/** Names for `bases` sharing one number ("X", "Y"; "X 2", "Y 2"; ...), all new, each cut to 31 characters. */
+export function numberedSheetNames(bases: readonly string[], existing: readonly string[]): string[] {
   const taken = new Set(existing.map((n) => n.toLowerCase()));
   for (let k = 1; ; k++) {
     const suffix = k === 1 ? "" : ` ${k}`;
-    const results = SHEET_BASE_NAMES.results + suffix;
-    const method = SHEET_BASE_NAMES.method + suffix;
-    if (!taken.has(results.toLowerCase()) && !taken.has(method.toLowerCase())) return { results, method };
+    const names = bases.map((b) => b.slice(0, MAX_SHEET_NAME - suffix.length) + suffix);
+    if (names.every((n) => !taken.has(n.toLowerCase()))) return names;
   }
+}
+
+/** Result and method sheet names sharing one number, both new. */
+export function pairedSheetNames(existing: readonly string[]): { results: string; method: string } {
+  const [results, method] = numberedSheetNames([SHEET_BASE_NAMES.results, SHEET_BASE_NAMES.method], existing) as [string, string];
+  return { results, method };
+}
+
+/** Excel's number format "Text": a cell in it keeps what is written as text, never a formula. */
+export const TEXT_FORMAT = "@";
+
+/**
+ * The number format of each cell of a block's grid: every text cell (titles, headers, labels,
+ * whatever came from the user or from a file) is "Text", so that a label such as `=HYPERLINK(…)`,
+ * `-L20`, `+5`, `@P50` or one starting with a tab or carriage return stays the text it was and
+ * never becomes a formula; numbers get their column's format (General when none).
+ */
+export function cellFormats(block: CellBlock): string[][] {
+  const lay = blockLayout(block);
+  const grid = blockGrid(block);
+  return grid.map((row, r) =>
+    row.map((v, c) => {
+      if (typeof v === "string") return TEXT_FORMAT;
+      const dataRow = r - (lay.firstDataRow - block.row);
+      return dataRow >= 0 ? (block.numberFormats?.[c] ?? "General") : "General";
+    }),
+  );
 }
 
 function writeBlock(sheet: Excel.Worksheet, block: CellBlock): void {
@@ -51,6 +82,8 @@ function writeBlock(sheet: Excel.Worksheet, block: CellBlock): void {
   const lay = blockLayout(block);
   if (grid.length === 0 || lay.width === 0) return;
   const range = sheet.getRange(a1(block.row, block.col, grid.length, lay.width));
+  // formats first: a text cell must be "Text" before its value arrives
+  range.numberFormat = cellFormats(block);
   range.values = grid;
   if (lay.titleRow !== null) {
     const title = sheet.getRange(a1(lay.titleRow, block.col));
@@ -64,10 +97,6 @@ function writeBlock(sheet: Excel.Worksheet, block: CellBlock): void {
     header.format.font.color = SHEET_STYLE.headerFont;
     header.format.fill.color = SHEET_STYLE.headerFill;
     header.format.wrapText = true;
-  }
-  if (block.rows.length > 0 && block.numberFormats) {
-    const formats = block.rows.map(() => Array.from({ length: lay.width }, (_, c) => block.numberFormats?.[c] ?? "General"));
-    sheet.getRange(a1(lay.firstDataRow, block.col, block.rows.length, lay.width)).numberFormat = formats;
   }
   if (block.role === "chartData") sheet.getRange(a1(lay.firstDataRow, block.col, block.rows.length, lay.width)).format.font.color = SHEET_STYLE.chartDataFont;
 }
@@ -105,8 +134,8 @@ export function addChart(sheet: Excel.Worksheet, plan: SheetPlan, spec: ChartSpe
   chart.legend.visible = !spec.id.startsWith("bagley");
   const x = chart.axes.categoryAxis;
   const y = chart.axes.valueAxis;
-  x.title.text = spec.xTitle;
-  y.title.text = spec.yTitle;
+  x.title.text = headerLabel(spec.xTitle);
+  y.title.text = headerLabel(spec.yTitle);
   if (spec.xLog) x.logBase = 10;
   if (spec.yLog) y.logBase = 10;
   if (spec.xMin !== undefined) x.minimum = spec.xMin;
@@ -119,7 +148,7 @@ export function addChart(sheet: Excel.Worksheet, plan: SheetPlan, spec: ChartSpe
     series.setValues(sheet.getRange(addr.y));
     if (s.style === "markers") {
       series.chartType = "XYScatter";
-      series.markerStyle = "Circle";
+      series.markerStyle = s.marker === "square" ? "Square" : s.marker === "diamond" ? "Diamond" : s.marker === "triangle" ? "Triangle" : "Circle";
       series.markerSize = 5;
       series.markerBackgroundColor = s.colour;
       series.markerForegroundColor = s.colour;
@@ -154,36 +183,37 @@ export async function deleteSheets(run: ExcelBatch, names: readonly string[]): P
 export type WriteProgress = (step: string, fraction: number) => void;
 
 /**
- * Creates the results and method sheets (new names: "Rheo results", "Rheo results 2", ... and the
- * method sheet with the same number), writes the plan built for those names, adds the charts,
- * and activates the results sheet. On failure deletes what it created and rethrows.
- * @returns the names of the sheets written
+ * The one way the pane writes: creates one new sheet per base name (numbered together: "Rheo
+ * results 2" with "Rheo method 2"), writes the plans built for those names with their
+ * conditional formats and charts, and activates the first. On any failure deletes the sheets it
+ * created, in a batch of its own, and rethrows: nothing is left half-written.
+ * @returns the names of the sheets written, in the order of `bases`
  */
-export async function writeWorkbookPlan(
-  run: ExcelBatch,
-  makePlan: (names: { results: string; method: string }) => WorkbookPlan,
-  onProgress: WriteProgress = () => undefined,
-): Promise<{ results: string; method: string }> {
+export async function writeSheets(run: ExcelBatch, bases: readonly string[], makePlans: (names: readonly string[]) => SheetPlan[], onProgress: WriteProgress = () => undefined): Promise<string[]> {
   const created: string[] = [];
   try {
     return await run(async (context) => {
       const sheets = context.workbook.worksheets;
       sheets.load("items/name");
       await context.sync();
-      const names = pairedSheetNames(sheets.items.map((s) => s.name));
-      const plan = makePlan(names);
+      const names = numberedSheetNames(bases, sheets.items.map((s) => s.name));
+      const plans = makePlans(names);
+      if (plans.length !== names.length) throw new Error(`writer: ${plans.length} sheet plan(s) for ${names.length} sheet name(s)`);
       onProgress("Writing the tables", 0.92);
-      created.push(names.results, names.method);
-      const results = sheets.add(names.results);
-      const method = sheets.add(names.method);
-      writeSheetCells(results, plan.results);
-      writeSheetCells(method, plan.method);
+      created.push(...names);
+      const added = names.map((n) => sheets.add(n));
+      plans.forEach((plan, i) => writeSheetCells(added[i] as Excel.Worksheet, plan));
       await context.sync();
-      onProgress("Adding the charts", 0.96);
-      for (const spec of plan.results.charts) addChart(results, plan.results, spec);
-      await context.sync();
-      results.activate();
-      results.getRange("A1").select();
+      if (plans.some((p) => p.charts.length > 0)) {
+        onProgress("Adding the charts", 0.96);
+        plans.forEach((plan, i) => {
+          for (const spec of plan.charts) addChart(added[i] as Excel.Worksheet, plan, spec);
+        });
+        await context.sync();
+      }
+      const first = added[0] as Excel.Worksheet;
+      first.activate();
+      first.getRange("A1").select();
       await context.sync();
       return names;
     });
@@ -192,6 +222,24 @@ export async function writeWorkbookPlan(
   }
 }
 
+/** The results and method sheets of a reduction ({@link writeSheets} with their two base names). */
+export async function writeWorkbookPlan(
+  run: ExcelBatch,
+  makePlan: (names: { results: string; method: string }) => WorkbookPlan,
+  onProgress: WriteProgress = () => undefined,
+): Promise<{ results: string; method: string }> {
+  const [results, method] = (await writeSheets(run, [SHEET_BASE_NAMES.results, SHEET_BASE_NAMES.method], ([r, m]) => {
+    const plan = makePlan({ results: r as string, method: m as string });
+    return [plan.results, plan.method];
+  }, onProgress)) as [string, string];
+  return { results, method };
+}
+
+/** One new sheet named `base` (or `base 2`, ...): {@link writeSheets} with one base name. */
+export async function writeNewSheet(run: ExcelBatch, base: string, makePlan: (name: string) => SheetPlan, onProgress: WriteProgress = () => undefined): Promise<string> {
+  const [name] = await writeSheets(run, [base], ([n]) => [makePlan(n as string)], onProgress);
+  return name as string;
+}
 /**
  * After a failed write: deletes the sheets it `created` (in a batch of their own) and rethrows
  * `error`; when the deletion fails too, throws one error naming both and the sheets left behind.
@@ -206,37 +254,3 @@ async function removeCreatedAndRethrow(run: ExcelBatch, created: readonly string
   throw error;
 }
 
-/**
- * Creates one new sheet named `base` (or `base 2`, ... when taken), writes the plan built for that
- * name with its conditional formats and charts, and activates it. On failure deletes the sheet it
- * created, in a batch of its own, and rethrows: nothing is left half-written.
- * @returns the name of the sheet written
- */
-export async function writeNewSheet(run: ExcelBatch, base: string, makePlan: (name: string) => SheetPlan, onProgress: WriteProgress = () => undefined): Promise<string> {
-  const created: string[] = [];
-  try {
-    return await run(async (context) => {
-      const sheets = context.workbook.worksheets;
-      sheets.load("items/name");
-      await context.sync();
-      const name = uniqueSheetName(base, sheets.items.map((s) => s.name));
-      const plan = makePlan(name);
-      onProgress("Writing the tables", 0.92);
-      created.push(name);
-      const sheet = sheets.add(name);
-      writeSheetCells(sheet, plan);
-      await context.sync();
-      if (plan.charts.length > 0) {
-        onProgress("Adding the chart", 0.96);
-        for (const spec of plan.charts) addChart(sheet, plan, spec);
-        await context.sync();
-      }
-      sheet.activate();
-      sheet.getRange("A1").select();
-      await context.sync();
-      return name;
-    });
-  } catch (error) {
-    return removeCreatedAndRethrow(run, created, error);
-  }
-}

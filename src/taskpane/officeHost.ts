@@ -7,25 +7,65 @@ import type { ExcelBatch } from "./excelWriter";
 /** Where the pane runs. */
 export type HostMode = { kind: "excel" } | { kind: "preview"; reason: string };
 
-/** How long to wait for Office.onReady before falling back to preview mode. */
-export const OFFICE_READY_TIMEOUT_MS = 4000;
-
 /**
- * Excel when Office.onReady reports the Excel host; preview mode when office.js is absent, reports
- * no host (a plain browser) or does not answer in time (opened from file://).
+ * How long the pane waits for office.js and Office.onReady before it opens in preview mode. The
+ * pane's scripts start at once (taskpane.html loads office.js `defer`, the pane `async`), so the
+ * preview is up within this time plus the pane's own start-up, whatever the network does.
  */
-export function detectHost(timeoutMs = OFFICE_READY_TIMEOUT_MS): Promise<HostMode> {
-  if (typeof Office === "undefined" || typeof Office.onReady !== "function") {
-    return Promise.resolve({ kind: "preview", reason: "Office.js is not loaded" });
-  }
+export const OFFICE_READY_TIMEOUT_MS = 3000;
+/** How often the pane looks whether office.js has arrived. */
+const OFFICE_POLL_MS = 50;
+/** How long the pane keeps listening for a late Excel after opening in preview mode. */
+export const LATE_OFFICE_WINDOW_MS = 120_000;
+
+/** office.js is loaded (its global `Office` with `onReady`). */
+const officeLoaded = (): boolean => typeof Office !== "undefined" && typeof Office.onReady === "function";
+
+/** Resolves when office.js has loaded, or with false after `ms`. */
+function whenOfficeLoaded(ms: number, poll = OFFICE_POLL_MS): Promise<boolean> {
   return new Promise((resolve) => {
-    const timer = setTimeout(() => resolve({ kind: "preview", reason: "Office did not answer" }), timeoutMs);
+    const started = Date.now();
+    const look = () => {
+      if (officeLoaded()) resolve(true);
+      else if (Date.now() - started >= ms) resolve(false);
+      else setTimeout(look, poll);
+    };
+    look();
+  });
+}
+
+/** The host Office.onReady reports, or null when it does not answer within `ms`. */
+function onReadyWithin(ms: number): Promise<HostMode | null> {
+  return new Promise((resolve) => {
+    const timer = setTimeout(() => resolve(null), ms);
     void Office.onReady((info) => {
       clearTimeout(timer);
       if (String(info.host) === "Excel" && typeof Excel !== "undefined") resolve({ kind: "excel" });
       else resolve({ kind: "preview", reason: info.host ? `host ${String(info.host)} is not Excel` : "not inside Office" });
     });
   });
+}
+
+/**
+ * Excel when office.js loads and Office.onReady reports the Excel host; preview mode when
+ * office.js does not arrive (blocked, hanging, offline), reports no host (a plain browser) or does
+ * not answer, all within `timeoutMs` in total. When the answer was "no answer in time",
+ * `onLateExcel` is called if Excel answers later (a slow network inside Excel), so the pane can
+ * leave preview mode.
+ */
+export async function detectHost(timeoutMs = OFFICE_READY_TIMEOUT_MS, onLateExcel?: () => void): Promise<HostMode> {
+  const started = Date.now();
+  const loaded = await whenOfficeLoaded(timeoutMs);
+  const answer = loaded ? await onReadyWithin(Math.max(0, timeoutMs - (Date.now() - started))) : null;
+  if (answer) return answer;
+  if (onLateExcel) {
+    void (async () => {
+      if (!(await whenOfficeLoaded(LATE_OFFICE_WINDOW_MS, 250))) return;
+      const late = await onReadyWithin(LATE_OFFICE_WINDOW_MS);
+      if (late?.kind === "excel") onLateExcel();
+    })();
+  }
+  return { kind: "preview", reason: loaded ? "Office did not answer in time" : "Office.js did not load in time" };
 }
 
 /** `Excel.run` as an {@link ExcelBatch}. */

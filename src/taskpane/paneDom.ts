@@ -4,9 +4,10 @@
  */
 import { getModel } from "../core/models";
 import { ColumnChoice, ColumnRole, DieEntry, roleOptions, unitOptions } from "./columns";
-import { FieldId, PANE_MODELS, SETTING_HELP } from "./settings";
-import { LOT_HELP, type LotFieldId } from "./lotPanel";
-import { PLANNER_HELP, type PlannerFieldId } from "./plannerPanel";
+import { modelName } from "../io/displayNames";
+import { PANE_MODELS, SETTING_HELP } from "./settings";
+import { LOT_HELP } from "./panels/lot/check";
+import { PLANNER_HELP } from "./panels/planner/plan";
 
 /** The element with `id`, typed; throws when the page lacks it (a build error, not a user one). */
 export function byId<T extends HTMLElement = HTMLElement>(id: string): T {
@@ -20,42 +21,6 @@ function el<K extends keyof HTMLElementTagNameMap>(tag: K, attrs: Record<string,
   for (const [k, v] of Object.entries(attrs)) e.setAttribute(k, v);
   if (text !== undefined) e.textContent = text;
   return e;
-}
-
-/**
- * The control an error of `field` belongs to (for aria-invalid and focus). Fields of the Planner
- * and Lot check panels are named after their controls, so they need no entry here.
- */
-const FIELD_CONTROL: Record<FieldId, string> = {
-  source: "source",
-  columns: "columns",
-  dies: "dies",
-  endCorrection: "end-bagley",
-  rabinowitschMethod: "rabinowitschMethod",
-  rabinowitschDegree: "rabinowitschDegree",
-  rabinowitschWindow: "rabinowitschWindow",
-  models: "models",
-  transducerRangeBar: "transducerRangeBar",
-  transducerAccuracyPercent: "transducerAccuracyPercent",
-  checks: "check-representativeRate",
-  heatingDensity: "heatingDensity",
-  heatingHeatCapacity: "heatingHeatCapacity",
-  heatingConductivity: "heatingConductivity",
-  heatingTemperatureCoefficient: "heatingTemperatureCoefficient",
-  temperatureShift: "temperatureShift",
-  referenceTemperatureC: "referenceTemperatureC",
-  run: "run",
-  share: "share-sheet",
-};
-
-/** Shows `message` next to its field, marks the control invalid, and returns the control. */
-export function showFieldError(field: FieldId | PlannerFieldId | LotFieldId, message: string): HTMLElement {
-  const box = byId(`${field}-error`);
-  box.textContent = message;
-  box.hidden = false;
-  const control = byId((FIELD_CONTROL as Record<string, string>)[field] ?? field);
-  if (control instanceof HTMLInputElement || control instanceof HTMLSelectElement) control.setAttribute("aria-invalid", "true");
-  return control;
 }
 
 /** Clears every inline error. */
@@ -83,7 +48,7 @@ export function renderColumns(container: HTMLElement, columns: readonly ColumnCh
     return;
   }
   for (const c of columns) {
-    const card = el("div", { class: "col-card", "data-column": String(c.index) });
+    const card = el("div", { class: "col-card bar-group", "data-column": String(c.index) });
     const head = el("div", { class: "col-head" });
     head.append(el("code", {}, c.header || `(column ${c.index + 1} has no header)`));
     head.append(el("span", { class: c.recognised ? "badge" : "badge todo" }, c.recognised ? "recognised" : c.problem ?? "check"));
@@ -124,7 +89,7 @@ export function renderColumns(container: HTMLElement, columns: readonly ColumnCh
 export function renderDies(container: HTMLElement, dies: readonly DieEntry[], onChange: (dies: DieEntry[]) => void): void {
   container.replaceChildren();
   dies.forEach((d, i) => {
-    const row = el("div", { class: "die-row" });
+    const row = el("div", { class: "die-row bar-group" });
     const input = (key: keyof DieEntry, label: string, value: string, mode: string) => {
       const id = `die-${i}-${key}`;
       const wrap = el("div");
@@ -140,18 +105,24 @@ export function renderDies(container: HTMLElement, dies: readonly DieEntry[], on
       wrap.append(inp);
       return wrap;
     };
-    row.append(input("label", `Die ${i + 1} label`, d.label, "text"), input("diameterMm", "Bore D [mm]", Number.isFinite(d.diameterMm) ? String(d.diameterMm) : "", "decimal"), input("lengthMm", "Length L [mm]", Number.isFinite(d.lengthMm) ? String(d.lengthMm) : "", "decimal"));
-    const remove = el("button", { type: "button", class: "link", "aria-label": `Remove die ${i + 1}` }, "Remove");
+    // Remove first, then the die's label, bore and length: from any of the three inputs the run button is within three Tab presses
+    const remove = el("button", { type: "button", class: "link", "aria-label": `Remove die ${i + 1}` }, "✕");
     remove.addEventListener("click", () => onChange(dies.filter((_, k) => k !== i)));
-    row.append(remove);
+    row.append(remove, input("label", `Die ${i + 1} label`, d.label, "text"), input("diameterMm", "Bore D [mm]", Number.isFinite(d.diameterMm) ? String(d.diameterMm) : "", "decimal"), input("lengthMm", "Length L [mm]", Number.isFinite(d.lengthMm) ? String(d.lengthMm) : "", "decimal"));
     container.append(row);
   });
 }
 
 /** Renders one labelled check box per model with its one-line description. */
 export function renderModels(container: HTMLElement, chosen: readonly string[], onChange: (models: string[]) => void): void {
-  container.replaceChildren();
-  for (const id of PANE_MODELS) {
+  container.replaceChildren(el("legend", { class: "visually-hidden" }, "Models to fit"));
+  // three to a group: the run button follows the group in use (never more than three Tab presses away)
+  let group: HTMLElement = el("div");
+  PANE_MODELS.forEach((id, k) => {
+    if (k % 3 === 0) {
+      group = el("div", { class: "bar-group" });
+      container.append(group);
+    }
     const m = getModel(id);
     const wrap = el("div", { class: "choice" });
     const boxId = `model-${id}`;
@@ -161,9 +132,9 @@ export function renderModels(container: HTMLElement, chosen: readonly string[], 
       const boxes = Array.from(container.querySelectorAll<HTMLInputElement>("input[type=checkbox]"));
       onChange(boxes.filter((b) => b.checked).map((b) => b.value));
     });
-    wrap.append(box, el("label", { for: boxId }, id), el("p", { class: "help", id: `${boxId}-help` }, m.description));
-    container.append(wrap);
-  }
+    wrap.append(box, el("label", { for: boxId }, modelName(id)), el("p", { class: "help", id: `${boxId}-help` }, m.description));
+    group.append(wrap);
+  });
 }
 
 /** Fills the one-line explanations that do not change. */
@@ -175,7 +146,7 @@ export function fillStaticHelp(): void {
   byId("models-help").textContent = SETTING_HELP.models;
   byId("transducerRangeBar-help").textContent = SETTING_HELP.transducerRangeBar;
   byId("end-orifice-help").textContent = SETTING_HELP.endCorrection.orifice;
-  for (const k of ["transducerAccuracyPercent", "heatingDensity", "heatingHeatCapacity", "heatingConductivity", "heatingTemperatureCoefficient", "referenceTemperatureC", "chartAllModels"] as const) {
+  for (const k of ["transducerAccuracyPercent", "heatingDensity", "heatingHeatCapacity", "heatingConductivity", "heatingTemperatureCoefficient", "referenceTemperatureC", "chartModel"] as const) {
     byId(`${k}-help`).textContent = SETTING_HELP[k];
   }
   for (const k of ["representativeRate", "slip", "extensional", "pressureDependence", "heating"] as const) byId(`check-${k}-help`).textContent = SETTING_HELP[k];
@@ -189,5 +160,5 @@ export function fillStaticHelp(): void {
 
 /** Fills a model list (the pane's isothermal models), keeping `chosen` selected. */
 export function fillModelSelect(select: HTMLSelectElement, chosen: string): void {
-  select.replaceChildren(new Option("(choose)", ""), ...PANE_MODELS.map((id) => new Option(id, id, false, id === chosen)));
+  select.replaceChildren(new Option("(choose)", ""), ...PANE_MODELS.map((id) => new Option(modelName(id), id, false, id === chosen)));
 }

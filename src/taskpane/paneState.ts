@@ -5,12 +5,12 @@
  * lotControls.ts and shareControls.ts.
  */
 import type { ColumnChoice, DieEntry } from "./columns";
-import { LotError } from "./lotPanel";
 import type { HostMode } from "./officeHost";
-import { byId, showFieldError } from "./paneDom";
-import { PlannerError } from "./plannerPanel";
-import { PaneError, RunOutput, groupLabel, toFieldError } from "./runReduction";
-import { DEFAULT_PANE_SETTINGS, FieldId, PaneSettings } from "./settings";
+import { PaneFieldError, type FieldProblem, type PanePanel } from "./panelContract";
+import { byId } from "./paneDom";
+import { RunOutput, groupLabel, toFieldError } from "./runReduction";
+import { DEFAULT_PANE_SETTINGS, PaneSettings } from "./settings";
+import { recommendedFit } from "./recommendedFit";
 import { ADDIN_VERSION } from "./version";
 
 export interface PaneState {
@@ -23,6 +23,8 @@ export interface PaneState {
   busy: boolean;
   /** the last reduction (its flow curves and best fits feed the Planner and the Lot check) */
   lastRun: RunOutput | null;
+  /** the panels of the registry (panels/index.ts), handed over by the shell */
+  panels: readonly PanePanel[];
 }
 
 /** The pane's one session state (a module singleton: the pane is a single page). */
@@ -35,33 +37,74 @@ export const state: PaneState = {
   settings: { ...DEFAULT_PANE_SETTINGS, models: [...DEFAULT_PANE_SETTINGS.models] },
   busy: false,
   lastRun: null,
+  panels: [],
 };
 
 /** Lets the browser repaint between steps of a run. */
 export const pause = () => new Promise<void>((resolve) => setTimeout(resolve, 0));
 
-/** Version and date stamped on every sheet a run writes. */
-export const panelMeta = () => ({ version: ADDIN_VERSION, date: new Date().toISOString() });
+/** A local date and time as an engineer writes it in a log: "2025-03-14 09:26". */
+export function localStamp(d: Date): string {
+  const two = (n: number) => String(n).padStart(2, "0");
+  return `${d.getFullYear()}-${two(d.getMonth() + 1)}-${two(d.getDate())} ${two(d.getHours())}:${two(d.getMinutes())}`;
+}
 
-/** Shows `error` next to the control it concerns (`fallback` for an Office failure) and focuses it. */
-export function fail(error: unknown, fallback: FieldId): void {
-  if (error instanceof PlannerError || error instanceof LotError) {
-    focusControl(showFieldError(error.field, error.message));
-    return;
+/** Version and local date-time stamped on every sheet a run writes. */
+export const panelMeta = () => ({ version: ADDIN_VERSION, date: localStamp(new Date()) });
+
+/** The panel owning `field` and the field's entry, from the registry. */
+export function fieldEntry(field: string): { panel: PanePanel; control: string } | null {
+  for (const panel of state.panels) {
+    const f = panel.fields[field];
+    if (f) return { panel, control: f.control };
   }
-  const f = error instanceof PaneError || !(error instanceof Error) || error.name === "RheoError" ? toFieldError(error) : { field: fallback, message: plainOfficeMessage(error) };
-  focusControl(showFieldError(f.field, f.message));
+  return null;
+}
+
+/**
+ * Shows every problem next to its field (the box `${field}-error`), marks each field's control
+ * invalid, and focuses the first. A problem for a field no panel lists goes to `fallback`.
+ */
+export function showProblems(problems: readonly FieldProblem[], fallback: string): void {
+  const shown = new Map<string, string[]>();
+  for (const p of problems) {
+    const field = fieldEntry(p.field) && document.getElementById(`${p.field}-error`) ? p.field : fallback;
+    shown.set(field, [...(shown.get(field) ?? []), p.message]);
+  }
+  let first: HTMLElement | null = null;
+  for (const [field, messages] of shown) {
+    const box = byId(`${field}-error`);
+    box.textContent = messages.join(" ");
+    box.hidden = false;
+    const entry = fieldEntry(field);
+    const control = document.getElementById(entry?.control ?? field);
+    if (control && control.matches("input, select, textarea")) control.setAttribute("aria-invalid", "true");
+    // the first in page order gets the focus
+    const earlier = first !== null && control !== null && (first.compareDocumentPosition(control) & Node.DOCUMENT_POSITION_PRECEDING) !== 0;
+    if (control instanceof HTMLDetailsElement) control.open = true;
+    // the field's own part of the form must be open to be seen
+    const fold = control?.closest("details.form-fold");
+    if (fold instanceof HTMLDetailsElement) fold.open = true;
+    if (first === null || earlier) first = control;
+  }
+  if (first) focusControl(first);
+}
+
+/**
+ * Shows `error` next to the field(s) it concerns: a {@link PaneFieldError} or a core error at its
+ * fields, an Office failure next to `runField` (the panel's run button) in plain words.
+ */
+export function fail(error: unknown, runField: string): void {
+  const fieldError =
+    error instanceof PaneFieldError || !(error instanceof Error) || error.name === "RheoError"
+      ? toFieldError(error)
+      : new PaneFieldError({ field: runField, message: plainOfficeMessage(error) });
+  showProblems(fieldError.problems.map((p) => (p.field === "run" ? { ...p, field: runField } : p)), runField);
 }
 
 function focusControl(control: HTMLElement): void {
-  const focusable = control.matches("input, select, button, textarea") ? control : control.querySelector<HTMLElement>("input, select, button, textarea");
+  const focusable = control.matches("input, select, button, textarea") ? control : control.querySelector<HTMLElement>("summary, input, select, button, textarea");
   focusable?.focus();
-}
-
-/** An Office failure of a panel as a message next to its run button. */
-export function failPanel(error: unknown, runField: "planRun" | "lotRun"): void {
-  if (error instanceof PlannerError || error instanceof LotError || !(error instanceof Error)) fail(error, "run");
-  else focusControl(showFieldError(runField, plainOfficeMessage(error)));
 }
 
 /** An Office error in plain words. */
@@ -72,13 +115,34 @@ export function plainOfficeMessage(error: Error): string {
   return `Excel reported a problem, and nothing was written: ${text}`;
 }
 
-/** Enables or disables every run button at once (one run at a time). */
+/**
+ * Enables or disables every panel's run button at once (one run at a time), and the buttons that
+ * need Excel or the last reduction.
+ */
 export function setBusy(busy: boolean): void {
   state.busy = busy;
-  for (const id of ["run", "share", "read-columns", "use-selection"]) byId<HTMLButtonElement>(id).disabled = busy || (id !== "run" && id !== "read-columns" && state.mode.kind === "preview");
-  for (const id of ["planRun", "lotRun"]) byId<HTMLButtonElement>(id).disabled = busy;
-  for (const id of ["plan-use-fit", "lot-use-fit"]) byId<HTMLButtonElement>(id).disabled = busy || bestFit() === null;
-  byId("run").setAttribute("aria-busy", String(busy));
+  const preview = state.mode.kind === "preview";
+  for (const panel of state.panels) {
+    if (!panel.runButton) continue;
+    const button = document.getElementById(panel.runButton) as HTMLButtonElement | null;
+    if (!button) continue;
+    button.disabled = busy || (preview && button.dataset.needsExcel === "true");
+    button.setAttribute("aria-busy", String(busy));
+  }
+  for (const id of ["read-columns", "use-selection"]) {
+    const b = document.getElementById(id) as HTMLButtonElement | null;
+    if (b) b.disabled = busy || (preview && b.dataset.needsExcel === "true");
+  }
+  for (const id of ["plan-use-fit", "lot-use-fit"]) {
+    const b = document.getElementById(id) as HTMLButtonElement | null;
+    if (b) b.disabled = busy || bestFit() === null;
+  }
+}
+
+/** The host mode, recorded where every panel and the page's styles can see it. */
+export function setMode(mode: HostMode): void {
+  state.mode = mode;
+  document.body.dataset.mode = mode.kind;
 }
 
 /** The best model (lowest AIC) of the last reduction's first fitted group, or null. */
@@ -86,7 +150,7 @@ export function bestFit(): { model: string; parameters: Record<string, number>; 
   const run = state.lastRun;
   if (!run) return null;
   for (const [i, f] of run.fits.entries()) {
-    const best = f.compare?.ranked[0];
+    const best = recommendedFit(f.compare)?.fit;
     const g = run.result.groups[i];
     if (best && g) return { model: best.model, parameters: best.result.parameters, label: groupLabel(g) };
   }

@@ -10,10 +10,21 @@ import { BlockDraft, DEFAULT_OUTPUT_UNITS as U, bar, fmt } from "./resultsFlowBl
 import type { GroupFits } from "./runReduction";
 import { groupLabel } from "./runReduction";
 import type { CellValue, ChartSpec, SeriesSpec } from "./sheetPlan";
-import type { ShiftOutput } from "./temperatureShift";
+import type { RunShift as ShiftOutput } from "../core/run";
 
 /** Our chart palette: one colour per group (deep teal first, then amber, plum, ...). */
 export const GROUP_COLOURS = ["#0b6e69", "#c77c0e", "#7a3b8f", "#2f5d9e", "#a23b2a", "#4f7a28"];
+/** Marker shapes, one per round of the palette, so that no two groups look alike. */
+export const MARKER_SHAPES = ["circle", "square", "diamond", "triangle"] as const;
+
+/**
+ * The look of group (or series) `i`: its colour, and a marker shape that changes each time the
+ * palette starts again, so that two series never share colour and shape (up to 24 groups).
+ */
+export function seriesLook(i: number): { colour: string; marker: (typeof MARKER_SHAPES)[number] } {
+  const n = GROUP_COLOURS.length;
+  return { colour: GROUP_COLOURS[i % n] as string, marker: MARKER_SHAPES[Math.floor(i / n) % MARKER_SHAPES.length] as (typeof MARKER_SHAPES)[number] };
+}
 /** Bagley lines run from teal to amber over the rates. */
 const RATE_RAMP: [number[], number[]] = [[11, 110, 105], [199, 124, 14]];
 

@@ -42,6 +42,7 @@ export function bagleyBlock(g: ReductionGroup, n: number): BlockDraft {
     header: [`shear rate app. [${U.rate}]`, `wall shear stress [${U.stress}]`, `std. error of stress [${U.stress}]`, `entrance pressure [${U.pressure}]`, "end correction e [-]", "R² [-]", "dies"],
     rows: g.bagley.map((b) => [b.shearRateApparent, kPa(b.wallShearStress), b.diesUsed > 2 ? kPa(b.slopeStandardError / 2) : null, bar(b.entrancePressure), b.endCorrection, b.r2, b.diesUsed]),
     numberFormats: ["0.00", "0.000", "0.000", "0.000", "0.000", "0.0000", "0"],
+    keyColumns: [0, 1, 3, 4],
   };
 }
 
@@ -67,7 +68,7 @@ export function flowBlock(g: ReductionGroup, n: number): BlockDraft {
     return row;
   });
   const title = g.uncertainty ? "Flow curve (Rabinowitsch-corrected; ± expanded uncertainty, k = 2)" : "Flow curve (Rabinowitsch-corrected)";
-  return { id: `flow-${n}`, role: "table", title, header, rows, numberFormats: formats };
+  return { id: `flow-${n}`, role: "table", title, header, rows, numberFormats: formats, keyColumns: [0, 1, 4, 5] };
 }
 
 /** The model ranking and fitted-parameter tables of group `n` (none when no model was fitted). */
@@ -81,6 +82,7 @@ export function fitBlocks(fits: GroupFits, n: number): BlockDraft[] {
     header: ["model", "ΔAIC [-]", "Akaike weight [-]", "R² (ln η) [-]", "RMSE (ln η) [-]", "points", "iterations"],
     rows: c.ranked.map((r) => [r.model, r.deltaAic, r.akaikeWeight, r.result.r2, r.result.rmse, r.result.pointCount, r.result.iterations]),
     numberFormats: [null, "0.00", "0.000", "0.0000", "0.0000", "0", "0"],
+    keyColumns: [0, 1, 2, 3],
   };
   const rows: CellValue[][] = [];
   for (const r of c.ranked) {
@@ -97,6 +99,7 @@ export function fitBlocks(fits: GroupFits, n: number): BlockDraft[] {
     header: ["model", "parameter", "value", "std. error", "95 % low", "95 % high", "unit"],
     rows,
     numberFormats: [null, null, "0.0000E+00", "0.000E+00", "0.000E+00", "0.000E+00", null],
+    keyColumns: [0, 1, 2, 6],
   };
   return [ranking, parameters];
 }

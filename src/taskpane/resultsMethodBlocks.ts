@@ -7,7 +7,7 @@ import type { ReductionGroup, ReductionResult } from "../core/reduce";
 import { fromSI } from "../core/units";
 import { BlockDraft, DEFAULT_OUTPUT_UNITS as U, bar, fmt, kPa } from "./resultsFlowBlocks";
 import type { CellValue } from "./sheetPlan";
-import type { ShiftOutput } from "./temperatureShift";
+import type { RunShift as ShiftOutput } from "../core/run";
 
 /** The optional method tables of a group (entrance pressures, Cogswell, heating, pressure dependence). */
 export function methodBlocks(g: ReductionGroup, n: number): BlockDraft[] {
@@ -31,6 +31,7 @@ export function methodBlocks(g: ReductionGroup, n: number): BlockDraft[] {
       header: [`shear rate wall [${U.rate}]`, `entrance pressure [${U.pressure}]`, `tensile stress [${U.stress}]`, "extension rate [1/s]", `extensional viscosity [${U.viscosity}]`, "Trouton ratio [-]"],
       rows: g.extensional.map((e) => [e.shearRateWall, bar(e.entrancePressure), kPa(e.tensileStress), e.extensionRate, e.extensionalViscosity, e.troutonRatio]),
       numberFormats: ["0.00", "0.000", "0.000", "0.00", "0", "0.00"],
+      keyColumns: [0, 4, 5],
     });
   }
   if (g.heating) {
@@ -53,6 +54,7 @@ export function methodBlocks(g: ReductionGroup, n: number): BlockDraft[] {
       header: [`shear rate app. [${U.rate}]`, "β [1/GPa]", `wall stress at p = 0 [${U.stress}]`, `entrance pressure [${U.pressure}]`, "ln viscosity rise [-]", "dies", "converged"],
       rows: rows.length > 0 ? rows : [["No rate had three or more dies on its Bagley line."]],
       numberFormats: ["0.00", "0.00", "0.000", "0.000", "0.000", "0", null],
+      keyColumns: [0, 1, 5],
     });
   }
   return out;
@@ -68,6 +70,7 @@ export function slipBlock(result: ReductionResult): BlockDraft | null {
     header: [`temperature [°C]`, `wall shear stress [${U.stress}]`, "slip velocity [mm/s]", "std. error of slip velocity [mm/s]", `shear rate app. slip-corrected [${U.rate}]`, "n' [-]", `shear rate wall [${U.rate}]`, `viscosity [${U.viscosity}]`, "R² [-]"],
     rows: result.slip.map((s) => [s.temperature === null ? null : fromSI(s.temperature, U.temperature, "temperature"), kPa(s.wallShearStress), s.slipVelocity * 1e3, s.slipVelocityStandardError * 1e3, s.shearRateApparentCorrected, s.nPrime, s.shearRateWall, s.viscosity, s.r2]),
     numberFormats: ["0.0", "0.000", "0.0000", "0.0000", "0.00", "0.000", "0.00", "0.0", "0.0000"],
+    keyColumns: [0, 1, 2, 7],
   };
 }
 

@@ -13,7 +13,9 @@
  * places them on the sheet.
  */
 import { fromSI } from "../core/units";
-import { GROUP_COLOURS, bagleyChart, bagleyChartData, masterChartData, modelChartData, summaryCharts } from "./resultsCharts";
+import { headerLabel, modelName } from "../io/displayNames";
+import { recommendedFit } from "./recommendedFit";
+import { GROUP_COLOURS, seriesLook, bagleyChart, bagleyChartData, masterChartData, modelChartData, summaryCharts } from "./resultsCharts";
 import { BlockDraft, DEFAULT_OUTPUT_UNITS, bagleyBlock, fitBlocks, flowBlock, fmt } from "./resultsFlowBlocks";
 import { methodBlocks, shiftBlocks, slipBlock } from "./resultsMethodBlocks";
 import type { RunOutput } from "./runReduction";
@@ -46,7 +48,8 @@ class Stack {
     this.row = start;
   }
   add(block: BlockDraft, gap = 1): CellBlock {
-    const b: CellBlock = { ...block, row: this.row, col: this.col };
+    // one spelling of each unit, on the sheet as in the pane ("Pa·s", "°C")
+    const b: CellBlock = { ...block, ...(block.header ? { header: block.header.map(headerLabel) } : {}), row: this.row, col: this.col };
     this.blocks.push(b);
     this.row += blockLayout(b).rowCount + gap;
     return b;
@@ -77,7 +80,7 @@ export function buildResultsPlan(run: RunOutput, meta: PlanMeta): SheetPlan {
   run.result.groups.forEach((g, i) => {
     const n = i + 1;
     const label = groupLabel(g);
-    const colour = GROUP_COLOURS[i % GROUP_COLOURS.length] as string;
+    const { colour, marker } = seriesLook(i);
     const dies = g.dies.map((d) => fmt(d.dieLength / g.dieDiameter)).join(", ");
     left.add({ id: `section-${n}`, role: "heading", title: `${label}; dies L/D ${dies}`, rows: [] }, 0);
     if (g.bagley.length > 0) left.add(bagleyBlock(g, n));
@@ -88,18 +91,20 @@ export function buildResultsPlan(run: RunOutput, meta: PlanMeta): SheetPlan {
     left.row += 1;
 
     const count = flow.rows.length;
-    flowSeries.push({ name: label, blockId: flow.id, xColumn: 4, yColumn: 1, firstRow: 0, rowCount: count, style: "markers", colour });
-    viscositySeries.push({ name: label, blockId: flow.id, xColumn: 4, yColumn: 5, firstRow: 0, rowCount: count, style: "markers", colour });
-    nPrimeSeries.push({ name: label, blockId: flow.id, xColumn: 0, yColumn: 3, firstRow: 0, rowCount: count, style: "markers", colour });
+    flowSeries.push({ name: label, blockId: flow.id, xColumn: 4, yColumn: 1, firstRow: 0, rowCount: count, style: "markers", colour, marker });
+    viscositySeries.push({ name: label, blockId: flow.id, xColumn: 4, yColumn: 5, firstRow: 0, rowCount: count, style: "markers", colour, marker });
+    nPrimeSeries.push({ name: label, blockId: flow.id, xColumn: 0, yColumn: 3, firstRow: 0, rowCount: count, style: "markers", colour, marker });
     const models = modelChartData(fits, label, n);
     if (models) {
       const block = right.add(models.block);
-      // curves are in AIC order: the first is the group's best model
-      models.runs.forEach((r, k) => {
-        if (k > 0 && !run.settings.chartAllModels) return;
-        const name = run.settings.chartAllModels ? `${label}, ${r.model}` : `${label}, ${r.model} (best)`;
-        viscositySeries.push({ name, blockId: block.id, xColumn: 1, yColumn: 2, firstRow: r.firstRow, rowCount: r.rowCount, style: dashed[k % 2] as SeriesSpec["style"], colour });
-      });
+      // one curve per group, in the group's colour: the recommended model, or the one chosen
+      const chosen = run.settings.chartModel;
+      const recommended = recommendedFit(fits.compare)?.fit.model;
+      const r = models.runs.find((x) => x.model === (chosen === "best" ? recommended : chosen));
+      if (r) {
+        const name = `${label}, ${modelName(r.model)}${r.model === recommended ? " (recommended)" : ""}`;
+        viscositySeries.push({ name, blockId: block.id, xColumn: 1, yColumn: 2, firstRow: r.firstRow, rowCount: r.rowCount, style: dashed[Math.floor(i / GROUP_COLOURS.length) % 2] as SeriesSpec["style"], colour });
+      }
     }
     if (g.bagley.length > 0) {
       const data = bagleyChartData(g, n);
@@ -116,7 +121,7 @@ export function buildResultsPlan(run: RunOutput, meta: PlanMeta): SheetPlan {
     for (const b of shiftBlocks(run.shift)) left.add(b);
     const master = masterChartData(run.shift);
     const block = right.add(master.block);
-    master.runs.forEach((r, k) => masterSeries.push({ name: r.name, blockId: block.id, xColumn: 1, yColumn: 2, firstRow: r.firstRow, rowCount: r.rowCount, style: "markers", colour: GROUP_COLOURS[k % GROUP_COLOURS.length] as string }));
+    master.runs.forEach((r, k) => masterSeries.push({ name: r.name, blockId: block.id, xColumn: 1, yColumn: 2, firstRow: r.firstRow, rowCount: r.rowCount, style: "markers", ...seriesLook(k) }));
   }
 
   const charts = [...summaryCharts({ flow: flowSeries, viscosity: viscositySeries, nPrime: nPrimeSeries, master: masterSeries }, run.shift), ...bagleyCharts];

@@ -3,15 +3,16 @@
  * model fits, with progress reported between steps. Pure apart from the optional `pause` that
  * lets a browser repaint; everything computed here is computed by src/core.
  */
-import { RheoError, Warning, warning } from "../core/errors";
-import { reduce, ReductionGroup, ReductionResult } from "../core/reduce";
-import { compareModels, type CompareResult } from "../core/fit";
+import { RheoError, Warning } from "../core/errors";
+import { runReduction as coreRunReduction, trueFlowCurve, type RunShift } from "../core/run";
+import type { ReductionGroup, ReductionResult } from "../core/reduce";
+import type { CompareResult } from "../core/fit";
 import { evaluateModel, type ModelId } from "../core/models";
 import { readRawTable, RawTable } from "../io/rawTable";
 import { COLUMN_QUANTITIES } from "../io/headers";
 import { applyColumnChoices, ColumnChoice, DieEntry } from "./columns";
-import { FieldError, FieldId, PaneSettings, reduceOptionsOf, validateSettings } from "./settings";
-import { ShiftOutput, shiftRun } from "./temperatureShift";
+import { FIELD_OF_SETTING_KEY, FieldId, PaneSettings, readPaneSettings } from "./settings";
+import { PaneFieldError, detailOf, sentence } from "./panelContract";
 
 /** What the user picked in the Data step. */
 export interface RunInput {
@@ -45,8 +46,8 @@ export interface RunOutput {
   /** aligned with result.groups */
   fits: GroupFits[];
   /** the temperature shift (null when not asked for) */
-  shift: ShiftOutput | null;
-  /** every warning of the run: reading, reduction (transducer range included), shift, fits */
+  shift: RunShift | null;
+  /** every warning of the run (the core's one list): reading, reduction, fits, shift */
   warnings: Warning[];
 }
 
@@ -56,55 +57,58 @@ export type ProgressReporter = (step: string, fraction: number) => void;
 /** Points on each model curve in the charts. */
 export const MODEL_CURVE_POINTS = 24;
 
-/** A failure meant for one field of the pane. */
-export class PaneError extends Error {
-  readonly field: FieldId;
-  constructor(field: FieldId, message: string) {
-    super(message);
-    this.name = "PaneError";
-    this.field = field;
-  }
-}
-
 /**
- * The pane field a core or reader error concerns: bad cells → the data source; column problems →
- * the mapping; die list problems → the die list; a single die length → the end-correction choice;
- * option errors → their control.
+ * The pane field a core or reader error concerns, read from its structured fields (argument, row),
+ * never from its wording: a cell of the data (a row, or a column's value) → the data source;
+ * a column or header problem → the column mapping; the die list → the die list; die lengths (the
+ * end correction's needs) → the end-correction choice; die bores (the slip check's needs) → the
+ * optional checks; an option → its control.
  */
 export function fieldOfError(error: RheoError): FieldId {
   const a = error.argument;
-  if (a === "dies") return "dies";
-  if (a === "dieLength" && /single die length|at least two lengths/.test(error.message)) return "endCorrection";
-  if (a === "method") return "rabinowitschMethod";
-  if (a === "degree") return "rabinowitschDegree";
-  if (a === "window") return "rabinowitschWindow";
-  if (a === "model" || a === "models") return "models";
-  if (a === "temperatureShift" || /^curves/.test(a)) return "temperatureShift";
-  if (a === "referenceTemperature") return "referenceTemperatureC";
-  if (/temperatureCoefficient$/.test(a)) return "heatingTemperatureCoefficient";
-  if (a === "density") return "heatingDensity";
-  if (a === "heatCapacity") return "heatingHeatCapacity";
-  if (a === "conductivity") return "heatingConductivity";
-  if (a === "fullScale") return "transducerRangeBar";
-  if (a === "accuracy") return "transducerAccuracyPercent";
-  if (a === "dieDiameter" && /slip/.test(error.message)) return "checks";
-  if (a === "dieLength" && /orifice/.test(error.message)) return "endCorrection";
-  if (/\b(row|line) \d+/.test(error.message)) return "source";
-  if (a === "data" || a === "measurements") return "source";
-  if (a === "columns" || a === "header" || /^column \d+/.test(a) || a in COLUMN_QUANTITIES) return "columns";
+  const byArgument: Record<string, FieldId> = {
+    dies: "dies",
+    dieLength: "endCorrection",
+    endCorrection: "endCorrection",
+    orificePressure: "endCorrection",
+    dieDiameter: "slip",
+    method: "rabinowitschMethod",
+    degree: "rabinowitschDegree",
+    window: "rabinowitschWindow",
+    model: "models",
+    models: "models",
+    temperatureShift: "temperatureShift",
+    referenceTemperature: "referenceTemperatureC",
+    "heating.temperatureCoefficient": "heatingTemperatureCoefficient",
+    temperatureCoefficient: "heatingTemperatureCoefficient",
+    density: "heatingDensity",
+    heatCapacity: "heatingHeatCapacity",
+    conductivity: "heatingConductivity",
+    fullScale: "transducerRangeBar",
+    accuracy: "transducerAccuracyPercent",
+    data: "source",
+    measurements: "source",
+    columns: "columns",
+    header: "columns",
+  };
+  const direct = byArgument[a] ?? FIELD_OF_SETTING_KEY[a];
+  if (direct) return direct;
+  if (a.startsWith("curves")) return "temperatureShift";
+  // a value in a data cell: the reader names it "<header> (column N)" or "row N" / "line N"
+  if (error.row !== undefined || /\(column \d+\)$/.test(a) || /^(row|line) \d+$/.test(a)) return "source";
+  if (/^column \d+$/.test(a) || a in COLUMN_QUANTITIES) return "columns";
   return "run";
 }
 
-/** The error as a message for one field, in plain words. */
-export function toFieldError(error: unknown): FieldError {
-  if (error instanceof PaneError) return { field: error.field, message: error.message };
-  if (error instanceof RheoError) return { field: fieldOfError(error), message: sentence(error.message) };
-  return { field: "run", message: `Unexpected problem: ${error instanceof Error ? error.message : String(error)}` };
-}
-
-function sentence(text: string): string {
-  const t = text.trim();
-  return (t.charAt(0).toUpperCase() + t.slice(1)).replace(/([^.])$/, "$1.");
+/** The error as problems for the pane's fields, in plain words (the field's label names it). */
+export function toFieldError(error: unknown): PaneFieldError {
+  if (error instanceof PaneFieldError) return error;
+  if (error instanceof RheoError) {
+    const field = fieldOfError(error);
+    // a failure not tied to one field keeps the argument's name in its message
+    return new PaneFieldError({ field, message: field === "run" ? sentence(error.message) : detailOf(error) });
+  }
+  return new PaneFieldError({ field: "run", message: `Unexpected problem: ${error instanceof Error ? error.message : String(error)}` });
 }
 
 import { groupLabel } from "../core/grouping";
@@ -117,27 +121,19 @@ function logGrid(lo: number, hi: number, n: number): number[] {
   return Array.from({ length: n }, (_, i) => Math.exp(a + ((b - a) * i) / (n - 1)));
 }
 
-function fitGroup(group: ReductionGroup, models: readonly ModelId[]): { fits: GroupFits; warnings: Warning[] } {
-  const rows = group.flowCurve.filter((r) => r.shearRateWall !== null && r.viscosity !== null);
-  const label = groupLabel(group);
-  if (models.length === 0) return { fits: { compare: null, curves: [] }, warnings: [] };
-  if (rows.length < 3) {
-    return { fits: { compare: null, curves: [] }, warnings: [warning("FIT_SKIPPED", `${label}: only ${rows.length} corrected point(s); no model was fitted.`)] };
-  }
-  const data = { shearRate: rows.map((r) => r.shearRateWall as number), viscosity: rows.map((r) => r.viscosity as number) };
-  const compare = compareModels(models, data);
-  const warnings: Warning[] = [];
-  for (const f of compare.failed) warnings.push(warning("FIT_FAILED", `${label}: ${f.model} was not fitted (${f.reason}).`));
-  for (const r of compare.ranked) warnings.push(...r.result.warnings.map((w) => warning(w.code, `${label}, ${r.model}: ${w.message}`)));
-  const grid = logGrid(Math.min(...data.shearRate), Math.max(...data.shearRate), MODEL_CURVE_POINTS);
-  const curves = compare.ranked.map((r) => ({ model: r.model, shearRate: grid, viscosity: evaluateModel(r.model, r.result.parameters, grid) }));
-  return { fits: { compare, curves }, warnings };
+/** The charts' curves of a group's ranked fits: each model evaluated on a log grid over the group's true rates. */
+function modelCurves(group: ReductionGroup, compare: CompareResult | null): ModelCurve[] {
+  if (!compare || compare.ranked.length === 0) return [];
+  const rates = trueFlowCurve(group).shearRate;
+  const grid = logGrid(Math.min(...rates), Math.max(...rates), MODEL_CURVE_POINTS);
+  return compare.ranked.map((r) => ({ model: r.model, shearRate: grid, viscosity: evaluateModel(r.model, r.result.parameters, grid) }));
 }
 
 /**
- * Runs a whole reduction: settings check, column mapping, reading, the core's reduction with the
- * chosen checks (its transducer check included), the temperature shift, and model fits per group, reporting progress and pausing between groups.
- * @throws PaneError naming the field at fault (settings, mapping, data, die list).
+ * Runs a whole reduction: the settings through the shared reader (every problem at once), the
+ * column mapping, the shared table reader, then the core's one run (reduction, model ranking,
+ * temperature shift, one warning list), reporting progress between steps.
+ * @throws PaneFieldError naming the field(s) at fault (settings, mapping, data, die list).
  */
 export async function runReduction(
   input: RunInput,
@@ -145,39 +141,32 @@ export async function runReduction(
   onProgress: ProgressReporter = () => undefined,
   pause: () => Promise<void> = () => Promise.resolve(),
 ): Promise<RunOutput> {
-  const invalid = validateSettings(settings)[0];
-  if (invalid) throw new PaneError(invalid.field, invalid.message);
+  const { request, problems } = readPaneSettings(settings);
+  if (problems.length > 0) throw new PaneFieldError(problems);
   try {
     onProgress("Reading the data", 0.05);
     await pause();
     const cells = applyColumnChoices(input.cells, input.columns, input.dies);
     const raw = readRawTable(cells, { rowWord: "row" });
-    onProgress("Bagley and Rabinowitsch corrections", 0.2);
+    onProgress("Corrections, model fits and shift", 0.2);
     await pause();
-    const result = reduce(raw.measurements, reduceOptionsOf(settings));
-    const warnings: Warning[] = [...raw.warnings, ...result.warnings];
-    let shift: ShiftOutput | null = null;
-    if (settings.temperatureShift !== "none") {
-      onProgress("Temperature shift", 0.25);
-      await pause();
-      shift = shiftRun(result.groups, settings.temperatureShift, settings.referenceTemperatureC);
-      warnings.push(...shift.fit.warnings.map((w) => warning(w.code, `Temperature shift: ${w.message}`)));
-    }
-    const fits: GroupFits[] = [];
-    for (const [i, group] of result.groups.entries()) {
-      onProgress(`Fitting models: group ${i + 1} of ${result.groups.length}`, 0.3 + (0.6 * i) / result.groups.length);
-      await pause();
-      const f = fitGroup(group, settings.models);
-      fits.push(f.fits);
-      warnings.push(...f.warnings);
-    }
+    const fits = settings.models.length > 0 ? { ...request.fits, compare: settings.models } : { ...request.fits, compare: undefined, rank: false };
+    const run = coreRunReduction(raw.measurements, request.options, fits, raw.warnings);
     onProgress("Reduction done", 0.9);
-    return { input, settings, raw, result, fits, shift, warnings };
+    return {
+      input,
+      settings,
+      raw,
+      result: run.result,
+      fits: run.result.groups.map((g, i) => {
+        const c = run.comparisons?.[i];
+        const compare = c && (c.ranked.length > 0 || c.failed.length > 0) ? { ranked: c.ranked, failed: c.failed } : null;
+        return { compare, curves: modelCurves(g, compare) };
+      }),
+      shift: run.shift ?? null,
+      warnings: run.warnings,
+    };
   } catch (error) {
-    if (error instanceof RheoError) {
-      const f = toFieldError(error);
-      throw new PaneError(f.field, f.message);
-    }
-    throw error;
+    throw error instanceof RheoError ? toFieldError(error) : error;
   }
 }

@@ -1,13 +1,17 @@
 /**
- * The pane's reduction settings: one record with its defaults defined once, a one-line
- * explanation of every choice (shown beside the control), strict validation that names the field
- * at fault, and the translation into the core's options. Pure: no DOM, no Office.
+ * The pane's reduction settings: the form's state with its defaults, read through the one reader
+ * of reduce settings (src/io/reduceOptions.ts) under the same keys as the command line and
+ * RHEO.REDUCE, so validation, units and the request for the core are the shared ones. Labels and
+ * help come from src/io/reduceSettingWords.ts. Pure: no DOM, no Office.
  */
 import { DEFAULT_RABINOWITSCH_OPTIONS, RabinowitschMethod } from "../core/rabinowitsch";
 import { DEFAULT_REDUCE_OPTIONS, ReduceOptions } from "../core/reduce";
 import { MODEL_REGISTRY, type ModelId } from "../core/models";
 import { DEFAULT_UNCERTAINTY_OPTIONS } from "../core/uncertainty";
-import { toSI } from "../core/units";
+import { KEYED_SETTINGS_SOURCE, collectReduceSettings, type ReduceRequest } from "../io/reduceOptions";
+import { REDUCE_SETTING_WORDS, type ReduceSettingWords } from "../io/reduceSettingWords";
+import { detailOf, sentence } from "./panelContract";
+import { modelName } from "../io/displayNames";
 
 /** Every setting of one run. Numbers in the units the pane shows (bar for the transducer). */
 export interface PaneSettings {
@@ -46,8 +50,8 @@ export interface PaneSettings {
   temperatureShift: "none" | "arrhenius" | "wlf";
   /** reference temperature in °C, or null: the middle temperature of the data */
   referenceTemperatureC: number | null;
-  /** draw every fitted model on the viscosity chart (false: the best model of each group) */
-  chartAllModels: boolean;
+  /** the model drawn over each group's points on the viscosity chart: "best" (lowest AIC) or one of `models` */
+  chartModel: "best" | ModelId;
 }
 
 /** Models the pane offers: every isothermal model of the registry (Cross-WLF needs T per point). */
@@ -75,7 +79,7 @@ export const DEFAULT_PANE_SETTINGS: Readonly<PaneSettings> = Object.freeze({
   heatingTemperatureCoefficient: null,
   temperatureShift: "none",
   referenceTemperatureC: null,
-  chartAllModels: false,
+  chartModel: "best",
 });
 
 /** The fields of the pane a message can be shown next to. */
@@ -97,43 +101,63 @@ export type FieldId =
   | "heatingTemperatureCoefficient"
   | "temperatureShift"
   | "referenceTemperatureC"
-  | "run"
-  | "share";
+  | "slip"
+  | "chartModel"
+  | "run";
 
-/** One-line explanation of each choice, shown under its control. */
+/** The reduce setting key (src/io/reduceOptions.ts) behind each pane field that reads one. */
+export const SETTING_KEY_OF_FIELD = Object.freeze({
+  endCorrection: "endCorrection",
+  rabinowitschMethod: "rabinowitschMethod",
+  rabinowitschDegree: "rabinowitschDegree",
+  rabinowitschWindow: "rabinowitschWindow",
+  models: "compare",
+  transducerRangeBar: "transducerFullScale",
+  transducerAccuracyPercent: "transducerAccuracy",
+  representativeRate: "representativeRate",
+  slip: "slip",
+  extensional: "extensional",
+  pressureDependence: "pressureDependence",
+  heating: "heating",
+  heatingDensity: "heatingDensity",
+  heatingHeatCapacity: "heatingHeatCapacity",
+  heatingConductivity: "heatingConductivity",
+  heatingTemperatureCoefficient: "heatingTemperatureCoefficient",
+  temperatureShift: "shift",
+  referenceTemperatureC: "referenceTemperature",
+} as const satisfies Partial<Record<keyof PaneSettings, string>>);
+
+/** The pane field of a reduce setting key (the reverse of {@link SETTING_KEY_OF_FIELD}). */
+export const FIELD_OF_SETTING_KEY: Readonly<Record<string, FieldId>> = Object.freeze(
+  Object.fromEntries(Object.entries(SETTING_KEY_OF_FIELD).map(([field, key]) => [key, field === "representativeRate" || field === "extensional" || field === "pressureDependence" || field === "heating" ? "checks" : field])) as Record<string, FieldId>,
+);
+
+const words = (key: string) => REDUCE_SETTING_WORDS[key] as ReduceSettingWords;
+const help = (key: string) => sentence(words(key).help);
+const choices = <K extends string>(key: string) => (words(key).choiceHelp ?? {}) as Readonly<Record<K, string>>;
+
+/** One-line explanation of each choice, shown under its control (the shared words of each setting). */
 export const SETTING_HELP = {
-  endCorrection: {
-    bagley: "Fits pressure against L/R over dies of one bore at each rate and removes the entrance loss (needs two or more die lengths).",
-    orifice: "Subtracts the pressure of an orifice die (L/D below 1) at the same rate from the longest die: one long die is enough.",
-    none: "Uses the longest die as measured: quick, but the wall stress still includes the entrance loss and reads high.",
-  },
-  rabinowitschMethod: {
-    transition: "Smooth S-shaped curve through log stress vs log rate, differentiated exactly; the most accurate on melt data (default).",
-    local: "A low-order polynomial over a few neighbouring points at each rate; follows local bends.",
-    global: "One polynomial of degree 1–3 through all points; simple, but biased at the ends of the range.",
-    difference: "Slopes between neighbouring points; no smoothing, so noise shows through. For comparison.",
-  },
-  rabinowitschDegree: "Polynomial degree of the local (1–2) or global (1–3) slope fit.",
-  rabinowitschWindow: "How many neighbouring points each local fit uses (odd, at least 3).",
+  endCorrection: choices<"bagley" | "orifice" | "none">("endCorrection"),
+  rabinowitschMethod: choices<RabinowitschMethod>("rabinowitschMethod"),
+  rabinowitschDegree: help("rabinowitschDegree"),
+  rabinowitschWindow: help("rabinowitschWindow"),
   models: "Viscosity models fitted to each corrected flow curve; they are ranked by AIC (lower is better).",
-  transducerRangeBar: `Full scale of the pressure transducer; readings above it, or below ${DEFAULT_UNCERTAINTY_OPTIONS.minFractionOfFullScale * 100} % of it, are flagged, and the flow curve gets ± columns.`,
-  transducerAccuracyPercent: "Accuracy in % of full scale from the transducer's certificate; gives the ± columns (k = 2, about 95 %).",
-  representativeRate: "Schümmer cross-check: the apparent viscosity placed at π/4 of the apparent rate, compared with the Rabinowitsch result.",
-  slip: "Mooney wall-slip analysis: compares flow curves of two or more die bores at one temperature.",
-  extensional: "Cogswell estimate of the extensional viscosity and Trouton ratio from the entrance pressure.",
-  pressureDependence: "Fits the bend of the Bagley lines (three or more dies) to get the pressure coefficient of viscosity.",
+  transducerRangeBar: help("transducerFullScale"),
+  transducerAccuracyPercent: help("transducerAccuracy"),
+  representativeRate: help("representativeRate"),
+  slip: help("slip"),
+  extensional: help("extensional"),
+  pressureDependence: help("pressureDependence"),
+  // the shared help gives the command line's compound syntax; the pane has a field per input
   heating: "Adiabatic temperature rise and Nahme number in the die, from the melt's density, specific heat and conductivity.",
-  heatingDensity: "Melt density at test temperature, g/cm³.",
-  heatingHeatCapacity: "Specific heat of the melt, kJ/(kg·K).",
-  heatingConductivity: "Thermal conductivity of the melt, W/(m·K).",
-  heatingTemperatureCoefficient: "b = −d ln η/dT in 1/K; leave empty to fit it across the temperatures of the data.",
-  temperatureShift: {
-    none: "No shift: each temperature is reported on its own.",
-    arrhenius: "Arrhenius shift aT = exp[(Ea/R)(1/T − 1/Tref)]: fits the activation energy Ea; suits melts well above Tg.",
-    wlf: "WLF shift log aT = −C1(T − Tref)/(C2 + T − Tref): fits C1 and C2; suits melts within about 100 K of Tg.",
-  },
-  referenceTemperatureC: "Temperature the flow curves are shifted to, in °C; leave empty for the middle temperature of the data.",
-  chartAllModels: "Draw every fitted model on the viscosity chart; off draws the best model (lowest AIC) of each group.",
+  heatingDensity: help("heatingDensity"),
+  heatingHeatCapacity: help("heatingHeatCapacity"),
+  heatingConductivity: help("heatingConductivity"),
+  heatingTemperatureCoefficient: help("heatingTemperatureCoefficient"),
+  temperatureShift: choices<"none" | "arrhenius" | "wlf">("shift"),
+  referenceTemperatureC: help("referenceTemperature"),
+  chartModel: "The model drawn through each group's points on the viscosity chart: the recommended one (lowest AIC among those the data determine) or one you choose. The sheet lists every fitted model.",
 } as const;
 
 /** A message meant for one field of the pane. */
@@ -142,85 +166,72 @@ export interface FieldError {
   message: string;
 }
 
-const METHODS: readonly RabinowitschMethod[] = ["transition", "local", "global", "difference"];
+/**
+ * The form's values under the reduce setting keys, as the shared reader takes them (bare numbers
+ * in the settings' display units). Settings the form does not use now are left out: the degree
+ * and window unless the method takes them, the transducer accuracy without a full scale, the
+ * heating inputs with heating off, the reference temperature without a shift.
+ */
+export function settingsRecord(s: PaneSettings): Record<string, unknown> {
+  const r: Record<string, unknown> = { endCorrection: s.endCorrection, rabinowitschMethod: s.rabinowitschMethod };
+  if (usesDegree(s.rabinowitschMethod)) r.rabinowitschDegree = s.rabinowitschDegree;
+  if (s.rabinowitschMethod === "local") r.rabinowitschWindow = s.rabinowitschWindow;
+  if (s.models.length > 0) r.compare = s.models.join(",");
+  if (s.transducerRangeBar !== null) {
+    r.transducerFullScale = s.transducerRangeBar;
+    // a blank accuracy is a missing value the reader names; the display unit of a bare number is %
+    r.transducerAccuracy = s.transducerAccuracyPercent ?? "";
+  }
+  for (const k of ["representativeRate", "slip", "extensional", "pressureDependence"] as const) if (s[k]) r[k] = true;
+  if (s.heating) {
+    r.heating = true;
+    for (const k of ["heatingDensity", "heatingHeatCapacity", "heatingConductivity", "heatingTemperatureCoefficient"] as const) if (s[k] !== null) r[k] = s[k];
+  }
+  if (s.temperatureShift !== "none") {
+    r.shift = s.temperatureShift;
+    if (s.referenceTemperatureC !== null) r.referenceTemperature = s.referenceTemperatureC;
+  }
+  return r;
+}
 
 /**
- * Checks every setting; returns one plain-language message per field at fault (empty when all
- * is well). Nothing is corrected silently.
+ * Reads the settings through the shared reader and checks what only the pane has (the chart's
+ * model); returns the request for the core and every problem, each for its field, all at once.
  */
-export function validateSettings(s: PaneSettings): FieldError[] {
-  const errors: FieldError[] = [];
-  if (s.endCorrection !== "bagley" && s.endCorrection !== "none" && s.endCorrection !== "orifice") {
-    errors.push({ field: "endCorrection", message: `Choose Bagley, orifice die or no end correction (got "${String(s.endCorrection)}").` });
+export function readPaneSettings(s: PaneSettings): { request: ReduceRequest; problems: FieldError[] } {
+  const problems: FieldError[] = [];
+  for (const k of ["rabinowitschDegree", "rabinowitschWindow", "transducerRangeBar", "transducerAccuracyPercent", "heatingDensity", "heatingHeatCapacity", "heatingConductivity", "heatingTemperatureCoefficient", "referenceTemperatureC"] as const) {
+    if (typeof s[k] === "number" && Number.isNaN(s[k])) problems.push({ field: k, message: "Give a number (a decimal point or comma), or leave it empty." });
   }
-  if (!METHODS.includes(s.rabinowitschMethod)) {
-    errors.push({ field: "rabinowitschMethod", message: `Unknown slope method "${String(s.rabinowitschMethod)}".` });
-  }
-  const maxDegree = s.rabinowitschMethod === "global" ? 3 : 2;
-  if (usesDegree(s.rabinowitschMethod) && !(Number.isInteger(s.rabinowitschDegree) && s.rabinowitschDegree >= 1 && s.rabinowitschDegree <= maxDegree)) {
-    errors.push({ field: "rabinowitschDegree", message: `Give a whole number from 1 to ${maxDegree} for the ${s.rabinowitschMethod} method.` });
-  }
-  if (s.rabinowitschMethod === "local" && !(Number.isInteger(s.rabinowitschWindow) && s.rabinowitschWindow >= 3 && s.rabinowitschWindow % 2 === 1)) {
-    errors.push({ field: "rabinowitschWindow", message: "Give an odd whole number of points, 3 or more (for example 5)." });
-  }
-  const unknown = s.models.filter((m) => !PANE_MODELS.includes(m));
-  if (unknown.length > 0) errors.push({ field: "models", message: `Unknown model(s): ${unknown.join(", ")}.` });
-  if (s.transducerRangeBar !== null && !(Number.isFinite(s.transducerRangeBar) && s.transducerRangeBar > 0)) {
-    errors.push({ field: "transducerRangeBar", message: "Give the full scale as a number of bar greater than zero, or leave it empty." });
-  }
-  if (s.transducerRangeBar !== null && !(s.transducerAccuracyPercent !== null && Number.isFinite(s.transducerAccuracyPercent) && s.transducerAccuracyPercent > 0 && s.transducerAccuracyPercent < 100)) {
-    errors.push({ field: "transducerAccuracyPercent", message: "Give the accuracy in % of full scale, above 0 and below 100 (for example 0.25)." });
+  const bad = new Set(problems.map((p) => SETTING_KEY_OF_FIELD[p.field as keyof typeof SETTING_KEY_OF_FIELD] as string));
+  const record = Object.fromEntries(Object.entries(settingsRecord(s)).filter(([k]) => !bad.has(k)));
+  const { request, errors } = collectReduceSettings(record, KEYED_SETTINGS_SOURCE);
+  const typedBadly = new Set(problems.map((p) => p.field));
+  for (const e of errors) {
+    // the reader names a part of a compound setting "heating density"; its argument is the key
+    const field = FIELD_OF_SETTING_KEY[e.argument] ?? FIELD_OF_SETTING_KEY[e.argument.split(" ")[0] as string] ?? "run";
+    if (typedBadly.has(field)) continue; // "not a number" already says it; the reader saw the field as empty
+    problems.push({ field, message: field === "run" ? sentence(e.message) : detailOf(e) });
   }
   if (s.heating) {
-    const need = (field: "heatingDensity" | "heatingHeatCapacity" | "heatingConductivity", what: string) => {
-      const v = s[field];
-      if (!(v !== null && Number.isFinite(v) && v > 0)) errors.push({ field, message: `The heating check needs the ${what} as a number greater than zero.` });
-    };
-    need("heatingDensity", "melt density in g/cm³ (for example 0.75)");
-    need("heatingHeatCapacity", "specific heat in kJ/(kg·K) (for example 2.1)");
-    need("heatingConductivity", "thermal conductivity in W/(m·K) (for example 0.18)");
-    const b = s.heatingTemperatureCoefficient;
-    if (b !== null && !(Number.isFinite(b) && b > 0)) errors.push({ field: "heatingTemperatureCoefficient", message: "Give b in 1/K as a number greater than zero, or leave it empty to fit it." });
+    for (const k of ["heatingDensity", "heatingHeatCapacity", "heatingConductivity"] as const) {
+      if (s[k] === null && !problems.some((p) => p.field === k)) problems.push({ field: k, message: `The heating check needs the ${words(SETTING_KEY_OF_FIELD[k]).label.toLowerCase()}.` });
+    }
   }
-  if (!["none", "arrhenius", "wlf"].includes(s.temperatureShift)) {
-    errors.push({ field: "temperatureShift", message: `Unknown temperature shift "${String(s.temperatureShift)}".` });
+  if (s.chartModel !== "best" && !s.models.includes(s.chartModel)) {
+    problems.push({ field: "chartModel", message: `${modelName(s.chartModel)} is not among the models to fit: tick it there, or chart the recommended model.` });
   }
-  if (s.referenceTemperatureC !== null && !(Number.isFinite(s.referenceTemperatureC) && s.referenceTemperatureC > -273.15)) {
-    errors.push({ field: "referenceTemperatureC", message: "Give the reference temperature in °C (above −273.15), or leave it empty." });
-  }
-  return errors;
+  return { request, problems };
+}
+
+/** Every problem of the settings, each for its field (empty when all is well). */
+export function validateSettings(s: PaneSettings): FieldError[] {
+  return readPaneSettings(s).problems;
 }
 
 /** True when the slope method takes a polynomial degree. */
 export function usesDegree(method: RabinowitschMethod): boolean {
   return method === "local" || method === "global";
-}
-
-/**
- * The core's reduce options for these settings (display units converted to SI here, once).
- * Call after {@link validateSettings}: it assumes valid values.
- */
-export function reduceOptionsOf(s: PaneSettings): Partial<ReduceOptions> {
-  const o: Partial<ReduceOptions> = {
-    endCorrection: s.endCorrection,
-    rabinowitsch: { method: s.rabinowitschMethod, degree: s.rabinowitschDegree, window: s.rabinowitschWindow },
-  };
-  if (s.transducerRangeBar !== null && s.transducerAccuracyPercent !== null) {
-    o.transducer = { fullScale: toSI(s.transducerRangeBar, "bar", "pressure"), accuracy: s.transducerAccuracyPercent / 100 };
-  }
-  if (s.representativeRate) o.representativeRate = true;
-  if (s.slip) o.slip = true;
-  if (s.extensional) o.extensional = true;
-  if (s.pressureDependence) o.pressureDependence = true;
-  if (s.heating) {
-    o.heating = {
-      density: toSI(s.heatingDensity as number, "g/cm3", "density"),
-      heatCapacity: toSI(s.heatingHeatCapacity as number, "kJ/(kg.K)", "heatCapacity"),
-      conductivity: toSI(s.heatingConductivity as number, "W/(m.K)", "thermalConductivity"),
-    };
-    if (s.heatingTemperatureCoefficient !== null) o.heating.temperatureCoefficient = s.heatingTemperatureCoefficient;
-  }
-  return o;
 }
 
 /**
@@ -241,7 +252,7 @@ export function describeSettings(s: PaneSettings): [string, string][] {
     ["Rabinowitsch slope method", s.rabinowitschMethod],
     ["Rabinowitsch polynomial degree", usesDegree(s.rabinowitschMethod) ? String(s.rabinowitschDegree) : "not used by this method"],
     ["Rabinowitsch local window (points)", s.rabinowitschMethod === "local" ? String(s.rabinowitschWindow) : "not used by this method"],
-    ["Models fitted", s.models.length > 0 ? s.models.join(", ") : "none"],
+    ["Models fitted", s.models.length > 0 ? s.models.map(modelName).join(", ") : "none"],
     ["Transducer full scale", s.transducerRangeBar === null ? "not given" : `${s.transducerRangeBar} bar`],
     ["Transducer accuracy", s.transducerRangeBar === null ? "not used (no full scale given)" : `${s.transducerAccuracyPercent} % of full scale (± columns with k = ${DEFAULT_UNCERTAINTY_OPTIONS.coverageFactor})`],
     ["Schümmer cross-check", onOff(s.representativeRate)],
@@ -251,12 +262,12 @@ export function describeSettings(s: PaneSettings): [string, string][] {
     [
       "Viscous heating",
       s.heating
-        ? `on: density ${s.heatingDensity} g/cm3, specific heat ${s.heatingHeatCapacity} kJ/(kg.K), conductivity ${s.heatingConductivity} W/(m.K), b ${s.heatingTemperatureCoefficient === null ? "fitted across temperatures" : `${s.heatingTemperatureCoefficient} 1/K`}`
+        ? `on: density ${s.heatingDensity} g/cm³, specific heat ${s.heatingHeatCapacity} kJ/(kg·K), conductivity ${s.heatingConductivity} W/(m·K), b ${s.heatingTemperatureCoefficient === null ? "fitted across temperatures" : `${s.heatingTemperatureCoefficient} 1/K`}`
         : "off",
     ],
     ["Temperature shift", s.temperatureShift === "none" ? "none" : s.temperatureShift === "arrhenius" ? "Arrhenius" : "WLF"],
     ["Reference temperature", s.temperatureShift === "none" ? "not used" : s.referenceTemperatureC === null ? "middle temperature of the data" : `${s.referenceTemperatureC} °C`],
-    ["Viscosity chart", s.chartAllModels ? "every fitted model" : "best model (lowest AIC) per group"],
+    ["Viscosity chart", s.chartModel === "best" ? "recommended model per group (lowest AIC among well-determined fits)" : `${modelName(s.chartModel)} for every group`],
   ];
 }
 

@@ -21,6 +21,11 @@ export interface CellBlock {
   rows: CellValue[][];
   /** Excel number format per data column (null: General) */
   numberFormats?: (string | null)[];
+  /**
+   * The columns a narrow pane shows (0-based): what an engineer reads first. The preview shows
+   * the others on request; the sheet always has every column.
+   */
+  keyColumns?: number[];
 }
 
 /** One chart series: x and y columns of a block's data rows [first, first + count). */
@@ -34,6 +39,8 @@ export interface SeriesSpec {
   style: "markers" | "line" | "dashed";
   /** #rrggbb */
   colour: string;
+  /** marker shape of a "markers" series (circle when absent) */
+  marker?: "circle" | "square" | "diamond" | "triangle";
 }
 
 /** A scatter chart (every chart of the pane is an XY chart). */

@@ -1,96 +1,17 @@
 /**
- * Small inline SVG charts for the preview: the same chart specs and series data as the Excel
- * charts, drawn as markup (no script, no inline style: the pane's CSP forbids both). Pure.
+ * The preview's inline SVG charts: the same chart specs and series data as the Excel charts,
+ * drawn by the shared builder src/io/svgChart.ts (also used by the command line's HTML report).
+ * Pure.
  */
+import { plotSvg } from "../io/svgChart";
 import { ChartSpec, SheetPlan, seriesPoints } from "./sheetPlan";
 
-const W = 320;
-const H = 210;
-const PAD = { left: 46, right: 16, top: 10, bottom: 34 };
-
-/** Escapes text for HTML/SVG markup. */
-export function escapeXml(text: string): string {
-  return text.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c] as string);
-}
-
-/** A number for an axis label: 4 significant digits, exponent outside 1e-3…1e5. */
-export function tickLabel(v: number): string {
-  if (v === 0) return "0";
-  const a = Math.abs(v);
-  if (a >= 1e5 || a < 1e-3) return v.toExponential(0).replace("e+", "e");
-  return Number(v.toPrecision(4)).toString();
-}
-
-interface Scale {
-  map(v: number): number;
-  ticks: number[];
-}
-
-function niceStep(span: number): number {
-  const raw = span / 5;
-  const mag = Math.pow(10, Math.floor(Math.log10(raw)));
-  const f = raw / mag;
-  return (f < 1.5 ? 1 : f < 3.5 ? 2 : f < 7.5 ? 5 : 10) * mag;
-}
-
-function scale(values: number[], log: boolean, forcedMin: number | undefined, lo: number, hi: number): Scale {
-  const finite = values.filter((v) => Number.isFinite(v) && (!log || v > 0));
-  let min = Math.min(...finite, ...(forcedMin !== undefined ? [forcedMin] : []));
-  let max = Math.max(...finite);
-  if (!Number.isFinite(min) || !Number.isFinite(max)) {
-    min = log ? 1 : 0;
-    max = log ? 10 : 1;
-  }
-  if (log) {
-    const a = Math.floor(Math.log10(min));
-    const b = Math.max(a + 1, Math.ceil(Math.log10(max)));
-    const ticks = Array.from({ length: b - a + 1 }, (_, i) => Math.pow(10, a + i));
-    return { map: (v) => lo + ((Math.log10(v) - a) / (b - a)) * (hi - lo), ticks };
-  }
-  if (max === min) max = min + 1;
-  const step = niceStep(max - min);
-  const a = Math.floor(min / step) * step;
-  const b = Math.ceil(max / step) * step;
-  const ticks: number[] = [];
-  for (let t = a; t <= b + step / 2; t += step) ticks.push(Number(t.toPrecision(12)));
-  return { map: (v) => lo + ((v - a) / (b - a)) * (hi - lo), ticks };
-}
+export { escapeXml, markerSvg, scale, tickLabel, type Scale } from "../io/svgChart";
 
 /**
  * The SVG markup of one chart of a plan. Each series is a `<g class="series" data-name=…>` with
  * one circle per point (markers) or a polyline (lines), so tests can count what is drawn.
  */
 export function chartSvg(plan: SheetPlan, spec: ChartSpec): string {
-  const data = spec.series.map((s) => ({ s, pts: seriesPoints(plan, s).filter((p) => (!spec.xLog || p.x > 0) && (!spec.yLog || p.y > 0)) }));
-  const xs = data.flatMap((d) => d.pts.map((p) => p.x));
-  const ys = data.flatMap((d) => d.pts.map((p) => p.y));
-  const sx = scale(xs, spec.xLog, spec.xMin, PAD.left, W - PAD.right);
-  const sy = scale(ys, spec.yLog, spec.yMin, H - PAD.bottom, PAD.top);
-  const f = (v: number) => v.toFixed(1);
-  const out: string[] = [];
-  out.push(`<svg class="chart" viewBox="0 0 ${W} ${H}" role="img" aria-labelledby="${spec.id}-title" data-chart="${escapeXml(spec.id)}" xmlns="http://www.w3.org/2000/svg">`);
-  out.push(`<title id="${spec.id}-title">${escapeXml(spec.title)}: ${escapeXml(spec.yTitle)} against ${escapeXml(spec.xTitle)}</title>`);
-  out.push(`<rect class="plot" x="${PAD.left}" y="${PAD.top}" width="${W - PAD.left - PAD.right}" height="${H - PAD.top - PAD.bottom}"/>`);
-  for (const t of sx.ticks) {
-    const x = f(sx.map(t));
-    out.push(`<line class="grid" x1="${x}" x2="${x}" y1="${PAD.top}" y2="${H - PAD.bottom}"/><text class="tick" x="${x}" y="${H - PAD.bottom + 11}" text-anchor="middle">${tickLabel(t)}</text>`);
-  }
-  for (const t of sy.ticks) {
-    const y = f(sy.map(t));
-    out.push(`<line class="grid" x1="${PAD.left}" x2="${W - PAD.right}" y1="${y}" y2="${y}"/><text class="tick" x="${PAD.left - 3}" y="${y}" dy="3" text-anchor="end">${tickLabel(t)}</text>`);
-  }
-  out.push(`<text class="axis-title" x="${(PAD.left + W - PAD.right) / 2}" y="${H - 4}" text-anchor="middle">${escapeXml(spec.xTitle)}</text>`);
-  out.push(`<text class="axis-title" transform="translate(10 ${(PAD.top + H - PAD.bottom) / 2}) rotate(-90)" text-anchor="middle">${escapeXml(spec.yTitle)}</text>`);
-  for (const { s, pts } of data) {
-    out.push(`<g class="series ${s.style}" data-name="${escapeXml(s.name)}" stroke="${s.colour}" fill="${s.colour}">`);
-    if (s.style === "markers") {
-      for (const p of pts) out.push(`<circle cx="${f(sx.map(p.x))}" cy="${f(sy.map(p.y))}" r="2.6"/>`);
-    } else if (pts.length > 0) {
-      const dash = s.style === "dashed" ? ` stroke-dasharray="5 3"` : "";
-      out.push(`<polyline fill="none" stroke-width="1.4"${dash} points="${pts.map((p) => `${f(sx.map(p.x))},${f(sy.map(p.y))}`).join(" ")}"/>`);
-    }
-    out.push("</g>");
-  }
-  out.push("</svg>");
-  return out.join("");
+  return plotSvg({ ...spec, series: spec.series.map((s) => ({ name: s.name, style: s.style, colour: s.colour, ...(s.marker ? { marker: s.marker } : {}), points: seriesPoints(plan, s) })) });
 }

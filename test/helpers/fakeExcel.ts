@@ -210,6 +210,15 @@ export class FakeExcel {
     return fn(this.context() as Excel.RequestContext);
   };
 
+  /**
+   * Number formats set on a sheet's cells: address (A1) → format (a later range wins, as in
+   * Excel). The writer sets a range's formats before its values, so a cell's format here is the
+   * one in force when its value arrived.
+   */
+  formats(sheetName: string): Map<string, unknown> {
+    return this.written(sheetName, "numberFormat");
+  }
+
   /** Cells written to a sheet: address (A1) → value (or formula, or number format), from every range where it was set. */
   written(sheetName: string, property: "values" | "formulas" | "numberFormat" = "values"): Map<string, unknown> {
     const out = new Map<string, unknown>();

@@ -14,6 +14,11 @@
  * with #N/A and a larger one cut, as Excel does with array formulas. Tests compare every cell, so
  * a size mismatch still fails.
  *
+ * Stored names: the demo workbooks hold RHEO formulas as Excel stores add-in functions,
+ * `_xldudf_RHEO_NAME(…)` (scripts/workbooks/functionTable.ts); {@link excelFormulaText} maps them
+ * back to `RHEO.NAME(…)` before HyperFormula sees them, as Excel does when the add-in loads
+ * (HyperFormula's parser does not accept a function name starting with "_").
+ *
  * Excel's literals TRUE and FALSE are functions in HyperFormula: pass
  * {@link BOOLEAN_LITERALS} as named expressions when building the engine.
  */
@@ -23,7 +28,7 @@ import { ArraySize, CellError, EmptyValue, ErrorType, FunctionArgumentType, Func
 import type { ImplementedFunctions } from "hyperformula";
 import { isCellError } from "../../src/functions/adapter";
 import { FUNCTION_MODULES as MODULES } from "../../src/functions/entry";
-import { readFunctionTable, type SheetFunctionEntry } from "../../scripts/workbooks/functionTable";
+import { readFunctionTable, storedFunctionName, type SheetFunctionEntry } from "../../scripts/workbooks/functionTable";
 
 type Implementation = (...args: unknown[]) => unknown[][];
 
@@ -39,6 +44,19 @@ const IMPLEMENTATIONS = new Map<string, Implementation>(
     readFunctionTable(readFileSync(path.join(__dirname, "../../src/functions", file), "utf8")).map((e): [string, Implementation] => [e.excelName, module[e.jsName] as Implementation]),
   ),
 );
+
+/** Excel name of each stored name: "_xldudf_RHEO_FLOWRATE" → "RHEO.FLOWRATE" (case-insensitive, as Excel reads names). */
+const EXCEL_NAME_OF_STORED = new Map(RHEO_FUNCTIONS.map((e) => [storedFunctionName(e.excelName).toUpperCase(), e.excelName]));
+
+/**
+ * A formula as the file stores it, with every stored add-in name mapped back to the name the
+ * add-in registers (what Excel does once the add-in's manifest is loaded): `_xldudf_RHEO_BAGLEY(`
+ * → `RHEO.BAGLEY(`. Text inside string literals is left alone; an unknown `_xldudf_` name is left
+ * as it is (the spreadsheet engine then reports it).
+ */
+export function excelFormulaText(stored: string): string {
+  return stored.replace(/"(?:[^"]|"")*"|\b_xldudf_[A-Za-z0-9_]+(?=\()/g, (m) => (m.startsWith('"') ? m : (EXCEL_NAME_OF_STORED.get(m.toUpperCase()) ?? m)));
+}
 
 /** The implementation registered for `excelName` (undefined when none). */
 export function implementationOf(excelName: string): Implementation | undefined {

@@ -32,6 +32,8 @@ export interface FailedFit {
   /** Why it is not ranked: the error message, or the stop reason of a fit that did not converge. */
   reason: string;
   result?: FitResult;
+  /** the error that stopped it, when it was refused (kind, argument and code kept for callers) */
+  error?: RheoError;
 }
 
 export interface CompareResult {
@@ -65,7 +67,7 @@ export function compareModels(models: readonly string[], data: FitData, options:
       if (error.argument === "shearRate" || error.argument === "viscosity" || error.argument === "weights") {
         if (error.kind !== "missing") throw error; // bad data fails every model: report it once
       }
-      failed.push({ model: id, reason: error.message });
+      failed.push({ model: id, reason: error.message, error });
     }
   }
   const best = Math.min(...fits.map((f) => f.result.aic));

@@ -3,6 +3,7 @@
  */
 import { RheoError, warning, type Warning } from "../errors";
 import { getModel, type ModelDefinition, type ModelId, type ParameterSpec } from "../models";
+import { PLATEAU_PARAMETERS } from "../models/families";
 import { levenbergMarquardt, type StopReason } from "./levenbergMarquardt";
 import type { FitOptions, ResidualSpace } from "./options";
 import { originalJacobian, residualProblem } from "./residuals";
@@ -10,14 +11,32 @@ import { resolveFitOptions, setupFit, type FitSetup } from "./setup";
 import { boundedLinearTransform, transformFor, type Transform } from "./transforms";
 import { fitStatistics } from "./statistics";
 import { validateFitData, type FitData } from "./validate";
+import { tQuantile } from "./studentT";
+import { dataWindows, plateauTest, type Undetermined } from "./determination";
+import { reportParameters, type ParameterEntry } from "./parameterReport";
 
 /** Everything a fit found out. Parameters in SI; uncertainties for the free parameters only. */
 export interface FitResult {
   model: ModelId;
   parameters: Record<string, number>;
   standardErrors: Record<string, number>;
-  /** Two-sided intervals at options.confidenceLevel (95 % by default), Student t with n − p dof. */
+  /**
+   * Two-sided intervals at options.confidenceLevel (95 % by default), Student t with n − p dof,
+   * taken in the parameter's own coordinates (log for a positive quantity: intervals.ts).
+   */
   confidenceIntervals: Record<string, [number, number]>;
+  /**
+   * Every parameter: true when the data determine it (determination.ts: finite covariance,
+   * relative standard error within the limit, not on a bound, inside the measured window);
+   * false for held (fixed) parameters and undetermined ones.
+   */
+  determined: Record<string, boolean>;
+  /** The free parameters the data do not determine, with the reason and the bound they support. */
+  undetermined: Record<string, Undetermined>;
+  /** Converged, finite covariance and every free parameter determined. */
+  wellDetermined: boolean;
+  /** Lowest and highest shear rate fitted (1/s): the curve is an extrapolation outside it. */
+  shearRateRange: [number, number];
   r2: number;
   rmse: number;
   aic: number;
@@ -75,29 +94,44 @@ export function fitModel(model: string, data: FitData, options: Partial<FitOptio
   }
   const parameters: Record<string, number> = {};
   def.parameters.forEach((spec, j) => (parameters[spec.name] = p[j] as number));
-  const standardErrors: Record<string, number> = {};
-  const confidenceIntervals: Record<string, [number, number]> = {};
-  freeIndex.forEach((j, f) => {
-    const spec = def.parameters[j] as ParameterSpec;
-    const value = p[j] as number;
-    const se = stats.standardErrors[f] as number;
-    const half = stats.halfWidths[f] as number;
-    standardErrors[spec.name] = se;
-    const atBound = solved.atBound.includes(j) || (jac.influence[f] as number) < NEGLIGIBLE_INFLUENCE;
-    confidenceIntervals[spec.name] = [atBound ? Math.max(spec.min, value - half) : value - half, value + half];
-    if (atBound) {
-      warnings.push(warning("PARAMETER_AT_BOUND", `${spec.name} is at its bound ${spec.min} (${value.toPrecision(3)}): the data do not call for it; its interval is one-sided`));
-    } else if (se > Math.abs(value)) {
-      warnings.push(warning("POORLY_DETERMINED", `${spec.name} = ${value.toPrecision(4)} has a standard error of ${se.toPrecision(3)}, larger than the value itself`));
-    }
+  const windows = dataWindows(setup.rates, setup.viscosity, def.needsTemperature ? setup.temperature : undefined);
+  const plateau = solved.converged ? plateauTest(def.id, parameters, windows) : {};
+  const entries: ParameterEntry[] = def.parameters.map((spec, j) => {
+    const f = freeIndex.indexOf(j);
+    return {
+      spec,
+      value: p[j] as number,
+      free: f >= 0,
+      standardError: f >= 0 ? (stats.standardErrors[f] as number) : NaN,
+      atBound: f >= 0 && (solved.atBound.includes(j) || (jac.influence[f] as number) < NEGLIGIBLE_INFLUENCE),
+      plateau: plateau[spec.name],
+    };
   });
-  if (stats.singular) warnings.push(warning("SINGULAR_COVARIANCE", `the parameters of ${def.id} are not independently determined by these data; standard errors are NaN`));
+  // t of the intervals: fitStatistics took it already (half-width = t·SE); computed anew only when no SE is finite
+  const withSe = stats.standardErrors.findIndex((se) => se > 0 && Number.isFinite(se));
+  const t = withSe >= 0 ? (stats.halfWidths[withSe] as number) / (stats.standardErrors[withSe] as number) : tQuantile((1 + opts.confidenceLevel) / 2, setup.rates.length - freeIndex.length);
+  const report = reportParameters(entries, t, opts.maxRelativeStandardError, PLATEAU_PARAMETERS[def.id]?.plateau);
+  warnings.push(...report.warnings);
+  if (stats.singular) warnings.push(warning("SINGULAR_COVARIANCE", `the parameters of ${def.id} are not independently determined by these data; no standard errors or intervals`));
+  if (stats.ssr === 0) warnings.push(warning("FIT_EXACT", `${def.id} passes through every point (zero residuals): AIC is −∞ and the parameters have no uncertainty estimate`));
+  if (!Number.isFinite(stats.r2)) warnings.push(warning("R2_UNDEFINED", `R² of ${def.id} is undefined: every viscosity is the same, so there is no spread to explain`));
+  const { standardErrors, confidenceIntervals, determined, undetermined } = report;
+  let rateMin = Infinity;
+  let rateMax = -Infinity;
+  for (const w of windows) {
+    rateMin = Math.min(rateMin, w.shearRateMin);
+    rateMax = Math.max(rateMax, w.shearRateMax);
+  }
 
   return {
     model: def.id,
     parameters,
     standardErrors,
     confidenceIntervals,
+    determined,
+    undetermined,
+    wellDetermined: solved.converged && !stats.singular && Object.keys(undetermined).length === 0,
+    shearRateRange: [rateMin, rateMax],
     r2: stats.r2,
     rmse: stats.rmse,
     aic: stats.aic,

@@ -6,3 +6,7 @@ export type { FitData } from "./validate";
 export type { StopReason } from "./levenbergMarquardt";
 export { levenbergMarquardt, type LeastSquaresProblem, type SolverResult, type SolverSettings } from "./levenbergMarquardt";
 export { tQuantile, normalQuantile } from "./studentT";
+export { decideVerdict, undeterminedText, DEFAULT_VERDICT_OPTIONS, type Verdict, type VerdictOptions, type VerdictStatus, type CandidateVerdict } from "./verdict";
+export { plateauTest, dataWindows, relativeStandardError, DEFAULT_DETERMINATION_LIMITS, type DeterminationLimits, type DataWindow, type SupportedBound, type Undetermined } from "./determination";
+export { domainInterval } from "./intervals";
+export { extrapolationCheck } from "./extrapolation";

@@ -1,4 +1,5 @@
 /** Options of {@link fitModel}, with their defaults defined once. */
+import { DEFAULT_DETERMINATION_LIMITS } from "./determination";
 
 /** How residuals are measured. */
 export type ResidualSpace = "log" | "linear";
@@ -22,6 +23,11 @@ export interface FitOptions {
   gradientTolerance: number;
   /** Two-sided confidence level of the reported intervals. */
   confidenceLevel: number;
+  /**
+   * Largest relative standard error SE/|p| of a parameter the data determine (determination.ts;
+   * default {@link DEFAULT_DETERMINATION_LIMITS}: 25 %).
+   */
+  maxRelativeStandardError: number;
   /** Throw RheoError(kind "convergence") instead of returning converged: false. */
   throwOnNonConvergence: boolean;
 }
@@ -37,5 +43,6 @@ export const DEFAULT_FIT_OPTIONS: Readonly<FitOptions> = Object.freeze({
   stepTolerance: 1e-10,
   gradientTolerance: 1e-10,
   confidenceLevel: 0.95,
+  maxRelativeStandardError: DEFAULT_DETERMINATION_LIMITS.maxRelativeStandardError,
   throwOnNonConvergence: false,
 } as FitOptions);

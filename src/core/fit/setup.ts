@@ -34,6 +34,9 @@ export function resolveFitOptions(model: ModelDefinition, options: Partial<FitOp
     const v = resolved[key];
     if (!(typeof v === "number" && v > 0 && Number.isFinite(v))) throw new RheoError("value", `options.${key}`, `must be a finite number greater than zero, got ${String(v)}`);
   }
+  if (!(typeof resolved.maxRelativeStandardError === "number" && resolved.maxRelativeStandardError > 0 && Number.isFinite(resolved.maxRelativeStandardError))) {
+    throw new RheoError("value", "options.maxRelativeStandardError", `must be a finite number greater than zero, got ${String(resolved.maxRelativeStandardError)}`);
+  }
   if (!(resolved.confidenceLevel > 0 && resolved.confidenceLevel < 1)) {
     throw new RheoError("domain", "options.confidenceLevel", `must be between 0 and 1, got ${resolved.confidenceLevel}`);
   }

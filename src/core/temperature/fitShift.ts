@@ -4,7 +4,8 @@
  *
  * Method: one joint least-squares fit in ln η of the shift-law constants and a smooth master
  * curve ln η_ref = P(ln γ̇_r), a polynomial of degree options.polynomialDegree in the reduced
- * rate γ̇_r = a_T·γ̇:  ln η_ij = ln a_T(T_i) + P(ln γ̇_ij + ln a_T(T_i)). The law's constants come
+ * rate γ̇_r = a_T·γ̇:  ln η_ij = ln a_T(T_i) + P(ln γ̇_ij + ln a_T(T_i)) (with options.verticalShift
+ * ln η_ij − ln b_T(T_i) on the left, b_T = ρ(T)T/(ρ_ref T_ref)). The law's constants come
  * with standard errors from the Jacobian at the optimum (as in fitModel). Starting values: a grid
  * over Ea (or C1) with the master-curve coefficients solved linearly at each grid point.
  * The master curve must describe the data: a polynomial misfit biases the shift (tests: data
@@ -15,7 +16,7 @@ import { levenbergMarquardt, type LeastSquaresProblem } from "../fit/levenbergMa
 import { choleskyInPlace, choleskySolveInPlace, normalEquations } from "../fit/linearAlgebra";
 import { fitStatistics } from "../fit/statistics";
 import { validateCurves, type TemperatureCurve } from "./curves";
-import { GAS_CONSTANT, WLF_UNIVERSAL_C2 } from "./shiftFactors";
+import { GAS_CONSTANT, WLF_UNIVERSAL_C1, WLF_UNIVERSAL_C2, verticalShiftFactor, wlfConstantsAtReference, type VerticalShift } from "./shiftFactors";
 
 /** Options of the shift fits. */
 export interface ShiftFitOptions {
@@ -24,8 +25,16 @@ export interface ShiftFitOptions {
   maxIterations: number;
   /** WLF only: hold C1 at this value. */
   C1?: number;
-  /** WLF only: hold C2 (K) at this value; held at 51.6 K automatically with only two temperatures. */
+  /** WLF only: hold C2 (K) at this value. */
   C2?: number;
+  /**
+   * WLF only: the glass transition temperature T_g (K). When the data cannot determine C2 (two
+   * temperatures, or a free fit that fails or leaves C2 undetermined) C2 is held at the universal
+   * 51.6 K converted to T_ref: C2 = 51.6 K + T_ref − T_g (wlfConstantsAtReference).
+   */
+  glassTransitionTemperature?: number;
+  /** the vertical shift b_T = ρ(T)T/(ρ_ref T_ref) of the viscosities (shiftFactors.ts); absent: none */
+  verticalShift?: VerticalShift;
 }
 
 /** Defaults of the shift fits; docs and tests import this constant. */
@@ -34,6 +43,8 @@ export const DEFAULT_SHIFT_FIT_OPTIONS: Readonly<ShiftFitOptions> = Object.freez
 export interface ShiftFactorEntry {
   temperature: number;
   aT: number;
+  /** vertical factor b_T (1 without a vertical shift) */
+  bT: number;
 }
 
 interface ShiftFitCommon {
@@ -45,6 +56,8 @@ interface ShiftFitCommon {
   iterations: number;
   converged: boolean;
   warnings: Warning[];
+  /** the vertical shift the fit used (options.verticalShift), so the result is a complete ShiftLaw */
+  verticalShift?: VerticalShift;
 }
 
 export interface ArrheniusShiftFit extends ShiftFitCommon {
@@ -62,6 +75,10 @@ export interface WlfShiftFit extends ShiftFitCommon {
   /** NaN for a constant that was held. */
   C1StandardError: number;
   C2StandardError: number;
+  /** how C2 was found: fitted, held at options.C2, or the universal value converted to T_ref */
+  C2Source: "fitted" | "held" | "universal";
+  /** the universal constants converted to T_ref (with options.glassTransitionTemperature), else null */
+  universalAtReference: { C1: number; C2: number } | null;
 }
 
 /** A shift law's ln a_T and its derivatives with respect to the law's free constants θ. */
@@ -102,17 +119,62 @@ export function fitArrheniusShift(curves: readonly TemperatureCurve[], reference
 }
 
 /**
- * WLF fit of shift factors: log10 a_T = −C1(T − T_ref)/(C2 + T − T_ref). C1 and C2 are fitted
- * unless held by options (C2 is held at 51.6 K, Williams, Landel & Ferry 1955, with only two
- * temperatures).
- * @throws RheoError as {@link fitArrheniusShift}.
+ * WLF fit of shift factors: log10 a_T = −C1(T − T_ref)/(C2 + T − T_ref).
+ *
+ * C2 is fitted when the data allow it: three or more temperatures, a converged fit, C2 > 0 and a
+ * standard error below C2. Otherwise C2 is held at the universal 51.6 K (Williams, Landel & Ferry
+ * 1955), which belongs to T_ref = T_g, converted to the chosen T_ref: C2 = 51.6 K + T_ref − T_g
+ * (options.glassTransitionTemperature; wlfConstantsAtReference), and only C1 is fitted; a
+ * WLF_C2_UNIVERSAL warning says so. Without T_g two temperatures cannot give C2 (an error), and a
+ * free fit that leaves C2 undetermined is returned with WLF_C2_POORLY_DETERMINED.
+ * @throws RheoError as {@link fitArrheniusShift}; ("missing") naming glassTransitionTemperature
+ *   when two temperatures and no T_g leave C2 undetermined.
  */
 export function fitWlfShift(curves: readonly TemperatureCurve[], referenceTemperature: number, options: Partial<ShiftFitOptions> = {}): WlfShiftFit {
   validateCurves(curves, 2);
+  requirePositive(referenceTemperature, "referenceTemperature");
   const levels = new Set(curves.map((c) => c.temperature)).size;
-  const heldC2 = options.C2 ?? (levels < 3 && options.C1 === undefined ? WLF_UNIVERSAL_C2 : undefined);
-  const heldC1 = options.C1;
-  if (heldC1 !== undefined && heldC2 !== undefined) throw new RheoError("value", "options", "holds both C1 and C2; nothing is left to fit");
+  const Tg = options.glassTransitionTemperature;
+  const universal = Tg === undefined ? null : wlfConstantsAtReference(referenceTemperature, requirePositive(Tg, "glassTransitionTemperature"));
+  if (options.C1 !== undefined && options.C2 !== undefined) throw new RheoError("value", "options", "holds both C1 and C2; nothing is left to fit");
+  if (options.C2 !== undefined) return { ...wlfWith(curves, referenceTemperature, options, undefined, options.C2), C2Source: "held", universalAtReference: universal };
+  let reason: string;
+  let free: Omit<WlfShiftFit, "C2Source" | "universalAtReference"> | null = null;
+  if (levels < 3) reason = `${levels} temperatures cannot determine C2`;
+  else {
+    try {
+      free = wlfWith(curves, referenceTemperature, options, options.C1, undefined);
+      const se = free.C2StandardError;
+      reason = !(free.C2 > 0) ? `the fitted C2 (${fmt(free.C2)} K) is not positive` : !(Number.isFinite(se) && se < free.C2) ? `the fitted C2 (${fmt(free.C2)} K) has a standard error of ${fmt(se)} K` : "";
+    } catch (e) {
+      if (!(e instanceof RheoError) || e.kind !== "convergence") throw e;
+      reason = "the free fit of C1 and C2 did not converge";
+    }
+    if (free && reason === "") return { ...free, C2Source: "fitted", universalAtReference: universal };
+  }
+  if (universal !== null) {
+    const held = wlfWith(curves, referenceTemperature, options, options.C1, universal.C2);
+    held.warnings.push(
+      warning(
+        "WLF_C2_UNIVERSAL",
+        `C2 was not fitted (${reason}): it is held at the universal 51.6 K converted to T_ref with T_g = ${fmt(Tg as number)} K, C2 = 51.6 + T_ref − T_g = ${fmt(universal.C2)} K (Williams, Landel & Ferry 1955; the universal C1 would be ${fmt(universal.C1)}), and only C1 is fitted.`,
+      ),
+    );
+    return { ...held, C2Source: "universal", universalAtReference: universal };
+  }
+  if (free === null) {
+    throw new RheoError(
+      "missing",
+      "glassTransitionTemperature",
+      `WLF with ${reason === "" ? "these data" : reason}: give the glass transition temperature T_g so the universal constants (C1 = ${WLF_UNIVERSAL_C1}, C2 = ${WLF_UNIVERSAL_C2} K at T_g) can be converted to T_ref, or hold C2`,
+    );
+  }
+  free.warnings.push(warning("WLF_C2_POORLY_DETERMINED", `The data do not determine C2 well (${reason}); give the glass transition temperature T_g to hold C2 at the universal value converted to T_ref, or hold C2.`));
+  return { ...free, C2Source: "fitted", universalAtReference: null };
+}
+
+/** One WLF fit with C1 and/or C2 held (undefined: fitted). */
+function wlfWith(curves: readonly TemperatureCurve[], referenceTemperature: number, options: Partial<ShiftFitOptions>, heldC1: number | undefined, heldC2: number | undefined): Omit<WlfShiftFit, "C2Source" | "universalAtReference"> {
   const names = [...(heldC1 === undefined ? ["C1"] : []), ...(heldC2 === undefined ? ["C2"] : [])];
   const shape: LawShape = {
     names,
@@ -140,6 +202,10 @@ export function fitWlfShift(curves: readonly TemperatureCurve[], referenceTemper
   return { law: "wlf", C1: value("C1", heldC1), C2: value("C2", heldC2), C1StandardError: se("C1"), C2StandardError: se("C2"), ...fit.common };
 }
 
+function fmt(x: number): string {
+  return Number(x.toPrecision(4)).toString();
+}
+
 function fitShiftLaw(
   curves: readonly TemperatureCurve[],
   referenceTemperature: number,
@@ -153,7 +219,9 @@ function fitShiftLaw(
   if (!Number.isInteger(opts.polynomialDegree) || opts.polynomialDegree < 1 || opts.polynomialDegree > 6) {
     throw new RheoError("value", "options.polynomialDegree", `must be an integer from 1 to 6, got ${opts.polynomialDegree}`);
   }
-  const points = curves.flatMap((c) => c.shearRate.map((g, i) => ({ T: c.temperature, x: Math.log(g), y: Math.log(c.viscosity[i] as number) })));
+  const lnB = (T: number) => (opts.verticalShift ? Math.log(verticalShiftFactor(T, referenceTemperature, opts.verticalShift.thermalExpansion)) : 0);
+  // with the vertical shift, ln η − ln b_T = ln a_T + P(ln γ̇ + ln a_T)
+  const points = curves.flatMap((c) => c.shearRate.map((g, i) => ({ T: c.temperature, x: Math.log(g), y: Math.log(c.viscosity[i] as number) - lnB(c.temperature) })));
   const nTheta = shape.names.length;
   const nCoef = opts.polynomialDegree + 1;
   const k = nTheta + nCoef;
@@ -212,12 +280,13 @@ function fitShiftLaw(
     se: stats.standardErrors.slice(0, nTheta),
     common: {
       referenceTemperature,
-      factors: temps.map((T) => ({ temperature: T, aT: Math.exp(shape.logShift(theta, T - referenceTemperature, T, null)) })),
+      factors: temps.map((T) => ({ temperature: T, aT: Math.exp(shape.logShift(theta, T - referenceTemperature, T, null)), bT: Math.exp(lnB(T)) })),
       masterPolynomial: { coefficients: Array.from(solved.u.slice(nTheta)), center, halfWidth },
       rmse: stats.rmse,
       iterations: solved.iterations,
       converged: solved.converged,
       warnings,
+      ...(opts.verticalShift ? { verticalShift: opts.verticalShift } : {}),
     },
   };
 }

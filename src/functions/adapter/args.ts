@@ -18,6 +18,8 @@ export const DEFAULT_SHEET_UNITS = Object.freeze({
   length: "mm",
   /** piston speed */
   speed: "mm/min",
+  /** time of a recording's samples */
+  time: "s",
   /** measured pressures and entrance pressures */
   pressure: "bar",
   /** wall shear stresses */
