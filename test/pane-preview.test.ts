@@ -28,7 +28,7 @@ import { compareLot } from "../src/core/lotComparison";
 import { readPlanOptions } from "../src/io/planOptions";
 import { readFlowCurveTable } from "../src/io/flowCurveTable";
 import { expectClose } from "./helpers/expectClose";
-import { recommendedFit } from "../src/taskpane/recommendedFit";
+import { fitCurve } from "../src/core/flowCurveFits";
 import { modelName } from "../src/io/displayNames";
 
 const CHROMIUM = "/usr/bin/chromium";
@@ -200,7 +200,8 @@ maybe("task pane preview mode (chromium)", () => {
       const compare = compareModels(DEFAULT_PANE_SETTINGS.models, { shearRate: pts.map((f) => f.shearRateWall as number), viscosity: pts.map((f) => f.viscosity as number) });
       const firstModel = await page.locator(`table[data-block="ranking-${i + 1}"] tbody tr:first-child td:first-child`).textContent();
       expect(firstModel).toBe(compare.ranked[0]?.model);
-      const recommended = recommendedFit(compare)?.fit.model as string;
+      // the card's recommendation is the core's one verdict on the same points and models
+      const recommended = fitCurve({ shearRate: pts.map((f) => f.shearRateWall as number), viscosity: pts.map((f) => f.viscosity as number) }, { models: DEFAULT_PANE_SETTINGS.models }).verdict.recommended as string;
       expect(await page.locator(`.group-card[data-group="${i + 1}"]`).textContent()).toContain(`Recommended model${modelName(recommended)}:`);
     }
     // charts: one flow-curve series per group with one marker per point; one Bagley chart per group

@@ -188,7 +188,7 @@ describe("buildWorkbookPlan(run, meta)", () => {
     const groupsFitted = run.fits.filter((f) => f.curves.length > 0).length;
     expect(chart?.series).toHaveLength(run.result.groups.length + groupsFitted);
     run.fits.forEach((f, i) => {
-      const rec = recommendedFit(f.compare)?.fit.model as string;
+      const rec = recommendedFit(f)?.fit.model as string;
       const label = groupLabel(run.result.groups[i] as never);
       const points = chart?.series.find((x) => x.name === label && x.style === "markers");
       expect(chart?.series.filter((x) => x.name === `${label}, ${modelName(rec)} (recommended)` && x.colour === points?.colour)).toHaveLength(1);

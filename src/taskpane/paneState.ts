@@ -150,7 +150,7 @@ export function bestFit(): { model: string; parameters: Record<string, number>; 
   const run = state.lastRun;
   if (!run) return null;
   for (const [i, f] of run.fits.entries()) {
-    const best = recommendedFit(f.compare)?.fit;
+    const best = recommendedFit(f)?.fit;
     const g = run.result.groups[i];
     if (best && g) return { model: best.model, parameters: best.result.parameters, label: groupLabel(g) };
   }

@@ -86,7 +86,7 @@ export function buildResultsPlan(run: RunOutput, meta: PlanMeta): SheetPlan {
     if (g.bagley.length > 0) left.add(bagleyBlock(g, n));
     const flow = left.add(flowBlock(g, n));
     for (const b of methodBlocks(g, n)) left.add(b);
-    const fits = run.fits[i] ?? { compare: null, curves: [] };
+    const fits = run.fits[i] ?? { compare: null, verdict: null, curves: [] };
     for (const b of fitBlocks(fits, n)) left.add(b);
     left.row += 1;
 
@@ -99,7 +99,7 @@ export function buildResultsPlan(run: RunOutput, meta: PlanMeta): SheetPlan {
       const block = right.add(models.block);
       // one curve per group, in the group's colour: the recommended model, or the one chosen
       const chosen = run.settings.chartModel;
-      const recommended = recommendedFit(fits.compare)?.fit.model;
+      const recommended = recommendedFit(fits)?.fit.model;
       const r = models.runs.find((x) => x.model === (chosen === "best" ? recommended : chosen));
       if (r) {
         const name = `${label}, ${modelName(r.model)}${r.model === recommended ? " (recommended)" : ""}`;

@@ -7,6 +7,7 @@ import { RheoError, Warning } from "../core/errors";
 import { runReduction as coreRunReduction, trueFlowCurve, type RunShift } from "../core/run";
 import type { ReductionGroup, ReductionResult } from "../core/reduce";
 import type { CompareResult } from "../core/fit";
+import type { Verdict } from "../core/fit/verdict";
 import { evaluateModel, type ModelId } from "../core/models";
 import { readRawTable, RawTable } from "../io/rawTable";
 import { COLUMN_QUANTITIES } from "../io/headers";
@@ -34,6 +35,8 @@ export interface ModelCurve {
 /** The fits of one group (null when no model was chosen or the curve has too few points). */
 export interface GroupFits {
   compare: CompareResult | null;
+  /** the core's one verdict on the group (null when nothing was fitted) */
+  verdict: Verdict | null;
   curves: ModelCurve[];
 }
 
@@ -161,7 +164,7 @@ export async function runReduction(
       fits: run.result.groups.map((g, i) => {
         const c = run.comparisons?.[i];
         const compare = c && (c.ranked.length > 0 || c.failed.length > 0) ? { ranked: c.ranked, failed: c.failed } : null;
-        return { compare, curves: modelCurves(g, compare) };
+        return { compare, verdict: run.groupFits[i]?.verdict ?? null, curves: modelCurves(g, compare) };
       }),
       shift: run.shift ?? null,
       warnings: run.warnings,

@@ -52,7 +52,7 @@ function groupCard(run: RunOutput, i: number): string {
   const rates = pts.map((f) => f.shearRateWall as number);
   const etas = pts.map((f) => f.viscosity as number);
   const range = (xs: number[], unit: string) => (xs.length === 0 ? "no corrected points" : `${shownNumber(Math.min(...xs))} to ${shownNumber(Math.max(...xs))} ${unit}`);
-  const rec = recommendedFit(run.fits[i]?.compare ?? null);
+  const rec = recommendedFit(run.fits[i]);
   const rows: [string, string][] = [
     ["Wall shear rate", range(rates, "1/s")],
     ["Viscosity", range(etas, unitLabel("Pa.s"))],
