@@ -49,7 +49,7 @@ const DEV_PORT = 3000;
  * accounting: src/core/speedSteps.ts, rateLadder.ts, flowInstability.ts, bagleyChecks.ts,
  * groupDies.ts, rowAccount.ts: +23 KB).
  */
-const FUNCTIONS_BUDGET_BYTES = 270 * 1024;
+const FUNCTIONS_BUDGET_BYTES = 295 * 1024;
 /** The scripts the worksheet functions need, in load order (their sum is held to the budget). */
 const FUNCTIONS_SCRIPTS = ["runtime.js", "core.js", "functions.js"];
 

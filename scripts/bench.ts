@@ -61,7 +61,7 @@ export const BENCH_TARGETS = Object.freeze({
   traceMs: 150,
   column10kMs: 20,
   /** runtime.js + core.js + functions.js: what the worksheet functions load (webpack.config.js holds the build to it) */
-  functionsBundleBytes: 240 * 1024,
+  functionsBundleBytes: 295 * 1024,
   /** every script of the shared runtime page (the pane's included) */
   taskpaneBundleBytes: 400 * 1024,
 });
