@@ -182,7 +182,7 @@ describe("the stability limit is a setting; the new results are tables on every 
     await main(["reduce", "test/fixtures/lab-repeats.csv"], io);
     expect(text).toContain("Repeated readings (stability check)");
     expect(text).toMatch(/L=30 mm\s+18\s+24\s+36\.12\s+33\s+33\.86\s+-6\.26\s+first reading only/);
-    expect(text).toContain("What the reduction did with every row");
+    expect(text).toContain("Rows used and left out");
     expect(text).toContain("31 lines read: 27 used, 2 merged as a repeated reading, 1 exact duplicate, 1 drifted repeat.");
     text = "";
     await main(["reduce", "test/fixtures/lab-spurt.csv"], io);

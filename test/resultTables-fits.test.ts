@@ -58,7 +58,10 @@ describe("resultTables(run): fit tables", () => {
     expect(m.rows.map((r) => r[0])).toEqual(["η₀", "η∞", "λ", "n", "a", "Ea"]);
     expect(tables.find((x) => x.id === "masterFitFactors")!.rows).toHaveLength(3);
     const j = tables.find((x) => x.id === "rotationalJoin")!;
-    expect(j.notes?.[0]).toMatch(/^Overlap 23\.9–30 1\/s: rotational\/capillary /);
+    // the overlap starts at the capillary curve's lowest true wall rate (the rotational curve reaches 30 1/s)
+    const lowest = run.joined!.join.capillaryRange[0] as number;
+    expect(run.joined!.join.overlap!.shearRateMin).toBe(lowest);
+    expect(j.notes?.[0]).toMatch(new RegExp(`^Overlap ${Number(lowest.toPrecision(3))}–30 1/s: rotational/capillary `));
     expect(j.rows.find((r) => r[col(j, "parameter")] === "η₀")?.[col(j, "determined")]).toBe(true);
   });
 

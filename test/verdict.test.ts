@@ -33,8 +33,10 @@ describe("the demo at 190/210/230 °C (scripts/demo/filmGrade.ts)", () => {
     const families = new Set(fits.map((g) => MODEL_FAMILY[g.verdict.recommended as keyof typeof MODEL_FAMILY]));
     const why = verdictAgreement(fits);
     expect(families.size === 1 ? why : why.map((w) => w.code)).toEqual(families.size === 1 ? [] : ["VERDICT_FAMILIES_DIFFER"]);
-    // what the demo actually gives: the same model, Cross, at every temperature
-    expect(fits.map((g) => g.verdict.recommended)).toEqual(["cross", "cross", "cross"]);
+    // what the demo gives: a three-parameter model with a Newtonian plateau at every temperature
+    // (Cross or Carreau: their AIC differ by little on these data, so either may come first)
+    for (const g of fits) expect(["cross", "carreau"]).toContain(g.verdict.recommended);
+    expect(families.size).toBe(1);
   });
   test("says that no model is well determined: the data never reach the plateau (onset ≈ 1.7 1/s, lowest rate ≈ 24 1/s)", () => {
     for (const g of fits) {

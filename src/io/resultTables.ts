@@ -562,7 +562,7 @@ function rowsTable(run: ReductionRun): ResultTable {
   if (run.result.groups.length > 1) rows.push(row("all groups", run.result.rows));
   return {
     id: "rows",
-    title: "What the reduction did with every row",
+    title: "Rows used and left out",
     columns: [text("group", "Group"), num("rowsRead", "Rows", ""), num("rowsUsed", "Used", ""), num("merged", "Merged repeats", ""), text("left", "Left out")],
     rows,
     notes: ["Rows = used + merged + left out. Each reason is explained by a warning that lists the rows. Rows the file reader skipped (blank, comment) are in the input line."],
