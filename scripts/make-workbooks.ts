@@ -3,6 +3,7 @@
  *   workbooks/demo-<name>.csv   raw data as the command line reads it
  *   workbooks/demo-<name>.xlsx  "Raw data", "Formulas" (RHEO formulas with cached results), "Notes"
  *   workbooks/demo-film-grade-recording.csv  the pressure recording behind the film-grade demo
+ *   workbooks/demo-film-grade-rotational.csv the rotational curve of the film grade at 210 °C
  *
  * Run: node scripts/run-ts.mjs scripts/make-workbooks.ts   (npm run workbooks)
  *
@@ -16,6 +17,7 @@ import ExcelJS from "exceljs";
 import { CREAM_YIELD, creamYieldRows } from "./demo/creamYield";
 import { FILM_GRADE, filmGradeRows } from "./demo/filmGrade";
 import { filmGradeRecordingCsv } from "./demo/filmGradeRecording";
+import { filmGradeRotationalCsv } from "./demo/filmGradeRotational";
 import { PASTE_SLIP, pastePistonSpeed, pasteSlipRows } from "./demo/pasteSlip";
 import { Arg, RangeArg, rheo } from "./workbooks/sheetCall";
 import { columnArg, header, label, placeArray, rangeRef, referenceCell } from "./workbooks/sheetLayout";
@@ -330,6 +332,9 @@ async function main(): Promise<void> {
   const recording = "workbooks/demo-film-grade-recording.csv";
   writeFileSync(recording, filmGradeRecordingCsv());
   console.log(`wrote ${recording}`);
+  const rotational = "workbooks/demo-film-grade-rotational.csv";
+  writeFileSync(rotational, filmGradeRotationalCsv());
+  console.log(`wrote ${rotational}`);
 }
 
 if (process.argv[1]?.endsWith("make-workbooks.cjs")) {

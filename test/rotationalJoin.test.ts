@@ -137,6 +137,18 @@ describe("readRotationalTable(cells): the rotational file", () => {
     expect(t.curve).toEqual({ kind: "steady", rate: [0.5, 2], viscosity: [900, 850] });
     expect(t.warnings[0]?.message).toBe("--rotational: line 3 skipped: blank viscosity.");
   });
+  test("one decimal mark for the whole table: \"3.547\" follows the table's decimal point, \"3,547\" its decimal comma", () => {
+    // "0.01" can only be a decimal point; "0,01" only a decimal comma: each decides its table
+    const point = readRotationalTable([["angular_frequency [rad/s]", "complex_viscosity [Pa.s]"], ["0.01", "5856.6"], ["3.547", "2658"]]);
+    expect(point.curve.rate).toEqual([0.01, 3.547]);
+    const comma = readRotationalTable([["angular_frequency [rad/s]", "complex_viscosity [Pa.s]"], ["3,547", "2658"], ["0,01", "5856,6"]]);
+    expect(comma.curve.rate).toEqual([3.547, 0.01]);
+    expect(comma.curve.viscosity).toEqual([2658, 5856.6]);
+    // nothing decides: refused naming both readings, unless the caller knows the mark (a comma-separated file)
+    const only = [["angular_frequency [rad/s]", "complex_viscosity [Pa.s]"], ["3.547", "2658"]];
+    expect(thrown(() => readRotationalTable(only, { rowWord: "line", argument: "--rotational" })).message).toMatch(/^--rotational angular_frequency \[rad\/s\] \(column 1\): line 2 "3\.547" could be 3\.547 \(decimal point\) or 3547/);
+    expect(readRotationalTable(only, { decimalMark: "." }).curve.rate).toEqual([3.547]);
+  });
   test("errors name the argument, the column and the line", () => {
     const arg = { rowWord: "line" as const, argument: "--rotational" };
     expect(thrown(() => readRotationalTable([["angular_frequency [rad/s]", "complex_viscosity [Pa.s]"], [0.1, "n/a"]], arg)).message).toBe(

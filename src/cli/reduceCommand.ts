@@ -187,7 +187,7 @@ export function readRotationalFile(path: string, io: CliIO): { curve: Rotational
   if (!first) throw new RheoError("missing", "--rotational", `${path} is empty`);
   const table = readRotationalTable(
     csv.lines.map((l) => l.cells),
-    { rowWord: "line", headerNumber: first.line, rowNumbers: csv.lines.map((l) => l.line), argument: "--rotational" },
+    { rowWord: "line", headerNumber: first.line, rowNumbers: csv.lines.map((l) => l.line), argument: "--rotational", decimalMark: csv.delimiter === "," ? "." : undefined },
   );
   return { curve: table.curve, warnings: [...warnings, ...table.warnings] };
 }

@@ -7,14 +7,17 @@
  * the Cox–Merz rule) or `shear_rate [1/s]` + `viscosity [Pa.s]` (steady shear), and optionally
  * `temperature [C]` (one temperature for the whole table). Other columns are ignored with a
  * COLUMN_IGNORED warning; a row with every needed cell blank is skipped silently, one with some
- * blank with ROW_SKIPPED_BLANK. Numbers stored as text are read by the shared number reader
- * (a decimal comma is accepted; a text with two readings, such as "1,000", is refused).
+ * blank with ROW_SKIPPED_BLANK. Numbers stored as text are read with one decimal mark for the
+ * whole table, as point tables are (numberText.ts): a cell such as "3.547" takes the mark the rest
+ * of the table shows, and a table where every such cell reads two ways is refused (or read with
+ * the caller's `decimalMark`).
  */
 import { RheoError, warning, type Warning } from "../core/errors";
 import type { RotationalCurve } from "../core/rotationalJoin";
 import { acceptedUnits, isUnitOf, toSI, type Quantity } from "../core/units";
 import { normaliseColumnName } from "./headers";
 import { readNumberCell } from "./rawTable";
+import { TableNumberReader, type CellPlace, type DecimalMark, type PendingCell } from "./numberText";
 
 /** The columns a rotational table may hold, with the quantity of their unit. */
 export const ROTATIONAL_COLUMNS = Object.freeze({
@@ -37,6 +40,11 @@ export interface RotationalTableOptions {
   rowNumbers?: number[];
   /** the argument messages name, e.g. "--rotational" */
   argument: string;
+  /**
+   * the decimal mark to assume when no cell of the table decides it (a comma-delimited file: a
+   * decimal point); without it a table whose numbers all read two ways is refused
+   */
+  decimalMark?: DecimalMark;
 }
 
 export const DEFAULT_ROTATIONAL_TABLE_OPTIONS: Readonly<RotationalTableOptions> = Object.freeze({ rowWord: "row", headerNumber: 1, argument: "rotational" });
@@ -92,35 +100,55 @@ export function readRotationalTable(cells: unknown[][], options: Partial<Rotatio
     if (!byName.has(name)) throw new RheoError("missing", arg, `has "${byName.get(name === rateCol ? etaCol : rateCol)?.header}" but no "${name} [unit]" column`);
   }
   const used: RotationalColumn[] = [rateCol, etaCol, ...(byName.has("temperature") ? ["temperature" as const] : [])];
-  const rate: number[] = [];
-  const viscosity: number[] = [];
-  const temperatures = new Set<number>();
+  const columns = used.map((name) => byName.get(name) as { index: number; header: string; unit: string });
+  const whereOf = (u: number) => `${arg} ${(columns[u] as { header: string }).header} (column ${(columns[u] as { index: number }).index + 1})`;
+  // First pass: every cell's number, text cells read with one decimal mark for the whole table
+  // (numberText.ts), as the point-table reader does; a cell with two readings waits for the mark.
+  const numbers = new TableNumberReader({ describe: (u, row): CellPlace => ({ column: whereOf(u), row: `${opt.rowWord} ${row}` }), fallback: opt.decimalMark });
+  const stored: (number | null)[] = [];
+  const rowOf: number[] = [];
+  const correct = (list: PendingCell[]) => list.forEach((c) => (stored[c.key] = c.comma));
   for (let r = 1; r < cells.length; r++) {
     const rowCells = cells[r] ?? [];
     const number = opt.rowNumbers?.[r] ?? opt.headerNumber + r;
+    rowOf.push(number);
+    columns.forEach((col, u) => {
+      const cell = rowCells[col.index];
+      const key = stored.length;
+      if (typeof cell === "string" && cell.trim() !== "") {
+        stored.push(numbers.read(cell.trim(), u, number, key));
+        correct(numbers.takeCorrections());
+      } else stored.push(readNumberCell(cell, whereOf(u), `${opt.rowWord} ${number}`));
+    });
+  }
+  correct(numbers.finish());
+  // Second pass: units, signs, blanks.
+  const rate: number[] = [];
+  const viscosity: number[] = [];
+  const temperatures = new Set<number>();
+  rowOf.forEach((number, k) => {
     const values = new Map<RotationalColumn, number>();
     const blanks: RotationalColumn[] = [];
-    for (const name of used) {
-      const col = byName.get(name) as { index: number; header: string; unit: string };
-      const where = `${arg} ${col.header} (column ${col.index + 1})`;
-      const v = readNumberCell(rowCells[col.index], where, `${opt.rowWord} ${number}`);
+    used.forEach((name, u) => {
+      const col = columns[u] as { index: number; header: string; unit: string };
+      const v = stored[k * used.length + u] as number | null;
       if (v === null) {
         blanks.push(name);
-        continue;
+        return;
       }
       const si = toSI(v, col.unit, ROTATIONAL_COLUMNS[name].quantity, col.header);
-      if (name !== "temperature" && !(si > 0)) throw new RheoError("domain", where, `${opt.rowWord} ${number} must be greater than zero, got ${v}`);
+      if (name !== "temperature" && !(si > 0)) throw new RheoError("domain", whereOf(u), `${opt.rowWord} ${number} must be greater than zero, got ${v}`);
       values.set(name, si);
-    }
-    if (blanks.length === used.length) continue;
+    });
+    if (blanks.length === used.length) return;
     if (blanks.length > 0) {
       warnings.push(warning("ROW_SKIPPED_BLANK", `${arg}: ${opt.rowWord} ${number} skipped: blank ${blanks.join(", ")}.`));
-      continue;
+      return;
     }
     rate.push(values.get(rateCol) as number);
     viscosity.push(values.get(etaCol) as number);
     if (values.has("temperature")) temperatures.add(values.get("temperature") as number);
-  }
+  });
   if (rate.length === 0) throw new RheoError("missing", arg, "has no data rows");
   const temps = [...temperatures];
   if (Math.max(...temps) - Math.min(...temps) > 1) {
