@@ -15,6 +15,7 @@ import path from "node:path";
 import ExcelJS from "exceljs";
 import { main } from "../src/cli/main";
 import { FILM_GRADE, filmGradeViscosity } from "../scripts/demo/filmGrade";
+import { filmGradeRotationalCsv } from "../scripts/demo/filmGradeRotational";
 import { findPython } from "../scripts/findPython";
 import { flowRateForApparentShearRate } from "../src/core/capillary";
 import { expectClose } from "./helpers/expectClose";
@@ -109,6 +110,16 @@ describe("rheoledger reduce DEMO --rotational FILE.csv", () => {
     expect(r.verdict.fit.determined.eta0).toBe(true);
     expectClose(r.verdict.fit.parameters.eta0, FILM_GRADE.eta0, { rel: 0.03 }, "joined eta0");
     expect(doc.warnings.map((w: { code: string }) => w.code)).toContain("COX_MERZ_APPLIED");
+  });
+  test("the bundled demo rotational curve (workbooks/, 1 % noise) as the file is committed: it is the generator's, and the join gives η0 within 3 % of 6000 Pa·s", async () => {
+    const committed = readFileSync("workbooks/demo-film-grade-rotational.csv", "utf8");
+    expect(committed).toBe(filmGradeRotationalCsv());
+    const { code, stdout } = await run(["reduce", DEMO, "--rotational", "rot.csv", "--json"], { "rot.csv": committed });
+    expect(code).toBe(0);
+    const r = JSON.parse(stdout).rotational;
+    expect(r.overlap.withinTolerance).toBe(true);
+    expect(r.verdict.fit.determined.eta0).toBe(true);
+    expectClose(r.verdict.fit.parameters.eta0, FILM_GRADE.eta0, { rel: 0.03 }, "joined eta0 from the noisy demo curve");
   });
   test("a rotational file with text in a cell names the flag, the column and the line", async () => {
     const { code, stdout, stderr } = await run(["reduce", DEMO, "--rotational", "rot.csv"], { "rot.csv": "angular_frequency [rad/s],complex_viscosity [Pa.s],temperature [C]\n0.1,abc,210\n" });
