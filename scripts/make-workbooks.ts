@@ -4,6 +4,7 @@
  *   workbooks/demo-<name>.xlsx  "Raw data", "Formulas" (RHEO formulas with cached results), "Notes"
  *   workbooks/demo-film-grade-recording.csv  the pressure recording behind the film-grade demo
  *   workbooks/demo-film-grade-rotational.csv the rotational curve of the film grade at 210 °C
+ *   workbooks/demo-trace-ladder.csv  a short recording from a known plateau ladder (the pane's preview)
  *
  * Run: node scripts/run-ts.mjs scripts/make-workbooks.ts   (npm run workbooks)
  *
@@ -18,6 +19,7 @@ import { CREAM_YIELD, creamYieldRows } from "./demo/creamYield";
 import { FILM_GRADE, filmGradeRows } from "./demo/filmGrade";
 import { filmGradeRecordingCsv } from "./demo/filmGradeRecording";
 import { filmGradeRotationalCsv } from "./demo/filmGradeRotational";
+import { traceLadderCsv } from "./demo/traceLadder";
 import { PASTE_SLIP, pastePistonSpeed, pasteSlipRows } from "./demo/pasteSlip";
 import { Arg, RangeArg, rheo } from "./workbooks/sheetCall";
 import { columnArg, header, label, placeArray, rangeRef, referenceCell } from "./workbooks/sheetLayout";
@@ -335,6 +337,9 @@ async function main(): Promise<void> {
   const rotational = "workbooks/demo-film-grade-rotational.csv";
   writeFileSync(rotational, filmGradeRotationalCsv());
   console.log(`wrote ${rotational}`);
+  const ladder = "workbooks/demo-trace-ladder.csv";
+  writeFileSync(ladder, traceLadderCsv());
+  console.log(`wrote ${ladder}`);
 }
 
 if (process.argv[1]?.endsWith("make-workbooks.cjs")) {
