@@ -10,7 +10,7 @@ import { runReduction, type FitRequest, type ReductionRun } from "./run";
 import type { BlankPoint } from "./steps/friction";
 import type { StepOptions } from "./steps/options";
 import type { TraceRun } from "./steps/runSteps";
-import { detectTraceSteps, stepMeasurements } from "./steps/traceSteps";
+import { detectTraceSteps, stepMeasurements, type TraceSteps } from "./steps/traceSteps";
 
 /**
  * Detects the steps and reduces their plateaus (see the module comment).
@@ -27,7 +27,21 @@ export function runTraceReduction(
   inputWarnings: Warning[],
   blank?: TraceRun | BlankPoint[],
 ): ReductionRun & { steps: NonNullable<ReductionRun["steps"]> } {
-  const trace = detectTraceSteps(runs, steps, blank);
+  return reduceTraceSteps(detectTraceSteps(runs, steps, blank), options, fits, inputWarnings);
+}
+
+/**
+ * Reduces the plateaus of steps already detected (the task pane shows the steps even when they
+ * cannot be reduced, so it detects first and reduces second).
+ * @throws RheoError("missing", "steps") when no step can go into the flow curve; any error of the reduction
+ * @example reduceTraceSteps(detectTraceSteps(runs), {}, {}, []).result.groups.length
+ */
+export function reduceTraceSteps(
+  trace: TraceSteps,
+  options: Partial<ReduceOptions>,
+  fits: FitRequest,
+  inputWarnings: Warning[],
+): ReductionRun & { steps: NonNullable<ReductionRun["steps"]> } {
   const measurements = stepMeasurements(trace);
   if (measurements.length === 0) {
     const found = trace.runs.reduce((n, r) => n + r.steps.length, 0);

@@ -85,7 +85,7 @@ const KPA = 1e-3;
 const BAR = 1e-5;
 const MM = 1e3;
 
-function groupsTable(run: ReductionRun): ResultTable {
+export function groupsTable(run: ReductionRun): ResultTable {
   const rows = run.result.groups.map((g, i): ResultCell[] => {
     const rates = g.flowCurve.map((f) => f.shearRateWall).filter((x): x is number => x !== null);
     const etas = g.flowCurve.map((f) => f.viscosity).filter((x): x is number => x !== null);
@@ -199,7 +199,7 @@ function verdictTable(label: string, verdict: Verdict, id = "verdict", title = "
   };
 }
 
-function bagleyTable(g: ReductionGroup): ResultTable | null {
+export function bagleyTable(g: ReductionGroup): ResultTable | null {
   if (g.bagley.length === 0) return null;
   return {
     id: "bagley",
@@ -239,7 +239,7 @@ function bagleyPointsTable(g: ReductionGroup): ResultTable | null {
   };
 }
 
-function flowCurveTable(g: ReductionGroup): ResultTable {
+export function flowCurveTable(g: ReductionGroup): ResultTable {
   const columns: ResultColumn[] = [
     num("shearRateApparent", "Apparent shear rate", "1/s"),
     num("wallShearStress", "Wall shear stress", "kPa"),
