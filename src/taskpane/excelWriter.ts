@@ -15,7 +15,7 @@ export type ExcelBatch = <T>(batch: (context: Excel.RequestContext) => Promise<T
  * panel lists its own in its `sheets` (src/taskpane/panels/); these are the reduction's, the
  * planner's and the lot check's, kept here for the writer's tests and the pair below.
  */
-export const SHEET_BASE_NAMES = Object.freeze({ results: "Rheo results", method: "Rheo method", plan: "Rheo plan", lot: "Rheo lot check" });
+export const SHEET_BASE_NAMES = Object.freeze({ results: "Rheo results", method: "Rheo method", plan: "Rheo plan", lot: "Rheo lot check", steps: "Rheo steps", traceCurve: "Rheo trace curve" });
 
 /** Excel's limit on sheet names. */
 const MAX_SHEET_NAME = 31;

@@ -11,5 +11,6 @@ import { lotPanel } from "./lot";
 import { plannerPanel } from "./planner";
 import { reducePanel } from "./reduce";
 import { sharePanel } from "./share";
+import { tracePanel } from "./trace";
 
-export const PANELS: readonly PanePanel[] = Object.freeze([reducePanel, sharePanel, plannerPanel, lotPanel]);
+export const PANELS: readonly PanePanel[] = Object.freeze([reducePanel, tracePanel, sharePanel, plannerPanel, lotPanel]);

@@ -44,7 +44,11 @@ export function resetWindow(windows: readonly WindowOverride[], run: number, ste
  * @throws RheoError from the detection (a window naming no step, bad samples, bad settings)
  */
 export function traceView(runs: TraceRun[], options: Partial<StepOptions>, windows: readonly WindowOverride[], blank?: TraceRun | BlankPoint[]): TraceView {
-  const trace = detectTraceSteps(runs, { ...options, windows: [...windows] }, blank);
+  return traceViewOf(runs, detectTraceSteps(runs, { ...options, windows: [...windows] }, blank));
+}
+
+/** The view of steps already detected in `runs` (the runs the charts draw). */
+export function traceViewOf(runs: readonly TraceRun[], trace: TraceSteps): TraceView {
   return {
     trace,
     charts: trace.runs.map((r, i) => traceChartData(runs[i] as TraceRun, r)),
