@@ -68,7 +68,9 @@ export function buildCurvePlan(out: TraceOutput, meta: TraceSheetMeta): SheetPla
     for (const note of resultTableNotes(t, id)) s.add(note);
     return block;
   };
-  add(groupsTable(out.reduction), "groups");
+  // no models are fitted here: the recommended-model column stays empty, so it is no key column
+  const groups = groupsTable(out.reduction);
+  add({ ...groups, keyColumns: (groups.keyColumns ?? []).filter((k) => k !== "recommendedModel") }, "groups");
   out.reduction.result.groups.forEach((g, i) => {
     const bagley = bagleyTable(g);
     if (bagley) add(bagley, `bagley-${i + 1}`);
