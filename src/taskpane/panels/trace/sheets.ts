@@ -45,7 +45,7 @@ export function buildStepsPlan(out: TraceOutput, meta: TraceSheetMeta): SheetPla
   s.add(resultTableBlock(out.view.steps, "steps"));
   for (const note of resultTableNotes(out.view.steps, "steps")) s.add(note);
   if (out.view.thermalChecks) s.add(resultTableBlock(out.view.thermalChecks, "thermal-checks"));
-  s.add({ id: "steps-warnings", role: "list", title: `Warnings (${out.warnings.length})`, header: ["severity", "warning", "message", "code"], rows: warningRows(out) }, 0);
+  s.add({ id: "steps-warnings", role: "list", title: `Warnings (${out.warnings.length})`, header: ["severity", "warning", "message", "code"], rows: warningRows(out), keyColumns: [1, 2] }, 0);
   return { name: meta.names.steps, blocks: s.blocks, charts: [], columnWidths: [12, 16, 8, 12, 10, 12, 12, 9, 12, 10, 8, 10, 60] };
 }
 
