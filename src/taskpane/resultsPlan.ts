@@ -18,6 +18,7 @@ import { recommendedFit } from "./recommendedFit";
 import { GROUP_COLOURS, seriesLook, bagleyChart, bagleyChartData, masterChartData, modelChartData, summaryCharts } from "./resultsCharts";
 import { BlockDraft, DEFAULT_OUTPUT_UNITS, bagleyBlock, fitBlocks, flowBlock, fmt } from "./resultsFlowBlocks";
 import { methodBlocks, shiftBlocks, slipBlock } from "./resultsMethodBlocks";
+import { joinedBlocks, masterFitBlocks } from "./resultsFitBlocks";
 import type { RunOutput } from "./runReduction";
 import { groupLabel } from "./runReduction";
 import { CellBlock, CellValue, ChartSpec, SeriesSpec, SheetPlan, blockLayout } from "./sheetPlan";
@@ -122,6 +123,17 @@ export function buildResultsPlan(run: RunOutput, meta: PlanMeta): SheetPlan {
     const master = masterChartData(run.shift);
     const block = right.add(master.block);
     master.runs.forEach((r, k) => masterSeries.push({ name: r.name, blockId: block.id, xColumn: 1, yColumn: 2, firstRow: r.firstRow, rowCount: r.rowCount, style: "markers", ...seriesLook(k) }));
+  }
+
+  const master = masterFitBlocks(run);
+  if (master.length > 0) {
+    left.add({ id: "section-masterfit", role: "heading", title: "Fit across temperatures", rows: [] }, 0);
+    for (const b of master) left.add(b);
+  }
+  const joined = joinedBlocks(run);
+  if (joined.length > 0) {
+    left.add({ id: "section-rotational", role: "heading", title: `Rotational data joined (${run.input.rotational?.label ?? "rotational curve"})`, rows: [] }, 0);
+    for (const b of joined) left.add(b);
   }
 
   const charts = [...summaryCharts({ flow: flowSeries, viscosity: viscositySeries, nPrime: nPrimeSeries, master: masterSeries }, run.shift), ...bagleyCharts];
