@@ -562,8 +562,11 @@ maybe("task pane preview mode (chromium)", () => {
     // an error of the new settings shows next to its field: a law-needing model without a law
     await page.selectOption("#temperatureShift", "none");
     await page.selectOption("#masterModel", "cross");
+    await page.fill("#stabilityThresholdPercent", "150");
     await page.click("#run");
     await page.waitForSelector("#temperatureShift-error:not([hidden])");
+    expect(await page.locator("#stabilityThresholdPercent-error").textContent()).toMatch(/below 100 %/);
+    expect(await page.locator("#stabilityThresholdPercent-label").textContent()).toBe("Repeat stability limit [%]");
     expect(await page.locator("#temperatureShift-error").textContent()).toMatch(/“Fit across temperatures”/);
     expect(await page.locator("#temperatureShift").getAttribute("aria-invalid")).toBe("true");
     expect(errors.filter((e) => !/CustomFunctions/.test(e))).toEqual([]);

@@ -1,6 +1,6 @@
 /**
  * The pane's fit settings (material class, fit across temperatures, rotational join, WLF's glass
- * transition temperature, vertical shift, slit edge correction): each field reaches the reduce
+ * transition temperature, vertical shift, slit edge correction, repeat stability limit): each field reaches the reduce
  * request through the shared reader in SI (NIST SP 811: T/K = t/°C + 273.15), each error goes to
  * its field in the words of its label, and a run on the demo data shows the core's master fit and
  * join. The demo data are generated (scripts/demo/filmGrade.ts) from a Carreau–Yasuda law with
@@ -79,12 +79,20 @@ describe("fit settings → the reduce request (the shared reader)", () => {
     expect(readPaneSettings(settings({ rotational: null })).request.input.rotational).toBeUndefined();
   });
 
+  test("the repeat stability limit is read in % (3 → 0.03); empty leaves the core's default", () => {
+    const { request, problems } = readPaneSettings(settings({ stabilityThresholdPercent: 3 }));
+    expect(problems).toEqual([]);
+    expectClose(request.options.repeats?.stabilityThreshold as number, 0.03, { rel: 1e-12 });
+    expect(readPaneSettings(DEFAULT_PANE_SETTINGS).request.options.repeats).toBeUndefined();
+  });
+
   test("each field's label is the shared label of its setting, with the unit a bare number is read in", () => {
     expect(settingLabel("glassTransitionTemperatureC")).toBe(`${REDUCE_SETTING_WORDS.glassTransitionTemperature?.label} [°C]`);
     expect(settingLabel("verticalShiftPerK")).toBe(`${REDUCE_SETTING_WORDS.verticalShift?.label} [1/K]`);
     expect(settingLabel("crossWlfD2C")).toBe(`${REDUCE_SETTING_WORDS.crossWlfD2?.label} [°C]`);
     expect(settingLabel("masterModel")).toBe(REDUCE_SETTING_WORDS.master?.label);
     expect(settingLabel("material")).toBe(REDUCE_SETTING_WORDS.material?.label);
+    expect(settingLabel("stabilityThresholdPercent")).toBe(`${REDUCE_SETTING_WORDS.stabilityThreshold?.label} [%]`);
   });
 });
 
@@ -100,6 +108,12 @@ describe("fit settings: errors go to their field, in the label's words", () => {
     const { problems } = readPaneSettings(settings({ temperatureShift: "wlf", masterModel: "cross-wlf", glassTransitionTemperatureC: NaN, verticalShiftPerK: -1e-4, crossWlfD2C: -300 }));
     expect(problems.map((p) => p.field).sort()).toEqual(["crossWlfD2C", "glassTransitionTemperatureC", "verticalShiftPerK"]);
     for (const p of problems) expect(p.message).not.toMatch(/crossWlfD2|glassTransitionTemperature|verticalShift\b/);
+  });
+
+  test("a repeat stability limit of 100 % or more, or text, marks its field", () => {
+    expect(readPaneSettings(settings({ stabilityThresholdPercent: 100 })).problems).toEqual([{ field: "stabilityThresholdPercent", message: "Must be below 100 %, got 100 %." }]);
+    expect(readPaneSettings(settings({ stabilityThresholdPercent: NaN })).problems.map((p) => p.field)).toEqual(["stabilityThresholdPercent"]);
+    expect(readPaneSettings(settings({ stabilityThresholdPercent: -2 })).problems.map((p) => p.field)).toEqual(["stabilityThresholdPercent"]);
   });
 
   test("core and reader errors of the new settings map to their fields by argument", () => {
@@ -220,7 +234,7 @@ describe("a run with the fit across temperatures and the demo rotational join", 
     expect(findBlock(plan.results, "masterfit-factors").rows).toHaveLength(3);
     expect(findBlock(plan.results, "rotational-join-notes").rows.map((r) => r[0]).join(" ")).toMatch(/Overlap .* rotational\/capillary .* within the tolerance/);
     const settingsRows = findBlock(plan.method, "method-settings").rows.map((r) => r[0]);
-    expect(settingsRows).toEqual(expect.arrayContaining(["Material class", "Fit across temperatures", "Rotational data", "Glass transition temperature", "Vertical shift (melt expansion)", "Slit edge correction"]));
+    expect(settingsRows).toEqual(expect.arrayContaining(["Material class", "Fit across temperatures", "Rotational data", "Glass transition temperature", "Vertical shift (melt expansion)", "Slit edge correction", "Repeat stability limit"]));
     // and the pane shows both cards beside the groups'
     const html = resultsHtml(run, plan, null);
     expect(html).toContain('data-card="masterfit"');

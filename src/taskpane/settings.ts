@@ -10,7 +10,7 @@ import { MODEL_REGISTRY, type ModelId } from "../core/models";
 import { DEFAULT_UNCERTAINTY_OPTIONS } from "../core/uncertainty";
 import { defaultModels, type MaterialClass } from "../core/flowCurveFits";
 import { MASTER_MODELS, type MasterModel } from "../core/temperature/masterFit";
-import { collectReduceSettings, reduceSetting, type ReduceRequest, type ReduceSettingSpec, type ReduceSettingsSource } from "../io/reduceOptions";
+import { REDUCE_SETTING_DEFAULTS, collectReduceSettings, reduceSetting, type ReduceRequest, type ReduceSettingSpec, type ReduceSettingsSource } from "../io/reduceOptions";
 import { REDUCE_SETTING_WORDS, type ReduceSettingWords } from "../io/reduceSettingWords";
 import { detailOf, sentence } from "./panelContract";
 import { modelName } from "../io/displayNames";
@@ -71,6 +71,8 @@ export interface PaneSettings {
   verticalShiftPerK: number | null;
   /** slit dies: the finite-width (edge) correction of the true wall rate */
   slitEdgeCorrection: boolean;
+  /** repeated speeds: largest change of pressure, in %, before a repeat counts as drifted; null: the core's default */
+  stabilityThresholdPercent: number | null;
 }
 
 /** Models the pane offers: every isothermal model of the registry (Cross-WLF needs T per point). */
@@ -114,6 +116,7 @@ export const DEFAULT_PANE_SETTINGS: Readonly<PaneSettings> = Object.freeze({
   glassTransitionTemperatureC: null,
   verticalShiftPerK: null,
   slitEdgeCorrection: false,
+  stabilityThresholdPercent: null,
 });
 
 /** The fields of the pane a message can be shown next to. */
@@ -144,6 +147,7 @@ export type FieldId =
   | "glassTransitionTemperatureC"
   | "verticalShiftPerK"
   | "slitEdgeCorrection"
+  | "stabilityThresholdPercent"
   | "run";
 
 /** The reduce setting key (src/io/reduceOptions.ts) behind each pane field that reads one. */
@@ -173,6 +177,7 @@ export const SETTING_KEY_OF_FIELD = Object.freeze({
   glassTransitionTemperatureC: "glassTransitionTemperature",
   verticalShiftPerK: "verticalShift",
   slitEdgeCorrection: "slitEdgeCorrection",
+  stabilityThresholdPercent: "stabilityThreshold",
 } as const satisfies Partial<Record<keyof PaneSettings, string>>);
 
 /** The pane field of a reduce setting key (the reverse of {@link SETTING_KEY_OF_FIELD}). */
@@ -215,6 +220,7 @@ export const SETTING_HELP = {
   glassTransitionTemperatureC: help("glassTransitionTemperature"),
   verticalShiftPerK: help("verticalShift"),
   slitEdgeCorrection: help("slitEdgeCorrection"),
+  stabilityThresholdPercent: help("stabilityThreshold"),
 } as const;
 
 /**
@@ -287,6 +293,7 @@ export function settingsRecord(s: PaneSettings): Record<string, unknown> {
     if (s.masterModel === "cross-wlf" && s.crossWlfD2C !== null) r.crossWlfD2 = s.crossWlfD2C;
   }
   if (s.slitEdgeCorrection) r.slitEdgeCorrection = true;
+  if (s.stabilityThresholdPercent !== null) r.stabilityThreshold = s.stabilityThresholdPercent;
   if (s.rotational !== null && s.rotational.trim() !== "") r.rotational = s.rotational;
   return r;
 }
@@ -305,6 +312,7 @@ const NUMBER_FIELDS = [
   "crossWlfD2C",
   "glassTransitionTemperatureC",
   "verticalShiftPerK",
+  "stabilityThresholdPercent",
 ] as const;
 
 /**
@@ -394,6 +402,7 @@ export function describeSettings(s: PaneSettings): [string, string][] {
     ],
     [words("rotational").label, s.rotational ?? "none"],
     [words("slitEdgeCorrection").label, onOff(s.slitEdgeCorrection)],
+    [words("stabilityThreshold").label, s.stabilityThresholdPercent === null ? `default (${REDUCE_SETTING_DEFAULTS.stabilityThreshold} %)` : `${s.stabilityThresholdPercent} %`],
   ];
 }
 

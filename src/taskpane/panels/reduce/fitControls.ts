@@ -2,8 +2,8 @@
  * The reduction panel's fit settings beyond the models: the material class (the default model list
  * follows it), the fit across temperatures (with the temperature shift's law and reference
  * temperature; Cross-WLF's optional D2), the rotational curve to join (a range or table in Excel,
- * the invented demo curve in preview mode), WLF's glass transition temperature, the vertical shift
- * and the slit edge correction. Labels and help are the shared words of each setting
+ * the invented demo curve in preview mode), WLF's glass transition temperature, the vertical shift,
+ * the slit edge correction and the repeat stability limit. Labels and help are the shared words of each setting
  * (src/io/reduceSettingWords.ts via settings.ts); a field that cannot apply is disabled with its
  * reason, as applicability.ts decides for the data and the other settings decide here.
  */
@@ -20,10 +20,10 @@ import type { Applicability } from "./applicability";
 import { DEMO_ROTATIONAL_LABEL, demoRotationalCells } from "./demoRotational";
 
 /** The settings this module reads and writes. */
-export type FitSettings = Pick<PaneSettings, "material" | "masterModel" | "crossWlfD2C" | "rotational" | "glassTransitionTemperatureC" | "verticalShiftPerK" | "slitEdgeCorrection">;
+export type FitSettings = Pick<PaneSettings, "material" | "masterModel" | "crossWlfD2C" | "rotational" | "glassTransitionTemperatureC" | "verticalShiftPerK" | "slitEdgeCorrection" | "stabilityThresholdPercent">;
 
 /** Fields whose label is the shared label of their setting (with its unit). */
-const LABELLED = ["glassTransitionTemperatureC", "verticalShiftPerK", "masterModel", "crossWlfD2C", "rotational", "slitEdgeCorrection", "material"] as const;
+const LABELLED = ["glassTransitionTemperatureC", "verticalShiftPerK", "masterModel", "crossWlfD2C", "rotational", "slitEdgeCorrection", "material", "stabilityThresholdPercent"] as const;
 
 /** What the data allow, kept so that a change of another setting re-applies it. */
 let allowed: Applicability | null = null;
@@ -79,6 +79,7 @@ export function readFitSettings(): FitSettings {
     glassTransitionTemperatureC: live("glassTransitionTemperatureC"),
     verticalShiftPerK: live("verticalShiftPerK"),
     slitEdgeCorrection: checked("slitEdgeCorrection") && !byId<HTMLInputElement>("slitEdgeCorrection").disabled,
+    stabilityThresholdPercent: live("stabilityThresholdPercent"),
   };
 }
 
@@ -90,6 +91,7 @@ export function writeFitSettings(s: FitSettings): void {
   byId<HTMLInputElement>("glassTransitionTemperatureC").value = numberText(s.glassTransitionTemperatureC);
   byId<HTMLInputElement>("verticalShiftPerK").value = numberText(s.verticalShiftPerK);
   byId<HTMLInputElement>("slitEdgeCorrection").checked = s.slitEdgeCorrection;
+  byId<HTMLInputElement>("stabilityThresholdPercent").value = numberText(s.stabilityThresholdPercent);
   byId<HTMLInputElement>("rotational-demo").checked = s.rotational === DEMO_ROTATIONAL_LABEL;
   if (s.rotational !== DEMO_ROTATIONAL_LABEL) byId<HTMLInputElement>("rotational").value = s.rotational ?? "";
   updateFitApplicability();
@@ -103,7 +105,7 @@ export function wireFitSettings(onMaterial: (from: MaterialClass, to: MaterialCl
   for (const f of LABELLED) byId(`${f}-label`).textContent = settingLabel(f);
   byId("material-melt-help").textContent = SETTING_HELP.material.melt;
   byId("material-paste-help").textContent = SETTING_HELP.material.paste;
-  for (const f of ["crossWlfD2C", "glassTransitionTemperatureC", "verticalShiftPerK", "slitEdgeCorrection", "rotational"] as const) byId(`${f}-help`).textContent = SETTING_HELP[f];
+  for (const f of ["crossWlfD2C", "glassTransitionTemperatureC", "verticalShiftPerK", "slitEdgeCorrection", "rotational", "stabilityThresholdPercent"] as const) byId(`${f}-help`).textContent = SETTING_HELP[f];
   byId("rotational-demo-help").textContent = "An oscillatory test of the demo grade at 210 °C (complex viscosity against angular frequency), invented like the demo data.";
   byId<HTMLSelectElement>("masterModel").replaceChildren(...PANE_MASTER_MODELS.map((m) => new Option(m === "none" ? "None" : modelName(m as MasterModel), m)));
   let material = (document.querySelector<HTMLInputElement>("input[name=material]:checked")?.value ?? "melt") as MaterialClass;

@@ -41,6 +41,7 @@ export const reducePanel: PanePanel & { fields: Readonly<Record<FieldId, { contr
     glassTransitionTemperatureC: { control: "glassTransitionTemperatureC", label: settingLabel("glassTransitionTemperatureC") },
     verticalShiftPerK: { control: "verticalShiftPerK", label: settingLabel("verticalShiftPerK") },
     slitEdgeCorrection: { control: "slitEdgeCorrection", label: settingLabel("slitEdgeCorrection") },
+    stabilityThresholdPercent: { control: "stabilityThresholdPercent", label: settingLabel("stabilityThresholdPercent") },
     run: { control: "run", label: "Reduce into new sheets" },
   },
   wire: wireReduction,
