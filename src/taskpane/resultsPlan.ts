@@ -3,7 +3,8 @@
  * curve with the standard error of the wall stress (and, when asked for, the ± columns of the
  * transducer uncertainty and the Schümmer cross-check), the orifice/Bagley entrance pressures,
  * the extensional, heating and pressure-dependence tables, the model ranking and fitted
- * parameters; then the slip table and the temperature shift. Chart data on the right; native
+ * parameters; then the slip table, the temperature shift, the fit across temperatures and the
+ * rotational join (the shared result tables, resultsFitBlocks.ts). Chart data on the right; native
  * charts (Bagley plot per group with its lines extended to zero pressure, log–log flow curve,
  * viscosity with the best model of each group or every model, n' vs rate, master curve).
  * Values are SI from the core converted once to the display units {@link DEFAULT_OUTPUT_UNITS}.
