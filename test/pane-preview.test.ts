@@ -31,7 +31,6 @@ import { expectClose } from "./helpers/expectClose";
 import { fitCurve } from "../src/core/flowCurveFits";
 import { runReduction as coreRunReduction } from "../src/core/run";
 import { readRotationalTable } from "../src/io/rotationalTable";
-import { demoRotationalCells } from "../src/taskpane/panels/reduce/demoRotational";
 import { modelName } from "../src/io/displayNames";
 
 const CHROMIUM = "/usr/bin/chromium";
@@ -536,7 +535,7 @@ maybe("task pane preview mode (chromium)", () => {
     const raw = readRawTable(parseCsv(text).lines.map((l) => l.cells));
     const settings = { ...DEFAULT_PANE_SETTINGS, temperatureShift: "arrhenius" as const, referenceTemperatureC: 210, masterModel: "carreau-yasuda" as const };
     const request = readPaneSettings(settings).request;
-    const core = coreRunReduction(raw.measurements, request.options, { ...request.fits, compare: settings.models, rotational: readRotationalTable(demoRotationalCells()).curve });
+    const core = coreRunReduction(raw.measurements, request.options, { ...request.fits, compare: settings.models, rotational: readRotationalTable(parseCsv(readFileSync(join(ROOT, "workbooks/demo-film-grade-rotational.csv"), "utf8")).lines.map((l) => l.cells)).curve });
     const master = (await page.locator('[data-card="masterfit"]').textContent()) ?? "";
     expect(master).toContain("Carreau–Yasuda × Arrhenius");
     const ea = /Ea \[kJ\/mol\]([\d.]+) ± /.exec(master);

@@ -106,7 +106,7 @@ export function wireFitSettings(onMaterial: (from: MaterialClass, to: MaterialCl
   byId("material-melt-help").textContent = SETTING_HELP.material.melt;
   byId("material-paste-help").textContent = SETTING_HELP.material.paste;
   for (const f of ["crossWlfD2C", "glassTransitionTemperatureC", "verticalShiftPerK", "slitEdgeCorrection", "rotational", "stabilityThresholdPercent"] as const) byId(`${f}-help`).textContent = SETTING_HELP[f];
-  byId("rotational-demo-help").textContent = "An oscillatory test of the demo grade at 210 °C (complex viscosity against angular frequency), invented like the demo data.";
+  byId("rotational-demo-help").textContent = "An oscillatory test of the demo grade at 210 °C (complex viscosity against angular frequency, 0.01 to 30 rad/s), invented like the demo data.";
   byId<HTMLSelectElement>("masterModel").replaceChildren(...PANE_MASTER_MODELS.map((m) => new Option(m === "none" ? "None" : modelName(m as MasterModel), m)));
   let material = (document.querySelector<HTMLInputElement>("input[name=material]:checked")?.value ?? "melt") as MaterialClass;
   for (const id of ["material-melt", "material-paste"]) {
