@@ -29,6 +29,8 @@ import { readPlanOptions } from "../src/io/planOptions";
 import { readFlowCurveTable } from "../src/io/flowCurveTable";
 import { expectClose } from "./helpers/expectClose";
 import { fitCurve } from "../src/core/flowCurveFits";
+import { runReduction as coreRunReduction } from "../src/core/run";
+import { readRotationalTable } from "../src/io/rotationalTable";
 import { modelName } from "../src/io/displayNames";
 
 const CHROMIUM = "/usr/bin/chromium";
@@ -486,6 +488,89 @@ maybe("task pane preview mode (chromium)", () => {
     await page.locator("figure.chart-figure", { hasText: "Master curve" }).screenshot({ path: join(OUT, "pane-master-500.png") });
     await page.close();
   });
+
+  test("fit settings at 350 px: paste and melt, a fit across temperatures (card with the model and Ea) and the demo rotational join (overlap ratio), no sideways scroll, no axe violation", async () => {
+    const { page, errors } = await openPane(350);
+    // fields that cannot apply are disabled, look it, and say why
+    await page.waitForSelector("#slitEdgeCorrection-reason:not([hidden])");
+    for (const [id, reason] of [
+      ["slitEdgeCorrection", /needs a slit die/],
+      ["glassTransitionTemperatureC", /WLF shift only/],
+      ["verticalShiftPerK", /with a temperature shift/],
+      ["crossWlfD2C", /Cross-WLF/],
+      ["rotational", /preview mode has no workbook/],
+    ] as const) {
+      expect({ id, disabled: await page.locator(`#${id}`).isDisabled() }).toEqual({ id, disabled: true });
+      expect(await page.locator(`#${id}-reason`).textContent()).toMatch(reason);
+    }
+    const look = (sel: string) => page.locator(sel).evaluate((el) => ({ background: getComputedStyle(el).backgroundColor, border: getComputedStyle(el).borderStyle }));
+    expect(await look("#glassTransitionTemperatureC")).not.toEqual(await look("#heatingDensity"));
+    expect(await look("#glassTransitionTemperatureC")).toEqual({ background: "rgb(236, 238, 237)", border: "dashed" });
+    // the labels are the shared words of each setting
+    expect(await page.locator("#material-label").textContent()).toBe("Material class");
+    expect(await page.locator("#masterModel-label").textContent()).toBe("Fit across temperatures");
+    // paste: the model list follows the class (yield-stress models added), and the run fits them
+    await page.check("#material-paste");
+    expect(await page.locator("#models-summary").textContent()).toMatch(/Herschel–Bulkley/);
+    await reduceDemo(page);
+    expect(await page.locator('table[data-block="ranking-1"] tbody').textContent()).toContain("herschel-bulkley");
+    expect(await page.locator('table[data-block="method-settings"]').textContent()).toContain("paste");
+    // melt again: the yield-stress models leave the list and the ranking
+    await page.locator("#reduce-form > summary").click();
+    await page.check("#material-melt");
+    expect(await page.locator("#models-summary").textContent()).not.toMatch(/Herschel–Bulkley/);
+    await page.selectOption("#temperatureShift", "arrhenius");
+    expect(await page.locator("#verticalShiftPerK").isDisabled()).toBe(false);
+    expect(await page.locator("#glassTransitionTemperatureC").isDisabled()).toBe(true);
+    await page.selectOption("#masterModel", "carreau-yasuda");
+    await page.fill("#referenceTemperatureC", "210");
+    await page.check("#rotational-demo");
+    await page.locator("#field-glassTransitionTemperatureC").evaluate((el) => el.closest(".field")?.scrollIntoView());
+    await page.screenshot({ path: join(OUT, "pane-350-10-fit-settings.png") });
+    await page.click("#run");
+    await page.waitForSelector('[data-card="masterfit"]');
+    expect(await page.locator('table[data-block="ranking-1"] tbody').textContent()).not.toContain("herschel-bulkley");
+    // the core's run on the same settings: what the cards must show
+    const text = readFileSync(join(ROOT, "workbooks/demo-film-grade.csv"), "utf8");
+    const raw = readRawTable(parseCsv(text).lines.map((l) => l.cells));
+    const settings = { ...DEFAULT_PANE_SETTINGS, temperatureShift: "arrhenius" as const, referenceTemperatureC: 210, masterModel: "carreau-yasuda" as const };
+    const request = readPaneSettings(settings).request;
+    const core = coreRunReduction(raw.measurements, request.options, { ...request.fits, compare: settings.models, rotational: readRotationalTable(parseCsv(readFileSync(join(ROOT, "workbooks/demo-film-grade-rotational.csv"), "utf8")).lines.map((l) => l.cells)).curve });
+    const master = (await page.locator('[data-card="masterfit"]').textContent()) ?? "";
+    expect(master).toContain("Carreau–Yasuda × Arrhenius");
+    const ea = /Ea \[kJ\/mol\]([\d.]+) ± /.exec(master);
+    expectClose(Number(ea?.[1]), (core.master?.activationEnergy as number) / 1e3, { rel: 6e-4 }, "Ea on the card, kJ/mol");
+    expect(master).toMatch(/Not determined by the data/);
+    const joined = (await page.locator('[data-card="rotational"]').textContent()) ?? "";
+    const ratio = /rotational\/capillary ([\d.]+)/.exec(joined);
+    expectClose(Number(ratio?.[1]), core.joined?.join.overlap?.ratio as number, { rel: 6e-4 }, "overlap ratio on the card");
+    expect(joined).toMatch(/Within tolerance\s*yes/);
+    // the shared tables of both, folded with the other tables; key columns without sideways scrolling
+    await page.locator("details.tables > summary").evaluateAll((ss) => ss.forEach((s) => ((s.parentElement as HTMLDetailsElement).open = true)));
+    for (const id of ["masterfit", "rotational-join"]) {
+      const wrap = page.locator(".table-wrap", { has: page.locator(`table[data-block="${id}"]`) });
+      expect({ id, sideways: await wrap.evaluate((w) => w.scrollWidth - w.clientWidth) }).toEqual({ id, sideways: 0 });
+    }
+    const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+    expect(overflow).toBeLessThanOrEqual(0);
+    await page.locator('[data-card="masterfit"]').screenshot({ path: join(OUT, "pane-350-11-master-card.png") });
+    await page.locator('[data-card="rotational"]').screenshot({ path: join(OUT, "pane-350-12-rotational-card.png") });
+    await page.locator('table[data-block="masterfit"]').screenshot({ path: join(OUT, "pane-350-13-master-table.png") });
+    await page.evaluate(() => document.querySelectorAll("details").forEach((d) => ((d as HTMLDetailsElement).open = true)));
+    expect(await axeViolations(page, "fit across temperatures and rotational join")).toEqual([]);
+    // an error of the new settings shows next to its field: a law-needing model without a law
+    await page.selectOption("#temperatureShift", "none");
+    await page.selectOption("#masterModel", "cross");
+    await page.fill("#stabilityThresholdPercent", "150");
+    await page.click("#run");
+    await page.waitForSelector("#temperatureShift-error:not([hidden])");
+    expect(await page.locator("#stabilityThresholdPercent-error").textContent()).toMatch(/below 100 %/);
+    expect(await page.locator("#stabilityThresholdPercent-label").textContent()).toBe("Repeat stability limit [%]");
+    expect(await page.locator("#temperatureShift-error").textContent()).toMatch(/“Fit across temperatures”/);
+    expect(await page.locator("#temperatureShift").getAttribute("aria-invalid")).toBe("true");
+    expect(errors.filter((e) => !/CustomFunctions/.test(e))).toEqual([]);
+    await page.close();
+  }, 120_000);
 
   test("axe-core finds no WCAG 2.1 A/AA violation: start, results with every fold open, planner and lot results (350 px)", async () => {
     const { page } = await openPane(350);

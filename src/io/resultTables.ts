@@ -688,7 +688,7 @@ function masterTable(run: ReductionRun): ResultTable | null {
 }
 
 /** The fit across temperatures: the model's parameters at T_ref and the law's constants, then a_T. */
-function masterFitTables(run: ReductionRun): ResultTable[] {
+export function masterFitTables(run: Pick<ReductionRun, "master">): ResultTable[] {
   const m = run.master;
   if (!m) return [];
   const specs = m.model === "cross-wlf" ? CROSS_WLF_LITERATURE : getModel(m.model).parameters;
@@ -722,7 +722,7 @@ function masterFitTables(run: ReductionRun): ResultTable[] {
 }
 
 /** The rotational curve joined to the capillary one: the verdict on the joined curve, the overlap in the notes. */
-function joinedTable(run: ReductionRun): ResultTable | null {
+export function joinedTable(run: Pick<ReductionRun, "joined">): ResultTable | null {
   const j = run.joined;
   if (!j) return null;
   const t = verdictTable(`rotational + capillary${j.temperature === null ? "" : `, ${Number((j.temperature - 273.15).toPrecision(5))} °C`}`, j.fits.verdict, "rotationalJoin", "Rotational and capillary joined");

@@ -3,7 +3,8 @@
  * curve with the standard error of the wall stress (and, when asked for, the ± columns of the
  * transducer uncertainty and the Schümmer cross-check), the orifice/Bagley entrance pressures,
  * the extensional, heating and pressure-dependence tables, the model ranking and fitted
- * parameters; then the slip table and the temperature shift. Chart data on the right; native
+ * parameters; then the slip table, the temperature shift, the fit across temperatures and the
+ * rotational join (the shared result tables, resultsFitBlocks.ts). Chart data on the right; native
  * charts (Bagley plot per group with its lines extended to zero pressure, log–log flow curve,
  * viscosity with the best model of each group or every model, n' vs rate, master curve).
  * Values are SI from the core converted once to the display units {@link DEFAULT_OUTPUT_UNITS}.
@@ -18,6 +19,7 @@ import { recommendedFit } from "./recommendedFit";
 import { GROUP_COLOURS, seriesLook, bagleyChart, bagleyChartData, masterChartData, modelChartData, summaryCharts } from "./resultsCharts";
 import { BlockDraft, DEFAULT_OUTPUT_UNITS, bagleyBlock, fitBlocks, flowBlock, fmt } from "./resultsFlowBlocks";
 import { methodBlocks, shiftBlocks, slipBlock } from "./resultsMethodBlocks";
+import { joinedBlocks, masterFitBlocks } from "./resultsFitBlocks";
 import type { RunOutput } from "./runReduction";
 import { groupLabel } from "./runReduction";
 import { CellBlock, CellValue, ChartSpec, SeriesSpec, SheetPlan, blockLayout } from "./sheetPlan";
@@ -122,6 +124,17 @@ export function buildResultsPlan(run: RunOutput, meta: PlanMeta): SheetPlan {
     const master = masterChartData(run.shift);
     const block = right.add(master.block);
     master.runs.forEach((r, k) => masterSeries.push({ name: r.name, blockId: block.id, xColumn: 1, yColumn: 2, firstRow: r.firstRow, rowCount: r.rowCount, style: "markers", ...seriesLook(k) }));
+  }
+
+  const master = masterFitBlocks(run);
+  if (master.length > 0) {
+    left.add({ id: "section-masterfit", role: "heading", title: "Fit across temperatures", rows: [] }, 0);
+    for (const b of master) left.add(b);
+  }
+  const joined = joinedBlocks(run);
+  if (joined.length > 0) {
+    left.add({ id: "section-rotational", role: "heading", title: `Rotational data joined (${run.input.rotational?.label ?? "rotational curve"})`, rows: [] }, 0);
+    for (const b of joined) left.add(b);
   }
 
   const charts = [...summaryCharts({ flow: flowSeries, viscosity: viscositySeries, nPrime: nPrimeSeries, master: masterSeries }, run.shift), ...bagleyCharts];

@@ -4,7 +4,9 @@
  * lets a browser repaint; everything computed here is computed by src/core.
  */
 import { RheoError, Warning } from "../core/errors";
-import { runReduction as coreRunReduction, trueFlowCurve, type RunShift } from "../core/run";
+import { runReduction as coreRunReduction, trueFlowCurve, type RunMasterFit, type RunShift } from "../core/run";
+import type { JoinedFit } from "../core/joinedFit";
+import { readRotationalTable } from "../io/rotationalTable";
 import type { ReductionGroup, ReductionResult } from "../core/reduce";
 import type { CompareResult } from "../core/fit";
 import type { Verdict } from "../core/fit/verdict";
@@ -23,6 +25,11 @@ export interface RunInput {
   dies: DieEntry[];
   /** where the data came from, for the method record (e.g. "Data!A1:F82") */
   sourceLabel: string;
+  /**
+   * the rotational curve's cells (header row first, as Excel returns them) when the settings name
+   * one, read by the panel from the range or table given (the demo curve in preview mode)
+   */
+  rotational?: { cells: unknown[][]; label: string };
 }
 
 /** A fitted model's viscosity on a smooth grid, for the charts. */
@@ -50,6 +57,10 @@ export interface RunOutput {
   fits: GroupFits[];
   /** the temperature shift (null when not asked for) */
   shift: RunShift | null;
+  /** the fit across temperatures (null when not asked for) */
+  master: RunMasterFit | null;
+  /** the rotational curve joined to the capillary one and its fits (null when none was given) */
+  joined: JoinedFit | null;
   /** every warning of the run (the core's one list): reading, reduction, fits, shift */
   warnings: Warning[];
 }
@@ -96,6 +107,8 @@ export function fieldOfError(error: RheoError): FieldId {
   };
   const direct = byArgument[a] ?? FIELD_OF_SETTING_KEY[a];
   if (direct) return direct;
+  // the rotational table's reader and the join name "rotational …" (a column, a cell, the curve)
+  if (a.startsWith("rotational")) return "rotational";
   if (a.startsWith("curves")) return "temperatureShift";
   // a value in a data cell: the reader names it "<header> (column N)" or "row N" / "line N"
   if (error.row !== undefined || /\(column \d+\)$/.test(a) || /^(row|line) \d+$/.test(a)) return "source";
@@ -109,7 +122,10 @@ export function toFieldError(error: unknown): PaneFieldError {
   if (error instanceof RheoError) {
     const field = fieldOfError(error);
     // a failure not tied to one field keeps the argument's name in its message
-    return new PaneFieldError({ field, message: field === "run" ? sentence(error.message) : detailOf(error) });
+    if (field === "run") return new PaneFieldError({ field, message: sentence(error.message) });
+    // a column or cell of the rotational table: its header stays in the message (the field names only the range)
+    const where = field === "rotational" ? error.argument.replace(/^rotational[.\s]*/, "") : "";
+    return new PaneFieldError({ field, message: where === "" ? detailOf(error) : sentence(`${where}: ${error.row !== undefined ? `row ${error.row}: ` : ""}${error.detail}`) });
   }
   return new PaneFieldError({ field: "run", message: `Unexpected problem: ${error instanceof Error ? error.message : String(error)}` });
 }
@@ -133,6 +149,16 @@ function modelCurves(group: ReductionGroup, compare: CompareResult | null): Mode
 }
 
 /**
+ * The rotational curve of a run through the shared table reader (src/io/rotationalTable.ts), its
+ * errors named "rotational" (the field).
+ * @throws RheoError("missing", "rotational") when the settings name a curve the panel did not read
+ */
+function readRotational(input: RunInput) {
+  if (!input.rotational) throw new RheoError("missing", "rotational", "was not read: give a range or table name, or clear the field");
+  return readRotationalTable(input.rotational.cells, { rowWord: "row", argument: "rotational" });
+}
+
+/**
  * Runs a whole reduction: the settings through the shared reader (every problem at once), the
  * column mapping, the shared table reader, then the core's one run (reduction, model ranking,
  * temperature shift, one warning list), reporting progress between steps.
@@ -153,8 +179,10 @@ export async function runReduction(
     const raw = readRawTable(cells, { rowWord: "row" });
     onProgress("Corrections, model fits and shift", 0.2);
     await pause();
-    const fits = settings.models.length > 0 ? { ...request.fits, compare: settings.models } : { ...request.fits, compare: undefined, rank: false };
-    const run = coreRunReduction(raw.measurements, request.options, fits, raw.warnings);
+    const rotational = request.input.rotational === undefined ? null : readRotational(input);
+    const models = settings.models.length > 0 ? { compare: settings.models } : { compare: undefined, rank: false };
+    const fits = { ...request.fits, ...models, ...(rotational ? { rotational: rotational.curve } : {}) };
+    const run = coreRunReduction(raw.measurements, request.options, fits, [...raw.warnings, ...(rotational?.warnings ?? [])]);
     onProgress("Reduction done", 0.9);
     return {
       input,
@@ -167,6 +195,8 @@ export async function runReduction(
         return { compare, verdict: run.groupFits[i]?.verdict ?? null, curves: modelCurves(g, compare) };
       }),
       shift: run.shift ?? null,
+      master: run.master ?? null,
+      joined: run.joined ?? null,
       warnings: run.warnings,
     };
   } catch (error) {

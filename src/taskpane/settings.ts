@@ -8,7 +8,9 @@ import { DEFAULT_RABINOWITSCH_OPTIONS, RabinowitschMethod } from "../core/rabino
 import { DEFAULT_REDUCE_OPTIONS, ReduceOptions } from "../core/reduce";
 import { MODEL_REGISTRY, type ModelId } from "../core/models";
 import { DEFAULT_UNCERTAINTY_OPTIONS } from "../core/uncertainty";
-import { KEYED_SETTINGS_SOURCE, collectReduceSettings, type ReduceRequest } from "../io/reduceOptions";
+import { defaultModels, type MaterialClass } from "../core/flowCurveFits";
+import { MASTER_MODELS, type MasterModel } from "../core/temperature/masterFit";
+import { REDUCE_SETTING_DEFAULTS, collectReduceSettings, reduceSetting, type ReduceRequest, type ReduceSettingSpec, type ReduceSettingsSource } from "../io/reduceOptions";
 import { REDUCE_SETTING_WORDS, type ReduceSettingWords } from "../io/reduceSettingWords";
 import { detailOf, sentence } from "./panelContract";
 import { modelName } from "../io/displayNames";
@@ -52,6 +54,25 @@ export interface PaneSettings {
   referenceTemperatureC: number | null;
   /** the model drawn over each group's points on the viscosity chart: "best" (lowest AIC) or one of `models` */
   chartModel: "best" | ModelId;
+  /** melt (no yield stress, η∞ held at 0) or paste; the default list of `models` follows it */
+  material: MaterialClass;
+  /** the fit across temperatures ("none": not asked for); with the temperature shift's law and reference temperature */
+  masterModel: "none" | MasterModel;
+  /** Cross-WLF's D2 (T*) in °C to hold, or null: fitted */
+  crossWlfD2C: number | null;
+  /**
+   * where the rotational curve to join is: a range or table name in Excel, the demo curve's label
+   * in preview mode; null when none is joined
+   */
+  rotational: string | null;
+  /** WLF only: glass transition temperature in °C (the universal C2 when the data cannot fit it), or null */
+  glassTransitionTemperatureC: number | null;
+  /** with a temperature shift: the melt's volumetric expansion coefficient in 1/K for the vertical shift, or null: none */
+  verticalShiftPerK: number | null;
+  /** slit dies: the finite-width (edge) correction of the true wall rate */
+  slitEdgeCorrection: boolean;
+  /** repeated speeds: largest change of pressure, in %, before a repeat counts as drifted; null: the core's default */
+  stabilityThresholdPercent: number | null;
 }
 
 /** Models the pane offers: every isothermal model of the registry (Cross-WLF needs T per point). */
@@ -59,13 +80,21 @@ export const PANE_MODELS: readonly ModelId[] = (Object.keys(MODEL_REGISTRY) as M
   (id) => !MODEL_REGISTRY[id].needsTemperature,
 );
 
+/** The models the pane fits by default for a material class: the core's default list (isothermal models only). */
+export function paneDefaultModels(material: MaterialClass): ModelId[] {
+  return defaultModels(material).filter((m) => PANE_MODELS.includes(m));
+}
+
+/** The choices of "Fit across temperatures": none, then the core's models of the fit across temperatures. */
+export const PANE_MASTER_MODELS: readonly ("none" | MasterModel)[] = Object.freeze(["none", ...MASTER_MODELS]);
+
 /** Defaults of {@link PaneSettings}; the core's own defaults where the core has one. */
 export const DEFAULT_PANE_SETTINGS: Readonly<PaneSettings> = Object.freeze({
   endCorrection: DEFAULT_REDUCE_OPTIONS.endCorrection,
   rabinowitschMethod: DEFAULT_RABINOWITSCH_OPTIONS.method,
   rabinowitschDegree: DEFAULT_RABINOWITSCH_OPTIONS.degree,
   rabinowitschWindow: DEFAULT_RABINOWITSCH_OPTIONS.window,
-  models: ["power-law", "cross", "carreau", "carreau-yasuda"] as ModelId[],
+  models: paneDefaultModels("melt"),
   transducerRangeBar: null,
   transducerAccuracyPercent: 0.25,
   representativeRate: false,
@@ -80,6 +109,14 @@ export const DEFAULT_PANE_SETTINGS: Readonly<PaneSettings> = Object.freeze({
   temperatureShift: "none",
   referenceTemperatureC: null,
   chartModel: "best",
+  material: "melt",
+  masterModel: "none",
+  crossWlfD2C: null,
+  rotational: null,
+  glassTransitionTemperatureC: null,
+  verticalShiftPerK: null,
+  slitEdgeCorrection: false,
+  stabilityThresholdPercent: null,
 });
 
 /** The fields of the pane a message can be shown next to. */
@@ -103,6 +140,14 @@ export type FieldId =
   | "referenceTemperatureC"
   | "slip"
   | "chartModel"
+  | "material"
+  | "masterModel"
+  | "crossWlfD2C"
+  | "rotational"
+  | "glassTransitionTemperatureC"
+  | "verticalShiftPerK"
+  | "slitEdgeCorrection"
+  | "stabilityThresholdPercent"
   | "run";
 
 /** The reduce setting key (src/io/reduceOptions.ts) behind each pane field that reads one. */
@@ -125,6 +170,14 @@ export const SETTING_KEY_OF_FIELD = Object.freeze({
   heatingTemperatureCoefficient: "heatingTemperatureCoefficient",
   temperatureShift: "shift",
   referenceTemperatureC: "referenceTemperature",
+  material: "material",
+  masterModel: "master",
+  crossWlfD2C: "crossWlfD2",
+  rotational: "rotational",
+  glassTransitionTemperatureC: "glassTransitionTemperature",
+  verticalShiftPerK: "verticalShift",
+  slitEdgeCorrection: "slitEdgeCorrection",
+  stabilityThresholdPercent: "stabilityThreshold",
 } as const satisfies Partial<Record<keyof PaneSettings, string>>);
 
 /** The pane field of a reduce setting key (the reverse of {@link SETTING_KEY_OF_FIELD}). */
@@ -158,7 +211,48 @@ export const SETTING_HELP = {
   temperatureShift: choices<"none" | "arrhenius" | "wlf">("shift"),
   referenceTemperatureC: help("referenceTemperature"),
   chartModel: "The model drawn through each group's points on the viscosity chart: the recommended one (lowest AIC among those the data determine) or one you choose. The sheet lists every fitted model.",
+  material: choices<MaterialClass>("material"),
+  masterModel: { none: "No fit across temperatures: each temperature is fitted on its own.", ...choices<MasterModel>("master") } as Readonly<Record<"none" | MasterModel, string>>,
+  crossWlfD2C: help("crossWlfD2"),
+  // the shared help speaks of a CSV file; the pane reads a range or table
+  rotational:
+    "A range or table holding a rotational-rheometer curve at one of the test temperatures: angular_frequency [rad/s] with complex_viscosity [Pa.s] (joined by the Cox–Merz rule), or shear_rate [1/s] with viscosity [Pa.s]; optionally temperature [C]. It is joined to the capillary curve of its temperature and the joined curve is fitted.",
+  glassTransitionTemperatureC: help("glassTransitionTemperature"),
+  verticalShiftPerK: help("verticalShift"),
+  slitEdgeCorrection: help("slitEdgeCorrection"),
+  stabilityThresholdPercent: help("stabilityThreshold"),
 } as const;
+
+/**
+ * The label of a pane field that reads one reduce setting: the shared plain label
+ * (src/io/reduceSettingWords.ts) with the unit a bare number is read in, e.g.
+ * "Glass transition temperature [°C]".
+ */
+export function settingLabel(field: keyof typeof SETTING_KEY_OF_FIELD): string {
+  const key = SETTING_KEY_OF_FIELD[field];
+  const unit = reduceSetting(key).unit;
+  return unit ? `${words(key).label} [${unit}]` : words(key).label;
+}
+
+/**
+ * How the pane gives its values to the shared reader: by key, bare numbers in the display units,
+ * the reference temperature optional; messages name a setting by its label in quotes
+ * ("“Temperature shift”"), the words on screen, never by its key.
+ */
+export const PANE_SETTINGS_SOURCE: ReduceSettingsSource = Object.freeze({
+  nameOf: (spec: ReduceSettingSpec) => `“${words(spec.key).label}”`,
+  bareNumbersInDisplayUnits: true,
+  requireReferenceTemperature: false,
+});
+
+/** The setting key of a name {@link PANE_SETTINGS_SOURCE} gives (a compound part: "“Viscous heating” density" → heating). */
+function keyOfPaneName(name: string): string {
+  for (const [key, w] of Object.entries(REDUCE_SETTING_WORDS)) {
+    const quoted = `“${w.label}”`;
+    if (name === quoted || name.startsWith(`${quoted} `)) return key;
+  }
+  return name;
+}
 
 /** A message meant for one field of the pane. */
 export interface FieldError {
@@ -190,9 +284,36 @@ export function settingsRecord(s: PaneSettings): Record<string, unknown> {
   if (s.temperatureShift !== "none") {
     r.shift = s.temperatureShift;
     if (s.referenceTemperatureC !== null) r.referenceTemperature = s.referenceTemperatureC;
+    if (s.temperatureShift === "wlf" && s.glassTransitionTemperatureC !== null) r.glassTransitionTemperature = s.glassTransitionTemperatureC;
+    if (s.verticalShiftPerK !== null) r.verticalShift = s.verticalShiftPerK;
   }
+  r.material = s.material;
+  if (s.masterModel !== "none") {
+    r.master = s.masterModel;
+    if (s.masterModel === "cross-wlf" && s.crossWlfD2C !== null) r.crossWlfD2 = s.crossWlfD2C;
+  }
+  if (s.slitEdgeCorrection) r.slitEdgeCorrection = true;
+  if (s.stabilityThresholdPercent !== null) r.stabilityThreshold = s.stabilityThresholdPercent;
+  if (s.rotational !== null && s.rotational.trim() !== "") r.rotational = s.rotational;
   return r;
 }
+
+/** The number fields of the form: a text that is not a number is reported at its field before the shared reader runs. */
+const NUMBER_FIELDS = [
+  "rabinowitschDegree",
+  "rabinowitschWindow",
+  "transducerRangeBar",
+  "transducerAccuracyPercent",
+  "heatingDensity",
+  "heatingHeatCapacity",
+  "heatingConductivity",
+  "heatingTemperatureCoefficient",
+  "referenceTemperatureC",
+  "crossWlfD2C",
+  "glassTransitionTemperatureC",
+  "verticalShiftPerK",
+  "stabilityThresholdPercent",
+] as const;
 
 /**
  * Reads the settings through the shared reader and checks what only the pane has (the chart's
@@ -200,16 +321,16 @@ export function settingsRecord(s: PaneSettings): Record<string, unknown> {
  */
 export function readPaneSettings(s: PaneSettings): { request: ReduceRequest; problems: FieldError[] } {
   const problems: FieldError[] = [];
-  for (const k of ["rabinowitschDegree", "rabinowitschWindow", "transducerRangeBar", "transducerAccuracyPercent", "heatingDensity", "heatingHeatCapacity", "heatingConductivity", "heatingTemperatureCoefficient", "referenceTemperatureC"] as const) {
+  for (const k of NUMBER_FIELDS) {
     if (typeof s[k] === "number" && Number.isNaN(s[k])) problems.push({ field: k, message: "Give a number (a decimal point or comma), or leave it empty." });
   }
   const bad = new Set(problems.map((p) => SETTING_KEY_OF_FIELD[p.field as keyof typeof SETTING_KEY_OF_FIELD] as string));
   const record = Object.fromEntries(Object.entries(settingsRecord(s)).filter(([k]) => !bad.has(k)));
-  const { request, errors } = collectReduceSettings(record, KEYED_SETTINGS_SOURCE);
+  const { request, errors } = collectReduceSettings(record, PANE_SETTINGS_SOURCE);
   const typedBadly = new Set(problems.map((p) => p.field));
   for (const e of errors) {
-    // the reader names a part of a compound setting "heating density"; its argument is the key
-    const field = FIELD_OF_SETTING_KEY[e.argument] ?? FIELD_OF_SETTING_KEY[e.argument.split(" ")[0] as string] ?? "run";
+    // the reader names a setting by its label in quotes; the key behind the label gives the field
+    const field = FIELD_OF_SETTING_KEY[keyOfPaneName(e.argument)] ?? "run";
     if (typedBadly.has(field)) continue; // "not a number" already says it; the reader saw the field as empty
     problems.push({ field, message: field === "run" ? sentence(e.message) : detailOf(e) });
   }
@@ -268,6 +389,20 @@ export function describeSettings(s: PaneSettings): [string, string][] {
     ["Temperature shift", s.temperatureShift === "none" ? "none" : s.temperatureShift === "arrhenius" ? "Arrhenius" : "WLF"],
     ["Reference temperature", s.temperatureShift === "none" ? "not used" : s.referenceTemperatureC === null ? "middle temperature of the data" : `${s.referenceTemperatureC} °C`],
     ["Viscosity chart", s.chartModel === "best" ? "recommended model per group (lowest AIC among well-determined fits)" : `${modelName(s.chartModel)} for every group`],
+    [words("material").label, s.material],
+    [words("glassTransitionTemperature").label, s.temperatureShift !== "wlf" ? "not used (WLF shift only)" : s.glassTransitionTemperatureC === null ? "not given (C2 fitted)" : `${s.glassTransitionTemperatureC} °C`],
+    [words("verticalShift").label, s.temperatureShift === "none" ? "not used (no temperature shift)" : s.verticalShiftPerK === null ? "off" : `${s.verticalShiftPerK} 1/K`],
+    [
+      words("master").label,
+      s.masterModel === "none"
+        ? "none"
+        : s.masterModel === "cross-wlf"
+          ? `Cross-WLF (its own WLF law); D2 ${s.crossWlfD2C === null ? "fitted" : `${s.crossWlfD2C} °C`}`
+          : `${modelName(s.masterModel)} × ${s.temperatureShift === "arrhenius" ? "Arrhenius" : s.temperatureShift === "wlf" ? "WLF" : "no law given"}`,
+    ],
+    [words("rotational").label, s.rotational ?? "none"],
+    [words("slitEdgeCorrection").label, onOff(s.slitEdgeCorrection)],
+    [words("stabilityThreshold").label, s.stabilityThresholdPercent === null ? `default (${REDUCE_SETTING_DEFAULTS.stabilityThreshold} %)` : `${s.stabilityThresholdPercent} %`],
   ];
 }
 

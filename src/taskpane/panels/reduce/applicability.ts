@@ -10,7 +10,7 @@ import { isOrificeDie } from "../../../core/orifice";
 import { DEFAULT_REDUCE_OPTIONS, type Measurement } from "../../../core/reduce";
 
 /** A setting the data decide about. */
-export type DataDependentSetting = "bagley" | "orifice" | "slip" | "pressureDependence" | "extensional" | "temperatureShift";
+export type DataDependentSetting = "bagley" | "orifice" | "slip" | "pressureDependence" | "extensional" | "temperatureShift" | "master" | "crossWlf" | "slitEdgeCorrection";
 
 /** Whether a setting applies, and if not, why (in words for the field). */
 export type Applicability = Readonly<Record<DataDependentSetting, { ok: boolean; reason: string }>>;
@@ -48,5 +48,9 @@ export function applicability(measurements: readonly Measurement[]): Applicabili
     pressureDependence: maxLong >= 3 ? ok : { ok: false, reason: `needs three or more die lengths of one bore; the data have ${maxLong}` },
     extensional: maxLong >= 2 || anyOrifice ? ok : { ok: false, reason: "needs an entrance pressure: two or more die lengths, or an orifice die" },
     temperatureShift: temps.size >= 2 ? ok : { ok: false, reason: `needs flow curves at two or more temperatures; the data have ${temps.size}` },
+    master: temps.size >= 2 ? ok : { ok: false, reason: `needs flow curves at two or more temperatures; the data have ${temps.size}` },
+    // Cross-WLF's η0(T) has three constants (D1, D2, A1): three temperatures at least (temperature/masterFit.ts)
+    crossWlf: temps.size >= 3 ? ok : { ok: false, reason: `Cross-WLF needs flow curves at three or more temperatures; the data have ${temps.size}` },
+    slitEdgeCorrection: groups.some((g) => g.slit !== undefined) ? ok : { ok: false, reason: "needs a slit die; the data have round dies only" },
   };
 }

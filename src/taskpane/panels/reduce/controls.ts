@@ -18,9 +18,10 @@ import { fail, pause, state } from "../../paneState";
 import { buildWorkbookPlan } from "../../plan";
 import { RunOutput, runReduction } from "../../runReduction";
 import { runToSheet } from "../../runToSheet";
-import { DEFAULT_PANE_SETTINGS, PANE_MODELS, PaneSettings, SETTING_HELP, parseNumberField, usesDegree } from "../../settings";
+import { DEFAULT_PANE_SETTINGS, PANE_MODELS, PaneSettings, SETTING_HELP, paneDefaultModels, parseNumberField, usesDegree } from "../../settings";
 import { refreshWorkbookLists } from "../share/controls";
 import { applicability, type Applicability, type DataDependentSetting } from "./applicability";
+import { fitSettingsMode, readFitSettings, readRotationalInput, updateFitApplicability, wireFitSettings, writeFitSettings } from "./fitControls";
 import { reducePanel } from "./index";
 import { resultsHtml } from "./resultsView";
 
@@ -57,8 +58,8 @@ function measurementsNow() {
   }
 }
 
-/** The control a data-dependent setting switches off, and the box its reason goes to. */
-const DEPENDENT: Readonly<Record<DataDependentSetting, { control: string; reason: string }>> = Object.freeze({
+/** The control a data-dependent setting switches off, and the box its reason goes to (the fit settings': fitControls.ts). */
+const DEPENDENT: Readonly<Record<Exclude<DataDependentSetting, "master" | "crossWlf" | "slitEdgeCorrection">, { control: string; reason: string }>> = Object.freeze({
   bagley: { control: "end-bagley", reason: "end-bagley-help" },
   orifice: { control: "end-orifice", reason: "end-orifice-help" },
   slip: { control: "check-slip", reason: "slip-reason" },
@@ -74,7 +75,7 @@ const DEPENDENT: Readonly<Record<DataDependentSetting, { control: string; reason
 function updateApplicability(): void {
   const m = measurementsNow();
   const a: Applicability | null = m ? applicability(m) : null;
-  for (const [key, where] of Object.entries(DEPENDENT) as [DataDependentSetting, (typeof DEPENDENT)[DataDependentSetting]][]) {
+  for (const [key, where] of Object.entries(DEPENDENT) as [keyof typeof DEPENDENT, (typeof DEPENDENT)[keyof typeof DEPENDENT]][]) {
     const control = byId<HTMLInputElement | HTMLSelectElement>(where.control);
     const verdict = a?.[key] ?? { ok: true, reason: "" };
     control.disabled = !verdict.ok;
@@ -95,6 +96,7 @@ function updateApplicability(): void {
   const end = document.querySelector<HTMLInputElement>("input[name=endCorrection]:checked");
   if (end?.disabled) byId<HTMLInputElement>(a?.bagley.ok ? "end-bagley" : a?.orifice.ok ? "end-orifice" : "end-none").checked = true;
   updateOptionalHelp();
+  updateFitApplicability(a);
 }
 
 /** Reads the data (the demo table in preview, the given range or table in Excel) and maps its columns. */
@@ -137,6 +139,7 @@ function readSettingsFromForm(): PaneSettings {
     temperatureShift: byId<HTMLSelectElement>("temperatureShift").value as PaneSettings["temperatureShift"],
     referenceTemperatureC: parseNumberField(byId<HTMLInputElement>("referenceTemperatureC").value),
     chartModel: byId<HTMLSelectElement>("chartModel").value as PaneSettings["chartModel"],
+    ...readFitSettings(),
   };
 }
 
@@ -149,6 +152,7 @@ function updateOptionalHelp(): void {
   const shift = byId<HTMLSelectElement>("temperatureShift").value as PaneSettings["temperatureShift"];
   byId("temperatureShift-help").textContent = SETTING_HELP.temperatureShift[shift] ?? "";
   byId<HTMLInputElement>("referenceTemperatureC").disabled = shift === "none";
+  updateFitApplicability();
 }
 
 /** The models to fit, the fold's summary naming them, and the chart chooser offering them (`render`: the check boxes too). */
@@ -178,6 +182,7 @@ function writeSettingsToForm(s: PaneSettings): void {
   for (const k of ["representativeRate", "slip", "extensional", "pressureDependence", "heating"] as const) byId<HTMLInputElement>(`check-${k}`).checked = s[k];
   for (const k of ["heatingDensity", "heatingHeatCapacity", "heatingConductivity", "heatingTemperatureCoefficient", "referenceTemperatureC"] as const) byId<HTMLInputElement>(k).value = numberText(s[k]);
   byId<HTMLSelectElement>("temperatureShift").value = s.temperatureShift;
+  writeFitSettings(s);
   updateOptionalHelp();
   setModels(s.models, s.chartModel);
   updateMethodHelp();
@@ -193,7 +198,8 @@ function run(): Promise<void> {
     compute: async (progress) => {
       if (!state.cells) await loadSource();
       state.settings = readSettingsFromForm();
-      return runReduction({ cells: state.cells as unknown[][], columns: state.columns, dies: state.dies, sourceLabel: state.sourceLabel }, state.settings, progress, pause);
+      const rotational = await readRotationalInput(state.settings);
+      return runReduction({ cells: state.cells as unknown[][], columns: state.columns, dies: state.dies, sourceLabel: state.sourceLabel, ...(rotational ? { rotational } : {}) }, state.settings, progress, pause);
     },
     plans: (out, [results, method], meta) => {
       const plan = buildWorkbookPlan(out, { ...meta, names: { results: results as string, method: method as string } });
@@ -214,6 +220,16 @@ function run(): Promise<void> {
   });
 }
 
+/**
+ * The model list follows the material class while it is the class's default list (a paste adds the
+ * yield-stress models, a melt drops them); a list the user chose stays as chosen.
+ */
+function followMaterial(from: PaneSettings["material"], to: PaneSettings["material"]): void {
+  const same = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((m) => b.includes(m));
+  if (!same(state.settings.models, paneDefaultModels(from))) return;
+  setModels(paneDefaultModels(to), byId<HTMLSelectElement>("chartModel").value as PaneSettings["chartModel"]);
+}
+
 /** Keeps a reduction for the panels: its flow curves become lot choices, its best fit a prior. */
 function rememberRun(output: RunOutput): void {
   state.lastRun = output;
@@ -222,6 +238,7 @@ function rememberRun(output: RunOutput): void {
 
 /** Fills the settings form and attaches the Data, Settings and Run controls. */
 export function wireReduction(): void {
+  wireFitSettings(followMaterial);
   writeSettingsToForm(state.settings);
   setDies([]);
   byId("rabinowitschMethod").addEventListener("change", updateMethodHelp);
@@ -262,6 +279,7 @@ export function reductionMode(mode: HostMode): void {
   const source = byId<HTMLInputElement>("source");
   source.readOnly = preview;
   source.value = preview ? DEMO_CSV_LABEL : "";
+  fitSettingsMode(mode);
   byId("table-pick").hidden = preview;
   byId("table-pick-label").hidden = preview;
   byId("run").textContent = preview ? "Reduce the demo data" : "Reduce into new sheets";

@@ -6,7 +6,7 @@
  */
 import type { PanePanel } from "../../panelContract";
 import { SHEET_BASE_NAMES } from "../../excelWriter";
-import type { FieldId } from "../../settings";
+import { settingLabel, type FieldId } from "../../settings";
 import { reductionMode, wireReduction } from "./controls";
 
 export const reducePanel: PanePanel & { fields: Readonly<Record<FieldId, { control: string; label: string }>> } = {
@@ -34,6 +34,14 @@ export const reducePanel: PanePanel & { fields: Readonly<Record<FieldId, { contr
     temperatureShift: { control: "temperatureShift", label: "Temperature shift" },
     referenceTemperatureC: { control: "referenceTemperatureC", label: "Reference temperature [°C]" },
     chartModel: { control: "chartModel", label: "Model on the viscosity chart" },
+    material: { control: "material-melt", label: settingLabel("material") },
+    masterModel: { control: "masterModel", label: settingLabel("masterModel") },
+    crossWlfD2C: { control: "crossWlfD2C", label: settingLabel("crossWlfD2C") },
+    rotational: { control: "rotational", label: settingLabel("rotational") },
+    glassTransitionTemperatureC: { control: "glassTransitionTemperatureC", label: settingLabel("glassTransitionTemperatureC") },
+    verticalShiftPerK: { control: "verticalShiftPerK", label: settingLabel("verticalShiftPerK") },
+    slitEdgeCorrection: { control: "slitEdgeCorrection", label: settingLabel("slitEdgeCorrection") },
+    stabilityThresholdPercent: { control: "stabilityThresholdPercent", label: settingLabel("stabilityThresholdPercent") },
     run: { control: "run", label: "Reduce into new sheets" },
   },
   wire: wireReduction,

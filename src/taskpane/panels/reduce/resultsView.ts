@@ -15,6 +15,8 @@ import { chartFigureHtml, tableHtml } from "../../preview";
 import { groupLabel, type RunOutput } from "../../runReduction";
 import type { SheetPlan, WorkbookPlan } from "../../sheetPlan";
 import { escapeXml } from "../../svgChart";
+import { joinedCard, masterFitCard } from "./fitCards";
+import { shownNumber } from "./shownNumber";
 
 /** Words of each severity, most important first. */
 export const SEVERITY_WORDS: Readonly<Record<WarningSeverity, { heading: string; one: string }>> = Object.freeze({
@@ -23,13 +25,7 @@ export const SEVERITY_WORDS: Readonly<Record<WarningSeverity, { heading: string;
   info: { heading: "For the record", one: "info" },
 });
 
-/** A number as shown: 4 significant digits, exponent outside 1e-3…1e5. */
-export function shownNumber(v: number): string {
-  if (!Number.isFinite(v)) return String(v);
-  const a = Math.abs(v);
-  if (a !== 0 && (a >= 1e5 || a < 1e-3)) return v.toExponential(2).replace("e+", "e");
-  return Number(v.toPrecision(4)).toString();
-}
+export { shownNumber };
 
 /** Counts of warnings by severity. */
 export function severityCounts(warnings: readonly Warning[]): Record<WarningSeverity, number> {
@@ -123,7 +119,7 @@ export function resultsHtml(run: RunOutput, plan: WorkbookPlan, written: readonl
       ? `<p class="summary-box">Written to the new sheets “${escapeXml(written[0] ?? "")}” and “${escapeXml(written[1] ?? "")}”: every table in full, the charts and the method record.</p>`
       : `<p class="summary-box">Preview on the invented demo data: in Excel these tables and charts go to new sheets, every column in full.</p>`,
   );
-  out.push(`<div class="group-cards">${run.result.groups.map((_, i) => groupCard(run, i)).join("")}</div>`);
+  out.push(`<div class="group-cards">${run.result.groups.map((_, i) => groupCard(run, i)).join("")}${masterFitCard(run)}${joinedCard(run)}</div>`);
   out.push(`<div class="charts">${plan.results.charts.map((c) => chartFigureHtml(plan.results, c)).join("")}</div>`);
   out.push(`<div class="warnings-block">${warningsHtml(run.warnings)}</div>`);
   out.push(tablesOnDemand(plan.results));
