@@ -3,11 +3,19 @@
  *
  *   5. CLI cold start: `node bin/rheoledger.js reduce TINY.csv` against a bare `node -e 0`, the
  *      two interleaved in one run (wall time, medians); goal ≤ 1.5×.
- *   6. A 40,000-row file (4 dies × 10,000 piston speeds) reduced by the CLI against the in-process
- *      core time of the same reduction (reduce() on the measurements); goal ≤ 2×.
+ *   6. A 40,000-row file (4 dies × 10,000 piston speeds) reduced by the CLI (`reduce FILE --json`,
+ *      wall time of the whole process) against the WARM in-process core time of the same work:
+ *      runReduction() on the measurements (reduce() and the flow-curve fits, what the CLI's
+ *      `reduce` computes), already compiled by earlier calls; one in-process call between two CLI
+ *      runs, so that both sides see the same load; goal ≤ 2×. For information, the same CLI time
+ *      against the cold runReduction() inside each CLI run (RHEOLEDGER_TIMING), which includes the
+ *      compiler's warm-up, as every command line does.
  *   7. RHEO.WALLSTRESSAPP filled down 10,000 rows (per-row calls, 1×1 ranges as Excel passes them)
  *      against a plain loop over the same arithmetic (unit factors and the core function);
  *      CPU time of this process, so that other processes on a shared machine count less; goal ≤ 10×.
+ *      For information: the same calls on argument arrays built once, and a bare function of the
+ *      same shape (three 1×1 ranges in, [[value]] out, no units, no checks), the least any
+ *      worksheet function called this way can cost.
  *   8. A large CSV (200 MB by default, `--big` for 1 GB; far more rows than the limit) through the
  *      CLI: the time to its message and the process's peak memory (info: no goal but "a message,
  *      never a crash").
@@ -19,7 +27,8 @@ import { spawnSync } from "node:child_process";
 import { existsSync, mkdirSync, openSync, closeSync, statSync, writeSync } from "node:fs";
 import path from "node:path";
 import { performance } from "node:perf_hooks";
-import { type Measurement, reduce } from "../../src/core/reduce";
+import { type Measurement } from "../../src/core/reduce";
+import { runReduction } from "../../src/core/run";
 import { apparentWallShearStress } from "../../src/core/capillary";
 import { unitFactors } from "../../src/core/units";
 import { seededRandom } from "../../src/core/random";
@@ -128,20 +137,20 @@ export function inputBench(options: { quick: boolean; bigFile: boolean; hugeFile
   const big = runRows([5, 10, 20, 30], speeds);
   const file40k = path.join(CACHE, "bench-40k.csv");
   writeFile(file40k, big);
-  // the core time is the reduce() call inside each CLI run (RHEOLEDGER_TIMING), so both sides run
-  // as cold as a command line does; a warm in-process reduce() is shown beside it
+  // the goal compares the whole CLI run with a WARM in-process runReduction() of the same
+  // measurements (what `reduce FILE --json` computes: the reduction and the flow-curve fits), one
+  // warm call between two CLI runs so that both sides see the same load; the cold runReduction()
+  // inside each CLI run (RHEOLEDGER_TIMING "reduce") is shown for information
   const measurements = measurementsOf(big);
+  for (let i = 0; i < 3; i++) runReduction(measurements, {}); // compiled before the first timed call
   const warm: number[] = [];
-  reduce(measurements);
-  for (let i = 0; i < reps(7); i++) {
-    const t0 = performance.now();
-    reduce(measurements);
-    warm.push(performance.now() - t0);
-  }
   const cliTimes: number[] = [];
   const coreTimes: number[] = [];
   const readTimes: number[] = [];
-  for (let i = 0; i < reps(7); i++) {
+  for (let i = 0; i < reps(9); i++) {
+    const w0 = performance.now();
+    runReduction(measurements, {});
+    warm.push(performance.now() - w0);
     const t0 = performance.now();
     const r = spawnSync(process.execPath, [BIN, "reduce", file40k, "--json"], { encoding: "utf8", maxBuffer: 1 << 30, env: { ...process.env, RHEOLEDGER_TIMING: "1" } });
     cliTimes.push(performance.now() - t0);
@@ -149,11 +158,14 @@ export function inputBench(options: { quick: boolean; bigFile: boolean; hugeFile
     coreTimes.push(Number(/timing reduce ([\d.]+)/.exec(r.stderr)?.[1]));
     readTimes.push(Number(/timing read ([\d.]+)/.exec(r.stderr)?.[1]));
   }
-  const ratio40k = median(cliTimes) / median(coreTimes);
-  lines.push({ what: "CLI reduce, 40,000-row file ÷ its reduce() call", measured: `${ratio40k.toFixed(2)}× (${msText(median(cliTimes))} vs ${msText(median(coreTimes))})`, target: `≤ ${INPUT_TARGETS.cli40kOverCore}×`, verdict: ratio40k <= INPUT_TARGETS.cli40kOverCore ? "PASS" : "MISS" });
+  const ratio40k = median(cliTimes) / median(warm);
+  const ratioCold = median(cliTimes) / median(coreTimes);
+  lines.push({ what: "CLI reduce, 40,000-row file ÷ warm in-process runReduction()", measured: `${ratio40k.toFixed(2)}× (${msText(median(cliTimes))} vs ${msText(median(warm))})`, target: `≤ ${INPUT_TARGETS.cli40kOverCore}×`, verdict: ratio40k <= INPUT_TARGETS.cli40kOverCore ? "PASS" : "MISS" });
+  lines.push({ what: "same ÷ the cold runReduction() inside each CLI run (info)", measured: `${ratioCold.toFixed(2)}× (${msText(median(coreTimes))})`, target: "", verdict: "" });
   notes.push(
     `40,000-row file (${(statSync(file40k).size / 1e6).toFixed(1)} MB, 4 dies × 10,000 piston speeds): the CLI run ${msText(median(cliTimes))} = reading the file ${msText(median(readTimes))}, ` +
-      `the core's reduce() ${msText(median(coreTimes))} (cold, as in every CLI run; warm in-process ${msText(median(warm))}), the rest starting Node and printing the JSON document.`,
+      `the core's runReduction() (reduction and flow-curve fits) ${msText(median(coreTimes))} (cold: the compiler warms up inside every CLI run), the rest starting Node and printing the JSON document; ` +
+      `the same runReduction() warm in this process ${msText(median(warm))} (one call between two CLI runs).`,
   );
 
   // 7. per-row worksheet function against a plain loop
@@ -181,12 +193,24 @@ export function inputBench(options: { quick: boolean; bigFile: boolean; hugeFile
     for (let i = 0; i < cells.length; i++) t += (wallStressApp(cells[i] as number[][], one, twenty)[0] as unknown[])[0] as number;
     return t;
   };
+  // the least a worksheet function called this way can cost: three 1×1 ranges in, [[value]] out,
+  // the same arithmetic, no unit arguments, no checks of the cells
+  const bareFn = (p: unknown[][], d: unknown[][], l: unknown[][]): unknown[][] => [
+    [apparentWallShearStress(((p[0] as unknown[])[0] as number) * bar, ((d[0] as unknown[])[0] as number) * mm, ((l[0] as unknown[])[0] as number) * mm)],
+  ];
+  const bareRow = () => {
+    let t = 0;
+    for (let i = 0; i < pressures.length; i++) t += (bareFn([[pressures[i]]], [[1]], [[20]])[0] as unknown[])[0] as number;
+    return t;
+  };
   const rowCpu = cpu(perRow, reps(21), 30);
   const builtCpu = cpu(perRowBuilt, reps(21), 30);
+  const bareCpu = cpu(bareRow, reps(21), 30);
   const plainCpu = cpu(plain, reps(21), 300);
   const rowRatio = rowCpu / plainCpu;
   lines.push({ what: "RHEO.WALLSTRESSAPP per-row ÷ plain loop (CPU)", measured: `${rowRatio.toFixed(0)}× (${msText(rowCpu)} vs ${msText(plainCpu)} per 10,000 rows)`, target: `≤ ${INPUT_TARGETS.perRowOverPlain}×`, verdict: rowRatio <= INPUT_TARGETS.perRowOverPlain ? "PASS" : "MISS" });
   lines.push({ what: "same, argument arrays built once (info)", measured: `${(builtCpu / plainCpu).toFixed(0)}× (${msText(builtCpu)})`, target: "", verdict: "" });
+  lines.push({ what: "bare function, 1×1 ranges in, [[value]] out, no units or checks (info)", measured: `${(bareCpu / plainCpu).toFixed(1)}× (${msText(bareCpu)})`, target: "", verdict: "" });
 
   // 8. a large file ends in a message
   if (options.bigFile || options.hugeFile) {

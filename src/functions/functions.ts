@@ -11,9 +11,27 @@
 import { apparentShearRate, apparentWallShearStress, correctedWallShearStress, viscosityFromStressAndRate, wallShearStressFromEndCorrection } from "../core/capillary";
 import { flowRateFromMassRate, flowRateFromPiston } from "../core/flow";
 import { acceptedUnits, convertUnit, knownQuantities } from "../core/units";
-import { DEFAULT_SHEET_UNITS as U, guard, mapRows, unitArg, flatten, readNumber, isBlank, optionalText, quantityArg } from "./adapter";
+import { AS_IS, DEFAULT_SHEET_UNITS as U, UnitArgument, guard, mapRows, rowCells2, rowCells3, rowCells4, flatten, readNumber, isBlank, optionalText, quantityArg } from "./adapter";
 import { bagleyTable, rabinowitschColumn } from "./tables";
 import { reduceTable } from "./reduceTable";
+
+/*
+ * The unit arguments of the element-wise functions, declared once: the per-row lane
+ * (adapter/rowCells.ts) reads their factors, the general path (mapRows) their unit texts. Each
+ * element-wise function tries the lane first and hands everything else to its `...Rows` twin,
+ * which holds the general path; keeping that path (a closure over the arguments) out of the
+ * function itself spares a per-row call an allocation.
+ */
+const PRESSURE_UNIT = new UnitArgument("pressureUnit", "pressure", U.pressure);
+const LENGTH_UNIT = new UnitArgument("lengthUnit", "length", U.length);
+const SPEED_UNIT = new UnitArgument("speedUnit", "speed", U.speed);
+const FLOW_UNIT = new UnitArgument("flowUnit", "volumetricFlow", U.volumetricFlow);
+const MASS_RATE_UNIT = new UnitArgument("massRateUnit", "massRate", U.massRate);
+const DENSITY_UNIT = new UnitArgument("densityUnit", "density", U.density);
+const STRESS_UNIT = new UnitArgument("stressUnit", "pressure", U.stress);
+const FLOW_OUTPUT = new UnitArgument("outputUnit", "volumetricFlow", U.volumetricFlow);
+const STRESS_OUTPUT = new UnitArgument("outputUnit", "pressure", U.stress);
+const VISCOSITY_OUTPUT = new UnitArgument("outputUnit", "viscosity", U.viscosity);
 
 /**
  * Volumetric flow rate pushed by the piston, Q = v·π·Db²/4.
@@ -33,14 +51,21 @@ export function flowRate(
   lengthUnit?: string,
   outputUnit?: string,
 ): unknown[][] {
+  return (
+    rowCells2(flowRateFromPiston, pistonSpeed, SPEED_UNIT.factor(speedUnit), barrelDiameter, LENGTH_UNIT.factor(lengthUnit), FLOW_OUTPUT.factor(outputUnit)) ??
+    flowRateRows(pistonSpeed, barrelDiameter, speedUnit, lengthUnit, outputUnit)
+  );
+}
+
+function flowRateRows(pistonSpeed: unknown[][], barrelDiameter: unknown[][], speedUnit?: string, lengthUnit?: string, outputUnit?: string): unknown[][] {
   return guard("flowRate", () =>
     mapRows(
       [
-        { argument: "pistonSpeed", range: pistonSpeed, quantity: "speed", unit: unitArg(speedUnit, "speedUnit", "speed", U.speed) },
-        { argument: "barrelDiameter", range: barrelDiameter, quantity: "length", unit: unitArg(lengthUnit, "lengthUnit", "length", U.length) },
+        { argument: "pistonSpeed", range: pistonSpeed, quantity: "speed", unit: SPEED_UNIT.read(speedUnit) },
+        { argument: "barrelDiameter", range: barrelDiameter, quantity: "length", unit: LENGTH_UNIT.read(lengthUnit) },
       ],
       flowRateFromPiston,
-      { quantity: "volumetricFlow", unit: unitArg(outputUnit, "outputUnit", "volumetricFlow", U.volumetricFlow) },
+      { quantity: "volumetricFlow", unit: FLOW_OUTPUT.read(outputUnit) },
     ),
   );
 }
@@ -63,14 +88,21 @@ export function flowRateMass(
   densityUnit?: string,
   outputUnit?: string,
 ): unknown[][] {
+  return (
+    rowCells2(flowRateFromMassRate, massRate, MASS_RATE_UNIT.factor(massRateUnit), density, DENSITY_UNIT.factor(densityUnit), FLOW_OUTPUT.factor(outputUnit)) ??
+    flowRateMassRows(massRate, density, massRateUnit, densityUnit, outputUnit)
+  );
+}
+
+function flowRateMassRows(massRate: unknown[][], density: unknown[][], massRateUnit?: string, densityUnit?: string, outputUnit?: string): unknown[][] {
   return guard("flowRateMass", () =>
     mapRows(
       [
-        { argument: "massRate", range: massRate, quantity: "massRate", unit: unitArg(massRateUnit, "massRateUnit", "massRate", U.massRate) },
-        { argument: "density", range: density, quantity: "density", unit: unitArg(densityUnit, "densityUnit", "density", U.density) },
+        { argument: "massRate", range: massRate, quantity: "massRate", unit: MASS_RATE_UNIT.read(massRateUnit) },
+        { argument: "density", range: density, quantity: "density", unit: DENSITY_UNIT.read(densityUnit) },
       ],
       flowRateFromMassRate,
-      { quantity: "volumetricFlow", unit: unitArg(outputUnit, "outputUnit", "volumetricFlow", U.volumetricFlow) },
+      { quantity: "volumetricFlow", unit: FLOW_OUTPUT.read(outputUnit) },
     ),
   );
 }
@@ -86,11 +118,15 @@ export function flowRateMass(
  * @returns Apparent shear rate in 1/s per row.
  */
 export function shearRateApp(flowRate: unknown[][], dieDiameter: unknown[][], flowUnit?: string, lengthUnit?: string): unknown[][] {
+  return rowCells2(apparentShearRate, flowRate, FLOW_UNIT.factor(flowUnit), dieDiameter, LENGTH_UNIT.factor(lengthUnit), AS_IS) ?? shearRateAppRows(flowRate, dieDiameter, flowUnit, lengthUnit);
+}
+
+function shearRateAppRows(flowRate: unknown[][], dieDiameter: unknown[][], flowUnit?: string, lengthUnit?: string): unknown[][] {
   return guard("shearRateApp", () =>
     mapRows(
       [
-        { argument: "flowRate", range: flowRate, quantity: "volumetricFlow", unit: unitArg(flowUnit, "flowUnit", "volumetricFlow", U.volumetricFlow) },
-        { argument: "dieDiameter", range: dieDiameter, quantity: "length", unit: unitArg(lengthUnit, "lengthUnit", "length", U.length) },
+        { argument: "flowRate", range: flowRate, quantity: "volumetricFlow", unit: FLOW_UNIT.read(flowUnit) },
+        { argument: "dieDiameter", range: dieDiameter, quantity: "length", unit: LENGTH_UNIT.read(lengthUnit) },
       ],
       apparentShearRate,
     ),
@@ -117,9 +153,17 @@ export function wallStressApp(
   lengthUnit?: string,
   outputUnit?: string,
 ): unknown[][] {
+  const l = LENGTH_UNIT.factor(lengthUnit);
+  return (
+    rowCells3(apparentWallShearStress, pressure, PRESSURE_UNIT.factor(pressureUnit), dieDiameter, l, dieLength, l, STRESS_OUTPUT.factor(outputUnit)) ??
+    wallStressAppRows(pressure, dieDiameter, dieLength, pressureUnit, lengthUnit, outputUnit)
+  );
+}
+
+function wallStressAppRows(pressure: unknown[][], dieDiameter: unknown[][], dieLength: unknown[][], pressureUnit?: string, lengthUnit?: string, outputUnit?: string): unknown[][] {
   return guard("wallStressApp", () => {
-    const p = unitArg(pressureUnit, "pressureUnit", "pressure", U.pressure);
-    const l = unitArg(lengthUnit, "lengthUnit", "length", U.length);
+    const p = PRESSURE_UNIT.read(pressureUnit);
+    const l = LENGTH_UNIT.read(lengthUnit);
     return mapRows(
       [
         { argument: "pressure", range: pressure, quantity: "pressure", unit: p },
@@ -127,7 +171,7 @@ export function wallStressApp(
         { argument: "dieLength", range: dieLength, quantity: "length", unit: l },
       ],
       apparentWallShearStress,
-      { quantity: "pressure", unit: unitArg(outputUnit, "outputUnit", "pressure", U.stress) },
+      { quantity: "pressure", unit: STRESS_OUTPUT.read(outputUnit) },
     );
   });
 }
@@ -154,9 +198,26 @@ export function wallStress(
   lengthUnit?: string,
   outputUnit?: string,
 ): unknown[][] {
+  const p = PRESSURE_UNIT.factor(pressureUnit);
+  const l = LENGTH_UNIT.factor(lengthUnit);
+  return (
+    rowCells4(correctedWallShearStress, pressure, p, entrancePressure, p, dieDiameter, l, dieLength, l, STRESS_OUTPUT.factor(outputUnit)) ??
+    wallStressRows(pressure, entrancePressure, dieDiameter, dieLength, pressureUnit, lengthUnit, outputUnit)
+  );
+}
+
+function wallStressRows(
+  pressure: unknown[][],
+  entrancePressure: unknown[][],
+  dieDiameter: unknown[][],
+  dieLength: unknown[][],
+  pressureUnit?: string,
+  lengthUnit?: string,
+  outputUnit?: string,
+): unknown[][] {
   return guard("wallStress", () => {
-    const p = unitArg(pressureUnit, "pressureUnit", "pressure", U.pressure);
-    const l = unitArg(lengthUnit, "lengthUnit", "length", U.length);
+    const p = PRESSURE_UNIT.read(pressureUnit);
+    const l = LENGTH_UNIT.read(lengthUnit);
     return mapRows(
       [
         { argument: "pressure", range: pressure, quantity: "pressure", unit: p },
@@ -165,7 +226,7 @@ export function wallStress(
         { argument: "dieLength", range: dieLength, quantity: "length", unit: l },
       ],
       correctedWallShearStress,
-      { quantity: "pressure", unit: unitArg(outputUnit, "outputUnit", "pressure", U.stress) },
+      { quantity: "pressure", unit: STRESS_OUTPUT.read(outputUnit) },
     );
   });
 }
@@ -192,17 +253,33 @@ export function wallStressEnd(
   lengthUnit?: string,
   outputUnit?: string,
 ): unknown[][] {
+  const l = LENGTH_UNIT.factor(lengthUnit);
+  return (
+    rowCells4(wallShearStressFromEndCorrection, pressure, PRESSURE_UNIT.factor(pressureUnit), endCorrection, AS_IS, dieDiameter, l, dieLength, l, STRESS_OUTPUT.factor(outputUnit)) ??
+    wallStressEndRows(pressure, endCorrection, dieDiameter, dieLength, pressureUnit, lengthUnit, outputUnit)
+  );
+}
+
+function wallStressEndRows(
+  pressure: unknown[][],
+  endCorrection: unknown[][],
+  dieDiameter: unknown[][],
+  dieLength: unknown[][],
+  pressureUnit?: string,
+  lengthUnit?: string,
+  outputUnit?: string,
+): unknown[][] {
   return guard("wallStressEnd", () => {
-    const l = unitArg(lengthUnit, "lengthUnit", "length", U.length);
+    const l = LENGTH_UNIT.read(lengthUnit);
     return mapRows(
       [
-        { argument: "pressure", range: pressure, quantity: "pressure", unit: unitArg(pressureUnit, "pressureUnit", "pressure", U.pressure) },
+        { argument: "pressure", range: pressure, quantity: "pressure", unit: PRESSURE_UNIT.read(pressureUnit) },
         { argument: "endCorrection", range: endCorrection },
         { argument: "dieDiameter", range: dieDiameter, quantity: "length", unit: l },
         { argument: "dieLength", range: dieLength, quantity: "length", unit: l },
       ],
       wallShearStressFromEndCorrection,
-      { quantity: "pressure", unit: unitArg(outputUnit, "outputUnit", "pressure", U.stress) },
+      { quantity: "pressure", unit: STRESS_OUTPUT.read(outputUnit) },
     );
   });
 }
@@ -300,14 +377,24 @@ export function viscosity(
  * @returns Apparent viscosity per row.
  */
 export function viscosityApp(shearRateApparent: unknown[][], wallShearStress: unknown[][], stressUnit?: string, outputUnit?: string): unknown[][] {
+  return (
+    rowCells2(apparentViscosity, shearRateApparent, AS_IS, wallShearStress, STRESS_UNIT.factor(stressUnit), VISCOSITY_OUTPUT.factor(outputUnit)) ??
+    viscosityAppRows(shearRateApparent, wallShearStress, stressUnit, outputUnit)
+  );
+}
+
+/** τw/γ̇a with the worksheet's argument order (rate first). */
+const apparentViscosity = (rate: number, stress: number): number => viscosityFromStressAndRate(stress, rate);
+
+function viscosityAppRows(shearRateApparent: unknown[][], wallShearStress: unknown[][], stressUnit?: string, outputUnit?: string): unknown[][] {
   return guard("viscosityApp", () =>
     mapRows(
       [
         { argument: "shearRateApparent", range: shearRateApparent },
-        { argument: "wallShearStress", range: wallShearStress, quantity: "pressure", unit: unitArg(stressUnit, "stressUnit", "pressure", U.stress) },
+        { argument: "wallShearStress", range: wallShearStress, quantity: "pressure", unit: STRESS_UNIT.read(stressUnit) },
       ],
-      (rate, stress) => viscosityFromStressAndRate(stress, rate),
-      { quantity: "viscosity", unit: unitArg(outputUnit, "outputUnit", "viscosity", U.viscosity) },
+      apparentViscosity,
+      { quantity: "viscosity", unit: VISCOSITY_OUTPUT.read(outputUnit) },
       { shearRate: "shearRateApparent" },
     ),
   );

@@ -17,7 +17,20 @@ import { meltFlowPoint } from "../core/meltFlowRate";
 import { RheoError } from "../core/errors";
 import { fromSI, isUnitOf, toSI } from "../core/units";
 import { appendWarnings } from "./reduceTable";
-import { DEFAULT_SHEET_UNITS as U, Rows, atRows, booleanArg, cellError, column, guard, mapRows, readNumber, readRows, unitArg, optionalText } from "./adapter";
+import { AS_IS, DEFAULT_SHEET_UNITS as U, Rows, UnitArgument, atRows, booleanArg, cellError, column, guard, mapRows, readNumber, readRows, rowCells3, rowCells4, unitArg, optionalText } from "./adapter";
+
+/*
+ * Unit arguments of the element-wise functions below: the per-row lane (adapter/rowCells.ts)
+ * reads their factors, the general path (the `...Rows` twin of each function) their unit texts.
+ */
+const PRESSURE_UNIT = new UnitArgument("pressureUnit", "pressure", U.pressure);
+const LENGTH_UNIT = new UnitArgument("lengthUnit", "length", U.length);
+const FLOW_UNIT = new UnitArgument("flowUnit", "volumetricFlow", U.volumetricFlow);
+const DENSITY_UNIT = new UnitArgument("densityUnit", "density", U.density);
+const HEAT_CAPACITY_UNIT = new UnitArgument("heatCapacityUnit", "heatCapacity", "J/(kg.K)");
+const STRESS_OUTPUT = new UnitArgument("outputUnit", "pressure", U.stress);
+/** A blank optional entrance pressure: none. */
+const NO_ENTRANCE_PRESSURE = Object.freeze([Object.freeze([0])]) as unknown as unknown[][];
 
 /** Spills several values per kept row (blank rows stay blank), down a column or across a row of rows. */
 function spillTable(rows: Rows, values: unknown[][], width: number): unknown[][] {
@@ -51,11 +64,19 @@ function scalar(value: unknown, argument: string): number {
  * @returns Apparent shear rate in 1/s per row.
  */
 export function slitShearRateApp(flowRate: unknown[][], slitWidth: unknown[][], slitHeight: unknown[][], flowUnit?: string, lengthUnit?: string): unknown[][] {
+  const l = LENGTH_UNIT.factor(lengthUnit);
+  return (
+    rowCells3(apparentSlitShearRate, flowRate, FLOW_UNIT.factor(flowUnit), slitWidth, l, slitHeight, l, AS_IS) ??
+    slitShearRateAppRows(flowRate, slitWidth, slitHeight, flowUnit, lengthUnit)
+  );
+}
+
+function slitShearRateAppRows(flowRate: unknown[][], slitWidth: unknown[][], slitHeight: unknown[][], flowUnit?: string, lengthUnit?: string): unknown[][] {
   return guard("slitShearRateApp", () => {
-    const l = unitArg(lengthUnit, "lengthUnit", "length", U.length);
+    const l = LENGTH_UNIT.read(lengthUnit);
     return mapRows(
       [
-        { argument: "flowRate", range: flowRate, quantity: "volumetricFlow", unit: unitArg(flowUnit, "flowUnit", "volumetricFlow", U.volumetricFlow) },
+        { argument: "flowRate", range: flowRate, quantity: "volumetricFlow", unit: FLOW_UNIT.read(flowUnit) },
         { argument: "slitWidth", range: slitWidth, quantity: "length", unit: l },
         { argument: "slitHeight", range: slitHeight, quantity: "length", unit: l },
       ],
@@ -86,9 +107,27 @@ export function slitWallStress(
   lengthUnit?: string,
   outputUnit?: string,
 ): unknown[][] {
+  const p = PRESSURE_UNIT.factor(pressureUnit);
+  const l = LENGTH_UNIT.factor(lengthUnit);
+  const entrance = entrancePressure === null || entrancePressure === undefined ? NO_ENTRANCE_PRESSURE : entrancePressure;
+  return (
+    rowCells4(slitWallShearStress, pressure, p, slitHeight, l, dieLength, l, entrance, p, STRESS_OUTPUT.factor(outputUnit)) ??
+    slitWallStressRows(pressure, slitHeight, dieLength, entrancePressure, pressureUnit, lengthUnit, outputUnit)
+  );
+}
+
+function slitWallStressRows(
+  pressure: unknown[][],
+  slitHeight: unknown[][],
+  dieLength: unknown[][],
+  entrancePressure?: unknown[][],
+  pressureUnit?: string,
+  lengthUnit?: string,
+  outputUnit?: string,
+): unknown[][] {
   return guard("slitWallStress", () => {
-    const p = unitArg(pressureUnit, "pressureUnit", "pressure", U.pressure);
-    const l = unitArg(lengthUnit, "lengthUnit", "length", U.length);
+    const p = PRESSURE_UNIT.read(pressureUnit);
+    const l = LENGTH_UNIT.read(lengthUnit);
     return mapRows(
       [
         { argument: "pressure", range: pressure, quantity: "pressure", unit: p },
@@ -97,7 +136,7 @@ export function slitWallStress(
         { argument: "entrancePressure", range: entrancePressure === null || entrancePressure === undefined ? [[0]] : entrancePressure, quantity: "pressure", unit: p },
       ],
       slitWallShearStress,
-      { quantity: "pressure", unit: unitArg(outputUnit, "outputUnit", "pressure", U.stress) },
+      { quantity: "pressure", unit: STRESS_OUTPUT.read(outputUnit) },
     );
   });
 }
@@ -241,12 +280,19 @@ export function cogswellFlow(entrancePressure: unknown[][], shearRateWall: unkno
  * @returns Adiabatic temperature rise in K per row.
  */
 export function heating(pressure: unknown[][], density: unknown[][], heatCapacity: unknown[][], pressureUnit?: string, densityUnit?: string, heatCapacityUnit?: string): unknown[][] {
+  return (
+    rowCells3(adiabaticTemperatureRise, pressure, PRESSURE_UNIT.factor(pressureUnit), density, DENSITY_UNIT.factor(densityUnit), heatCapacity, HEAT_CAPACITY_UNIT.factor(heatCapacityUnit), AS_IS) ??
+    heatingRows(pressure, density, heatCapacity, pressureUnit, densityUnit, heatCapacityUnit)
+  );
+}
+
+function heatingRows(pressure: unknown[][], density: unknown[][], heatCapacity: unknown[][], pressureUnit?: string, densityUnit?: string, heatCapacityUnit?: string): unknown[][] {
   return guard("heating", () =>
     mapRows(
       [
-        { argument: "pressure", range: pressure, quantity: "pressure", unit: unitArg(pressureUnit, "pressureUnit", "pressure", U.pressure) },
-        { argument: "density", range: density, quantity: "density", unit: unitArg(densityUnit, "densityUnit", "density", U.density) },
-        { argument: "heatCapacity", range: heatCapacity, quantity: "heatCapacity", unit: unitArg(heatCapacityUnit, "heatCapacityUnit", "heatCapacity", "J/(kg.K)") },
+        { argument: "pressure", range: pressure, quantity: "pressure", unit: PRESSURE_UNIT.read(pressureUnit) },
+        { argument: "density", range: density, quantity: "density", unit: DENSITY_UNIT.read(densityUnit) },
+        { argument: "heatCapacity", range: heatCapacity, quantity: "heatCapacity", unit: HEAT_CAPACITY_UNIT.read(heatCapacityUnit) },
       ],
       adiabaticTemperatureRise,
     ),

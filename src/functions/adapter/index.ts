@@ -4,3 +4,4 @@ export * from "./ranges";
 export * from "./args";
 export * from "./data";
 export * from "./settings";
+export * from "./rowCells";

@@ -13,6 +13,8 @@ import { Quantity, fromSI, isUnitOf, toSI } from "../../core/units";
 export interface UnitScale {
   toSI(value: number): number;
   fromSI(value: number): number;
+  /** toSI(1) for a unit without an offset (then toSI(v) = v·factor + 0, fromSI(v) = v/factor); undefined for °C, °F */
+  readonly factor: number | undefined;
 }
 
 /** Entries kept per quantity before its cache is emptied (unit texts are few; this only bounds memory). */
@@ -65,8 +67,8 @@ export function unitScale(quantity: Quantity, unit: string, argument: string): U
   const factor = toSI(1, unit, quantity, argument);
   const scale: UnitScale =
     toSI(0, unit, quantity, argument) === 0
-      ? { toSI: (v) => v * factor + 0, fromSI: (v) => v / factor }
-      : { toSI: (v) => toSI(v, unit, quantity, argument), fromSI: (v) => fromSI(v, unit, quantity, argument) };
+      ? { toSI: (v) => v * factor + 0, fromSI: (v) => v / factor, factor }
+      : { toSI: (v) => toSI(v, unit, quantity, argument), fromSI: (v) => fromSI(v, unit, quantity, argument), factor: undefined };
   cacheOf(scales, quantity).set(unit, scale);
   remember(quantity, unit, scale);
   return scale;
