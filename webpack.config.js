@@ -47,9 +47,13 @@ const DEV_PORT = 3000;
  * and RHEO.REDUCE the reduction of real, imperfect data (repeats compared per die, one rate ladder,
  * flow instabilities, Bagley curvature and scatter checks, the transition smoother's two shapes, row
  * accounting: src/core/speedSteps.ts, rateLadder.ts, flowInstability.ts, bagleyChecks.ts,
- * groupDies.ts, rowAccount.ts: +23 KB).
+ * groupDies.ts, rowAccount.ts: +23 KB). The pane's recording panel and fit settings then moved the
+ * step detection's wrappers and the fit tables they share with the functions into core.js, and the
+ * per-row lane of the element-wise functions added its own code (+10 KB). Worth doing next: load
+ * the rarely used functions' code (recordings, fits across temperatures) on first call with
+ * import(), so the cold start carries only the common steps.
  */
-const FUNCTIONS_BUDGET_BYTES = 295 * 1024;
+const FUNCTIONS_BUDGET_BYTES = 305 * 1024;
 /** The scripts the worksheet functions need, in load order (their sum is held to the budget). */
 const FUNCTIONS_SCRIPTS = ["runtime.js", "core.js", "functions.js"];
 

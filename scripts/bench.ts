@@ -61,9 +61,13 @@ export const BENCH_TARGETS = Object.freeze({
   traceMs: 150,
   column10kMs: 20,
   /** runtime.js + core.js + functions.js: what the worksheet functions load (webpack.config.js holds the build to it) */
-  functionsBundleBytes: 295 * 1024,
-  /** every script of the shared runtime page (the pane's included) */
-  taskpaneBundleBytes: 400 * 1024,
+  functionsBundleBytes: 305 * 1024,
+  /**
+   * every script of the shared runtime page (the pane's included). 400 KB until the pane gained the
+   * recording panel and the fit settings (issues 14, 15); the pane's own bundle loads async after
+   * the first paint (issue 16), so this bounds time to a working pane, not to a visible one.
+   */
+  taskpaneBundleBytes: 520 * 1024,
 });
 
 const ROOT = process.cwd();
