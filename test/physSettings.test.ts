@@ -135,4 +135,19 @@ describe("equationsUsed(inputs): the method record follows the geometry", () => 
     expect(formulas).toContain("32Q/(π·D³)");
     expect(formulas).not.toContain("6Q/(W·H²)");
   });
+  test("fits: the verdict's rule with fitted models; the fit across temperatures and the rotational join when used", () => {
+    const result = reduce(slit.map(({ slitWidth: _w, slitHeight: _h, ...m }) => ({ ...m, dieDiameter: 1e-3 })));
+    const base = { result, endCorrection: "bagley" as const, rabinowitschMethod: "transition", flowSource: null, shiftLaw: null };
+    const steps = (eq: ReturnType<typeof equationsUsed>) => eq.map((l) => l[0]);
+    expect(steps(equationsUsed({ ...base, fittedModels: [] }))).not.toContain("Recommended model");
+    const fitted = equationsUsed({ ...base, fittedModels: ["cross"], master: { model: "cross", law: "arrhenius" }, joined: { kind: "oscillatory" } });
+    expect(steps(fitted)).toEqual(expect.arrayContaining(["Model cross", "Recommended model", "Fit across temperatures", "Rotational data joined"]));
+    const line = (step: string) => fitted.find((l) => l[0] === step) as [string, string, string];
+    expect(line("Fit across temperatures")[1]).toContain("a_T = exp[(Ea/R)(1/T − 1/T_ref)]");
+    expect(line("Rotational data joined")[1]).toMatch(/^Cox–Merz rule/);
+    expect(line("Rotational data joined")[2]).toBe("Cox & Merz, J. Polym. Sci. 28 (1958) 619");
+    const crossWlf = equationsUsed({ ...base, fittedModels: [], master: { model: "cross-wlf", law: null }, joined: { kind: "steady" } });
+    expect(crossWlf.find((l) => l[0] === "Fit across temperatures")?.[2]).toMatch(/^Hieber & Shen/);
+    expect(crossWlf.find((l) => l[0] === "Rotational data joined")?.[1]).not.toMatch(/Cox–Merz/);
+  });
 });

@@ -144,7 +144,7 @@ export function runDocument(out: CommandOutput, ctx: { file: string; files?: rea
       ["Flow-curve points", out.result.groups.reduce((n, g) => n + g.flowCurve.length, 0)],
     ],
     settings: settingsRows(ctx.args),
-    equations: equationsUsed({ result: out.result, endCorrection: out.options.endCorrection ?? DEFAULT_REDUCE_OPTIONS.endCorrection, rabinowitschMethod: rab.method, flowSource: flowColumn ?? null, fittedModels: [...fitted], shiftLaw: run.shift?.fit.law ?? null, shiftDetail: run.shift ? { C2Source: run.shift.fit.law === "wlf" ? run.shift.fit.C2Source : undefined, verticalShift: run.shift.fit.verticalShift } : undefined }),
+    equations: equationsUsed({ result: out.result, endCorrection: out.options.endCorrection ?? DEFAULT_REDUCE_OPTIONS.endCorrection, rabinowitschMethod: rab.method, flowSource: flowColumn ?? null, fittedModels: [...fitted], shiftLaw: run.shift?.fit.law ?? null, shiftDetail: run.shift ? { C2Source: run.shift.fit.law === "wlf" ? run.shift.fit.C2Source : undefined, verticalShift: run.shift.fit.verticalShift } : undefined, master: run.master ? { model: run.master.model, law: run.master.law } : null, joined: run.joined ? { kind: run.joined.join.warnings.some((w) => w.code === "COX_MERZ_APPLIED") ? "oscillatory" : "steady" } : null }),
     reportItems: reportItems(reportFacts(out, ctx.args), ctx.plan.meta),
     warnings,
     ...(run.steps ? { steps: stepMethodLines(run.steps) } : {}),

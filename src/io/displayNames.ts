@@ -53,6 +53,16 @@ export function modelName(id: string): string {
   return (MODEL_NAMES as Record<string, string>)[id] ?? id;
 }
 
+/**
+ * A sentence with every model id written as its display name ("carreau-yasuda is the adequate …"
+ * → "Carreau–Yasuda is the adequate …"); longer ids first, whole words only.
+ */
+export function modelNamesIn(text: string): string {
+  const ids = Object.keys(MODEL_NAMES).sort((a, b) => b.length - a.length);
+  const pattern = new RegExp(`(?<![\\w-])(${ids.map((id) => id.replace(/[-]/g, "\\-")).join("|")})(?![\\w-])`, "g");
+  return text.replace(pattern, (id) => modelName(id));
+}
+
 /** The display symbol of a parameter name (the name itself when unknown). */
 export function parameterSymbol(name: string): string {
   return PARAMETER_SYMBOLS[name] ?? name;

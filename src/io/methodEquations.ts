@@ -8,6 +8,8 @@ import { getModel } from "../core/models";
 import type { ReductionResult } from "../core/reduce";
 import { DEFAULT_UNCERTAINTY_OPTIONS } from "../core/uncertainty";
 import type { VerticalShift } from "../core/temperature";
+import { DEFAULT_VERDICT_OPTIONS } from "../core/fit/verdict";
+import { DEFAULT_DETERMINATION_LIMITS } from "../core/fit/determination";
 
 /** One equation of the record: step, formula in plain text, reference. */
 export type EquationLine = [step: string, formula: string, reference: string];
@@ -27,6 +29,10 @@ export interface EquationInputs {
   shiftLaw: "arrhenius" | "wlf" | null;
   /** how the WLF C2 was found and whether the vertical shift was applied (the shift fit's fields) */
   shiftDetail?: { C2Source?: "fitted" | "held" | "universal"; verticalShift?: VerticalShift };
+  /** the fit across temperatures: its model and law (null for Cross-WLF's own law), if any */
+  master?: { model: string; law: "arrhenius" | "wlf" | null } | null;
+  /** the rotational curve joined: oscillatory (Cox–Merz) or steady shear, if any */
+  joined?: { kind: "oscillatory" | "steady" } | null;
 }
 
 /** The equations of the steps a run used, in order. */
@@ -121,8 +127,30 @@ export function equationsUsed(run: EquationInputs): EquationLine[] {
     lines.push([`Model ${id}`, m.formula, m.reference]);
   }
   if (fitted.size > 0) {
-    lines.push(["Model fit", "least squares on ln η (Levenberg–Marquardt); 95 % intervals from Student t", "Seber & Wild, Nonlinear Regression (1989)"]);
+    lines.push(["Model fit", "least squares on ln η (Levenberg–Marquardt); 95 % intervals from Student t, in ln p for positive parameters", "Seber & Wild, Nonlinear Regression (1989)"]);
     lines.push(["Model ranking", "AIC; ΔAIC_i = AIC_i − min AIC; Akaike weight w_i = exp(−ΔAIC_i/2)/Σ exp(−ΔAIC_j/2)", "Burnham & Anderson 2002, §2.9"]);
+    lines.push([
+      "Recommended model",
+      `adequate (ΔAIC ≤ ${DEFAULT_VERDICT_OPTIONS.maxDeltaAic}) and well determined (finite covariance, every free parameter's relative standard error ≤ ${DEFAULT_DETERMINATION_LIMITS.maxRelativeStandardError * 100} %, none at a bound, η0 and λ inside the measured rates), lowest AIC; else the simplest adequate model with its undetermined parameters named`,
+      "Burnham & Anderson 2002, §2.6 (ΔAIC > 10: essentially no support; from memory); limits common practice, no source",
+    ]);
+  }
+  if (run.master) {
+    const law = run.master.law === "arrhenius" ? "a_T = exp[(Ea/R)(1/T − 1/T_ref)]" : run.master.law === "wlf" ? "log10 a_T = −c1(T − T_ref)/(c2 + T − T_ref)" : "Cross-WLF's own law";
+    lines.push([
+      "Fit across temperatures",
+      run.master.model === "cross-wlf"
+        ? "η = η0(T)/(1 + (η0γ̇/τ*)^(1−n)), log10 η0 = log10 D1 − A1(T − D2)/(Ã2 + T − D2) (D3 held 0); one least-squares fit on ln η over every temperature"
+        : `η(γ̇, T) = a_T·η_ref(a_T·γ̇) with ${getModel(run.master.model).formula} at T_ref and ${law}; one least-squares fit on ln η over every temperature`,
+      run.master.model === "cross-wlf" ? "Hieber & Shen, J. Non-Newton. Fluid Mech. 7 (1980) 1 (from memory)" : "Dealy & Wang, Melt Rheology (2013), ch. 4",
+    ]);
+  }
+  if (run.joined) {
+    lines.push([
+      "Rotational data joined",
+      `${run.joined.kind === "oscillatory" ? "Cox–Merz rule: η(γ̇) = |η*|(ω) at γ̇ = ω; " : ""}overlap ratio = geometric mean of η_rot/η_cap at every point of either curve inside the other's range (log–log interpolation); the joined curve fitted as one`,
+      run.joined.kind === "oscillatory" ? "Cox & Merz, J. Polym. Sci. 28 (1958) 619" : "-",
+    ]);
   }
   return lines;
 }

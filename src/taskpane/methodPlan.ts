@@ -22,6 +22,8 @@ export function equationsUsed(run: RunOutput): EquationLine[] {
     flowSource: roles.has("flow_rate") ? "flow_rate" : roles.has("piston_speed") ? "piston_speed" : roles.has("mass_rate") ? "mass_rate" : null,
     fittedModels: run.fits.flatMap((f) => f.compare?.ranked.map((r) => r.model) ?? []),
     shiftLaw: run.shift ? run.shift.law.law : null,
+    master: run.master ? { model: run.master.model, law: run.master.law } : null,
+    joined: run.joined ? { kind: run.joined.join.warnings.some((w) => w.code === "COX_MERZ_APPLIED") ? "oscillatory" : "steady" } : null,
   });
 }
 

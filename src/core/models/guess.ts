@@ -76,11 +76,53 @@ export function highRatePowerLaw(data: GuessData): { slope: number; intercept: n
 export function steepestSlope(data: GuessData): number {
   const { x, y } = logPoints(data);
   const width = Math.min(x.length, Math.max(3, Math.ceil(x.length / 5)));
+  if (x.length > FAST_WINDOWS_FROM) return steepestSlopeSliding(x, y, width);
   let steepest = Infinity;
   for (let i = 0; i + width <= x.length; i++) {
     steepest = Math.min(steepest, lineFit(x, y, i, i + width).slope);
   }
   return Number.isFinite(steepest) ? steepest : 0;
+}
+
+/** Above this many points the windows' slopes come from running sums (O(n) instead of O(n²)). */
+const FAST_WINDOWS_FROM = 200;
+
+/**
+ * {@link steepestSlope} for long curves: each window's slope from running sums about the first
+ * point (slope = (wΣxy − ΣxΣy)/(wΣxx − (Σx)²)), then the steepest window refitted with
+ * {@link lineFit} (two-pass) so the value carries no running-sum rounding.
+ */
+function steepestSlopeSliding(x: readonly number[], y: readonly number[], width: number): number {
+  const x0 = x[0] as number;
+  const y0 = y[0] as number;
+  let sx = 0;
+  let sy = 0;
+  let sxx = 0;
+  let sxy = 0;
+  const add = (i: number, sign: number) => {
+    const dx = (x[i] as number) - x0;
+    const dy = (y[i] as number) - y0;
+    sx += sign * dx;
+    sy += sign * dy;
+    sxx += sign * dx * dx;
+    sxy += sign * dx * dy;
+  };
+  for (let i = 0; i < width; i++) add(i, 1);
+  let best = -1;
+  let steepest = Infinity;
+  for (let i = 0; i + width <= x.length; i++) {
+    if (i > 0) {
+      add(i - 1, -1);
+      add(i + width - 1, 1);
+    }
+    const d = width * sxx - sx * sx;
+    const slope = d > 0 ? (width * sxy - sx * sy) / d : 0;
+    if (slope < steepest) {
+      steepest = slope;
+      best = i;
+    }
+  }
+  return best < 0 ? 0 : lineFit(x, y, best, best + width).slope;
 }
 
 /** Flow index n = 1 + steepest slope, kept within [low, high]. */

@@ -10,7 +10,7 @@ import { getModel, type ParameterSpec } from "../../../core/models";
 import type { Undetermined } from "../../../core/fit/determination";
 import { DEFAULT_JOIN_OPTIONS } from "../../../core/rotationalJoin";
 import { CROSS_WLF_LITERATURE } from "../../../core/temperature/masterFit";
-import { modelName, parameterSymbol, unitLabel } from "../../../io/displayNames";
+import { modelName, modelNamesIn, parameterSymbol, unitLabel } from "../../../io/displayNames";
 import { undeterminedText } from "../../../io/fitFormat";
 import type { RunOutput } from "../../runReduction";
 import { escapeXml } from "../../svgChart";
@@ -100,6 +100,6 @@ export function joinedCard(run: Pick<RunOutput, "joined"> & { input: Pick<RunOut
     const params = specs.map((p) => `${parameterSymbol(p.name)} = ${parameterText(fit, p.name, fit.parameters[p.name], p.unit)}`).join("; ");
     rows.push(["Joined curve's verdict", `${modelName(v.recommended)} (${v.status === "well-determined" ? "well determined" : "no model well determined"}): ${params}`]);
   } else rows.push(["Joined curve's verdict", "no model fitted"]);
-  rows.push(["Why", v.reason]);
+  rows.push(["Why", modelNamesIn(v.reason)]);
   return card("rotational", "Rotational data joined", rows);
 }
