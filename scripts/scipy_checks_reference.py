@@ -16,8 +16,8 @@ Writes test/fixtures/scipy-checks.json. Run with Debian's python3 (python3-scipy
    src/core/temperature/fitShift.ts states it, solved by scipy.optimize.least_squares;
    standard errors s^2 (J^T J)^-1 with J at the optimum (complex-step derivatives), s^2 = SSR/(m - k).
 3. nist: NIST StRD nonlinear regression problems (data, starting values and certified values
-   transcribed from the NIST Statistical Reference Datasets pages) re-solved with
-   scipy.optimize.least_squares, to show the transcription is right: scipy must reproduce the
+   copied from the NIST Statistical Reference Datasets pages) re-solved with
+   scipy.optimize.least_squares, to show the copied values are right: scipy must reproduce the
    certified values to about 1e-7 relative, which this script asserts.
 """
 import json

@@ -3,10 +3,10 @@
  * nonlinear least-squares problems with known solutions:
  * - NIST StRD nonlinear regression problems (Misra1a, DanWood, BoxBOD, MGH09): data, both NIST
  *   starting points and the certified values and standard errors as published by NIST
- *   (Statistical Reference Datasets, nonlinear regression), transcribed into
+ *   (Statistical Reference Datasets, nonlinear regression), copied into
  *   test/fixtures/scipy-checks.json by scripts/scipy_checks_reference.py, which re-solves each
  *   with scipy.optimize.least_squares and asserts the certified values are reproduced (so the
- *   transcription is checked);
+ *   copy is checked);
  * - Rosenbrock's function as least squares, r = (10(u₂ − u₁²), 1 − u₁), minimum 0 at (1, 1) from
  *   the standard start (−1.2, 1) (Rosenbrock, Comput. J. 3 (1960) 175; Moré, Garbow & Hillstrom,
  *   ACM TOMS 7 (1981) 17, problem 1);
@@ -86,7 +86,7 @@ describe("NIST StRD nonlinear regression: certified values from both starting po
         const k = p.certified.length;
         const solved = levenbergMarquardt(regressionProblem(MODELS[p.model] as Model, p.x, p.y, k), start, TIGHT);
         expect(solved.converged).toBe(true);
-        // @check fit/levenbergMarquardt | NIST StRD certified parameters (Misra1a, DanWood, MGH09 from both starts, BoxBOD from start 2; 18 values) | NIST Statistical Reference Datasets, nonlinear regression (certified values; transcription checked by scipy least_squares) | rel 1e-7 | 18
+        // @check fit/levenbergMarquardt | NIST StRD certified parameters (Misra1a, DanWood, MGH09 from both starts, BoxBOD from start 2; 18 values) | NIST Statistical Reference Datasets, nonlinear regression (certified values; the copy checked by scipy least_squares) | rel 1e-7 | 18
         p.certified.forEach((c, j) => expectClose(solved.u[j] as number, c, { rel: 1e-7 }, `b${j + 1}`));
         // @check fit/levenbergMarquardt | NIST StRD certified residual sums of squares (7 problem–start pairs) | NIST Statistical Reference Datasets, nonlinear regression | rel 1e-9 | 7
         expectClose(2 * solved.cost, p.certifiedRss, { rel: 1e-9 }, "RSS");
