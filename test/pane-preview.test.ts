@@ -11,11 +11,10 @@
  * the local @microsoft/office-js copy and every other outside request is refused and recorded.
  * dist/ is rebuilt first when a pane source is newer than dist/taskpane.js.
  */
-import { execFileSync } from "node:child_process";
-import { existsSync, mkdirSync, readFileSync, readdirSync, statSync } from "node:fs";
+import { existsSync, mkdirSync, readFileSync, statSync } from "node:fs";
 import { createServer, Server } from "node:http";
 import { AddressInfo } from "node:net";
-import { join, extname, resolve } from "node:path";
+import { join, extname } from "node:path";
 import type { Browser, Page } from "playwright-core";
 import { chromium } from "playwright-core";
 import { parseCsv } from "../src/io/csv";
@@ -32,35 +31,14 @@ import { fitCurve } from "../src/core/flowCurveFits";
 import { runReduction as coreRunReduction } from "../src/core/run";
 import { readRotationalTable } from "../src/io/rotationalTable";
 import { modelName } from "../src/io/displayNames";
+import { CHROMIUM, DIST, OUT, ROOT, ensureBuild, haveChromium } from "./helpers/paneBrowser";
 
-const CHROMIUM = "/usr/bin/chromium";
-const ROOT = resolve(__dirname, "..");
-const DIST = join(ROOT, "dist");
-const OUT = join(ROOT, "test-output");
 const OFFICE_DIST = join(ROOT, "node_modules/@microsoft/office-js/dist");
 const AXE = require.resolve("axe-core/axe.min.js");
-const haveChromium = existsSync(CHROMIUM);
 // In CI (.ci/run installs chromium) a missing browser is a failure, never a silent skip.
 if (!haveChromium && process.env.CI) throw new Error(`${CHROMIUM} is missing in CI: .ci/run must install chromium`);
 if (!haveChromium) console.warn(`pane-preview tests skipped: ${CHROMIUM} is missing (apt-get install -y chromium; .ci/run installs it)`);
 const maybe = haveChromium ? describe : describe.skip;
-
-function newestMtime(dir: string): number {
-  return Math.max(...readdirSync(dir).map((f) => statSync(join(dir, f)).mtimeMs));
-}
-
-function ensureBuild(): void {
-  const js = join(DIST, "taskpane.js");
-  const stale = !existsSync(js) || !existsSync(join(DIST, "taskpane.css")) || statSync(js).mtimeMs < newestMtime(join(ROOT, "src/taskpane"));
-  if (!stale) return;
-  try {
-    execFileSync(process.execPath, [join(ROOT, "node_modules/webpack-cli/bin/cli.js"), "--mode", "production"], { cwd: ROOT, stdio: "pipe" });
-  } catch (error) {
-    // webpack exits 1 on a size budget of the functions bundle but still emits the pane
-    const stderr = String((error as { stdout?: Buffer }).stdout ?? "");
-    if (!existsSync(js) || /ERROR in (?!asset size limit|entrypoint size limit|webpack performance)/.test(stderr)) throw error;
-  }
-}
 
 const TYPES: Record<string, string> = { ".html": "text/html", ".js": "text/javascript", ".css": "text/css", ".png": "image/png", ".json": "application/json", ".map": "application/json" };
 

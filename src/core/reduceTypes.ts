@@ -5,7 +5,7 @@
 import { Warning } from "./errors";
 import { BagleyOptions, BagleyRow } from "./bagley";
 import { RabinowitschOptions, SmootherRecord } from "./rabinowitsch";
-import { RepeatOptions } from "./speedSteps";
+import { RepeatComparison, RepeatOptions } from "./speedSteps";
 import { InstabilityOptions } from "./flowInstability";
 import { RowAccount } from "./rowAccount";
 import { OrificeOptions } from "./orifice";
@@ -149,7 +149,7 @@ export interface ReductionGroup extends GroupMethodResults {
 }
 
 /** A repeated reading compared with the first reading at its speed (one die). */
-export interface StabilityRow {
+export interface StabilityRow extends Pick<RepeatComparison, "firstRow" | "firstPressure" | "repeatRow" | "repeatPressure" | "change" | "used"> {
   /** the die's label, "L=20 mm" */
   die: string;
   dieLength: number;
@@ -157,16 +157,6 @@ export interface StabilityRow {
   shearRateApparent: number;
   /** Q of the first reading, m³/s */
   flowRate: number;
-  firstRow: number;
-  /** Pa */
-  firstPressure: number;
-  repeatRow: number;
-  /** Pa */
-  repeatPressure: number;
-  /** (repeat − first)/first */
-  change: number;
-  /** "mean": averaged into the step; "first": drifted, the first reading alone was used */
-  used: "mean" | "first";
 }
 
 /** A reading or corrected point set aside above a flow instability. */

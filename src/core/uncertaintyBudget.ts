@@ -38,6 +38,7 @@
 import { RheoError, Warning, requirePositive, warning } from "./errors";
 import { rabinowitschCorrection, type RabinowitschOptions } from "./rabinowitsch";
 import { pressureStandardUncertainty, type Transducer } from "./uncertainty";
+import type { PointRow } from "./reduceTypes";
 
 /** The tolerances of the budget (half-widths of rectangular distributions unless said). */
 export interface UncertaintyBudgetOptions {
@@ -97,17 +98,8 @@ export interface UncertaintyBudgetRow {
   coverageFactor: number;
 }
 
-/** One point of the reduction's input, as the re-run needs it (SI). */
-export interface BudgetPoint {
-  dieDiameter: number;
-  slitWidth?: number;
-  slitHeight?: number;
-  dieLength: number;
-  flowRate: number;
-  pressure: number;
-  /** plateau standard deviation of the reading, Pa */
-  pressureStd?: number;
-}
+/** One point of the reduction's input, as the re-run needs it (SI; the fields of a PointRow). */
+export type BudgetPoint = Pick<PointRow, "dieDiameter" | "slitWidth" | "slitHeight" | "dieLength" | "flowRate" | "pressure" | "pressureStd">;
 
 /** A flow-curve point of a (re-)run. */
 export interface BudgetCurvePoint {
