@@ -11,10 +11,10 @@
  * the local @microsoft/office-js copy and every other outside request is refused and recorded.
  * dist/ is rebuilt first when a pane source is newer than dist/taskpane.js.
  */
-import { existsSync, mkdirSync, readFileSync, statSync } from "node:fs";
-import { createServer, Server } from "node:http";
+import { existsSync, mkdirSync, readFileSync } from "node:fs";
+import type { Server } from "node:http";
 import { AddressInfo } from "node:net";
-import { join, extname } from "node:path";
+import { join } from "node:path";
 import type { Browser, Page } from "playwright-core";
 import { chromium } from "playwright-core";
 import { parseCsv } from "../src/io/csv";
@@ -31,33 +31,13 @@ import { fitCurve } from "../src/core/flowCurveFits";
 import { runReduction as coreRunReduction } from "../src/core/run";
 import { readRotationalTable } from "../src/io/rotationalTable";
 import { modelName } from "../src/io/displayNames";
-import { CHROMIUM, DIST, OUT, ROOT, ensureBuild, haveChromium } from "./helpers/paneBrowser";
+import { CHROMIUM, OUT, ROOT, ensureBuild, haveChromium, serveDist } from "./helpers/paneBrowser";
 
 const OFFICE_DIST = join(ROOT, "node_modules/@microsoft/office-js/dist");
-const AXE = require.resolve("axe-core/axe.min.js");
 // In CI (.ci/run installs chromium) a missing browser is a failure, never a silent skip.
 if (!haveChromium && process.env.CI) throw new Error(`${CHROMIUM} is missing in CI: .ci/run must install chromium`);
 if (!haveChromium) console.warn(`pane-preview tests skipped: ${CHROMIUM} is missing (apt-get install -y chromium; .ci/run installs it)`);
 const maybe = haveChromium ? describe : describe.skip;
-
-const TYPES: Record<string, string> = { ".html": "text/html", ".js": "text/javascript", ".css": "text/css", ".png": "image/png", ".json": "application/json", ".map": "application/json" };
-
-function serve(dir: string): Promise<Server> {
-  const server = createServer((req, res) => {
-    // the accessibility checker, served from the page's own origin so the page's CSP allows it
-    if (req.url === "/__axe.js") {
-      res.writeHead(200, { "content-type": "text/javascript" }).end(readFileSync(AXE));
-      return;
-    }
-    const path = join(dir, decodeURIComponent((req.url ?? "/").split("?")[0] as string));
-    if (!path.startsWith(dir) || !existsSync(path) || statSync(path).isDirectory()) {
-      res.writeHead(404).end();
-      return;
-    }
-    res.writeHead(200, { "content-type": TYPES[extname(path)] ?? "application/octet-stream" }).end(readFileSync(path));
-  });
-  return new Promise((ok) => server.listen(0, "127.0.0.1", () => ok(server)));
-}
 
 /** The demo file reduced by the core with the pane's defaults: what the preview must show. */
 function coreReference() {
@@ -94,7 +74,7 @@ maybe("task pane preview mode (chromium)", () => {
   beforeAll(async () => {
     ensureBuild();
     mkdirSync(OUT, { recursive: true });
-    server = await serve(DIST);
+    server = await serveDist();
     origin = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
     browser = await chromium.launch({
       executablePath: CHROMIUM,

@@ -53,8 +53,8 @@ export interface PaneRig {
   close(): Promise<void>;
 }
 
-/** Starts the server and the browser. */
-export async function startRig(): Promise<PaneRig> {
+/** A local server of dist/ (and of the accessibility checker at /__axe.js, same origin so the page's CSP allows it). */
+export async function serveDist(): Promise<Server> {
   const server = createServer((req, res) => {
     if (req.url === "/__axe.js") {
       res.writeHead(200, { "content-type": "text/javascript" }).end(readFileSync(AXE));
@@ -68,6 +68,12 @@ export async function startRig(): Promise<PaneRig> {
     res.writeHead(200, { "content-type": TYPES[extname(path)] ?? "application/octet-stream" }).end(readFileSync(path));
   });
   await new Promise<void>((ok) => server.listen(0, "127.0.0.1", () => ok()));
+  return server;
+}
+
+/** Starts the server and the browser. */
+export async function startRig(): Promise<PaneRig> {
+  const server = await serveDist();
   const origin = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
   const browser = await chromium.launch({
     executablePath: CHROMIUM,
