@@ -18,28 +18,10 @@ export function speedFromPosition(time: ArrayLike<number>, position: ArrayLike<n
   const n = time.length;
   if (n < 3) throw new RheoError("missing", "piston_position", `needs at least 3 samples to derive a speed, got ${n}`);
   const out = new Float64Array(n);
+  const sign = positionSign(position);
   for (let i = 0; i < n; i++) {
-    const a = Math.max(0, i - halfWidth);
-    const b = Math.min(n - 1, i + halfWidth);
-    let st = 0;
-    let sx = 0;
-    for (let k = a; k <= b; k++) {
-      st += time[k] as number;
-      sx += position[k] as number;
-    }
-    const m = b - a + 1;
-    const tm = st / m;
-    const xm = sx / m;
-    let sxx = 0;
-    let sxy = 0;
-    for (let k = a; k <= b; k++) {
-      const dt = (time[k] as number) - tm;
-      sxx += dt * dt;
-      sxy += dt * ((position[k] as number) - xm);
-    }
-    out[i] = sxx > 0 ? sxy / sxx : 0;
+    out[i] = windowSpeedFromPosition(time, position, Math.max(0, i - halfWidth), Math.min(n - 1, i + halfWidth), sign);
   }
-  if (positionSign(position) < 0) for (let i = 0; i < n; i++) out[i] = -(out[i] as number);
   return out;
 }
 
