@@ -10,6 +10,9 @@ export async function buildCli() {
     format: "cjs",
     outfile: "dist/cli.cjs",
     external: ["exceljs", "jszip"],
+    // import() of the workbook library becomes require() inside a promise (bin/rheoledger.js runs
+    // the bundle through node:vm, where import() has no module loader); keep in step with the bin
+    supported: { "dynamic-import": false },
     logLevel: "warning",
   });
 }

@@ -78,7 +78,10 @@ export function main(argv: string[], io: CliIO): number | Promise<number> {
       io.timing?.("reduce", out.coreMs);
       // the writers (and exceljs) are loaded only when a file is written
       if (plan.out !== undefined || plan.report !== undefined) return writeReduceOutputs(out, { file: args.positionals.join(", "), files: args.positionals, args, argv, io, plan }).catch((e: unknown) => failed(e, io));
+      io.timing?.("format", out.formatMs ?? 0);
+      const writing = performance.now();
       io.stdout(out.stdout);
+      io.timing?.("write", performance.now() - writing);
       return 0;
     };
     if (isRecordingFile(io, file)) return finish(runRecordingReduce(recordingFiles(io, args.positionals), args, io, request));

@@ -3,10 +3,10 @@
  * safeWrite.ts. Every path read is remembered, so no output can land on a file the command read,
  * whichever option named it.
  */
-import { createHash } from "node:crypto";
 import { closeSync, openSync, readFileSync, readSync } from "node:fs";
 import type { CliIO, OutputOptions } from "./io";
 import { checkOutput, safeWriteFile } from "./safeWrite";
+import { sha256 } from "./sha256";
 
 /** Size of the chunks an input file is streamed in. */
 const CHUNK_BYTES = 1 << 20;
@@ -48,7 +48,7 @@ export function nodeIO(streams: Pick<CliIO, "stdout" | "stderr"> = { stdout: (t)
 
 /** SHA-256 and size of a file's bytes, read in 1 MiB chunks (any size). */
 export function fileDigest(path: string): { sha256: string; bytes: number } {
-  const hash = createHash("sha256");
+  const hash = sha256();
   const buffer = Buffer.alloc(1 << 20);
   const fd = openSync(path, "r");
   let bytes = 0;

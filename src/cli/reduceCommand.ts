@@ -53,6 +53,8 @@ export interface CommandOutput {
   input?: ReduceInput;
   /** wall time of the core's run (reduction, and fits when asked), ms (for `npm run bench`) */
   coreMs: number;
+  /** wall time of building the standard-output text (JSON, summary or tables), ms (for `npm run bench`) */
+  formatMs?: number;
 }
 
 /** The reduce settings given as flags, by setting key (output flags left out). */
@@ -244,10 +246,11 @@ export function runRecordingReduce(files: InputFile[], args: ParsedArgs, io: Cli
 
 function output(run: ReductionRun, args: ParsedArgs, request: ReduceRequest, raw: ReduceInput | undefined, coreMs: number): CommandOutput {
   const result = run.result;
+  const started = performance.now();
   const stdout = args.flags.has("json")
     ? JSON.stringify(withFitJson(reductionJson(result, run.warnings, raw, run.steps), run), null, 2) + "\n"
     : args.flags.has("summary")
       ? reductionSummary(run, raw ? withReduction(raw.rows, result.rows) : undefined) + shiftSummary(run)
       : reductionText(run, raw) + warningsText(run.warnings);
-  return { stdout, run, result, options: request.options, request, inputWarnings: run.warnings.filter((w) => w.scope === "input"), input: raw, coreMs };
+  return { stdout, run, result, options: request.options, request, inputWarnings: run.warnings.filter((w) => w.scope === "input"), input: raw, coreMs, formatMs: performance.now() - started };
 }

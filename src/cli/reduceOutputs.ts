@@ -5,7 +5,7 @@
  * onto an input or through a symlink, all or nothing). `--meta FILE.json` fills the test-report
  * items the data do not say. The writers are loaded only when a file is written (exceljs is large).
  */
-import { createHash } from "node:crypto";
+import { sha256 } from "./sha256";
 import { RheoError, type Warning } from "../core/errors";
 import { DEFAULT_REDUCE_OPTIONS } from "../core/reduce";
 import { DEFAULT_RABINOWITSCH_OPTIONS } from "../core/rabinowitsch";
@@ -117,7 +117,7 @@ function digestOf(io: CliIO, file: string): { sha256: string; bytes: number } {
   const d = io.fileDigest?.(file);
   if (d) return d;
   const bytes = Buffer.from(io.readFile(file), "utf8");
-  return { sha256: createHash("sha256").update(bytes).digest("hex"), bytes: bytes.length };
+  return { sha256: sha256().update(bytes).digest("hex"), bytes: bytes.length };
 }
 
 /** The run's tables (src/io/resultTables.ts) and its method record, ready for any writer, and the warnings writing them raised. */
