@@ -29,6 +29,11 @@ export interface CsvSink {
   comment?(line: number): void;
   /** an empty (or all-space) line */
   blank?(line: number): void;
+  /**
+   * a record on one line without quotes, as its text (no line break): for a sink that reads the
+   * cells itself; without it, `record(text.split(delimiter))`
+   */
+  line?(text: string, delimiter: CsvDelimiter, line: number): void;
 }
 
 /** Limits of the reader. */
@@ -123,7 +128,7 @@ export class CsvParser {
       if (text.indexOf('"') < 0) {
         const body = text.charCodeAt(text.length - 1) === RETURN ? text.slice(0, -1) : text;
         if (body.trim() === "") this.sink.blank?.(this.line);
-        else this.sink.record(body.split(delimiter), this.line);
+        else this.plainRecord(body, delimiter);
         this.line++;
         pos = end + 1;
         continue;
@@ -140,17 +145,24 @@ export class CsvParser {
 
   /** Hands over lines without quotes (no line break at the end of `text`). */
   private plainLines(text: string, delimiter: CsvDelimiter): void {
-    const lines = text.split("\n");
     const sink = this.sink;
-    for (let i = 0; i < lines.length; i++) {
-      let line = lines[i] as string;
-      if (line.charCodeAt(line.length - 1) === RETURN) line = line.slice(0, -1);
+    for (let start = 0; start <= text.length; ) {
+      const newline = text.indexOf("\n", start);
+      const end = newline < 0 ? text.length : newline;
+      const line = text.slice(start, text.charCodeAt(end - 1) === RETURN && end > start ? end - 1 : end);
       const first = line.charCodeAt(0);
       if (first === 35 /* # */) sink.comment?.(this.line);
       else if (line.length === 0 || ((first === 32 || first === 9) && line.trim() === "")) sink.blank?.(this.line);
-      else sink.record(line.split(delimiter), this.line);
+      else this.plainRecord(line, delimiter);
       this.line++;
+      start = end + 1;
     }
+  }
+
+  /** One record without quotes: its text to a sink that reads cells itself, else its cells. */
+  private plainRecord(text: string, delimiter: CsvDelimiter): void {
+    if (this.sink.line) this.sink.line(text, delimiter, this.line);
+    else this.sink.record(text.split(delimiter), this.line);
   }
 
   /** End of the line at `pos` outside quotes, or null when the chunk ends first. */

@@ -339,6 +339,8 @@ export interface TableNumberReaderOptions {
  * (to their decimal-comma reading). `finish()` settles what is still open: the fallback mark, or
  * an error naming the first ambiguous cell and both its readings.
  */
+const NONE_PENDING: readonly PendingCell[] = Object.freeze([]);
+
 export class TableNumberReader {
   /** the decided mark, or null while undecided */
   mark: DecimalMark | null = null;
@@ -394,8 +396,9 @@ export class TableNumberReader {
   }
 
   /** Pending cells whose stored (decimal-point) value must be replaced by `comma`; emptied on read. */
-  takeCorrections(): PendingCell[] {
+  takeCorrections(): readonly PendingCell[] {
     const out = this.corrections;
+    if (out.length === 0) return NONE_PENDING; // most rows: no new array per row
     this.corrections = [];
     return out;
   }
@@ -410,7 +413,7 @@ export class TableNumberReader {
    * `takeCorrections`), or is refused when it holds two-reading cells and has no fallback.
    * @throws RheoError("value") naming the first ambiguous cell and both its readings
    */
-  finish(): PendingCell[] {
+  finish(): readonly PendingCell[] {
     if (this.mark === null && this.pending.length > 0) {
       if (this.fallback === undefined) throw this.ambiguous(this.pending[0] as PendingCell, false);
       this.settle(this.fallback);

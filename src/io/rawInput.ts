@@ -140,6 +140,10 @@ function readCsvStream(source: ByteSource, file: string, encoding: TextEncodingN
         });
       }
     },
+    line(text: string, delimiter: CsvDelimiter, line: number) {
+      if (reader !== null) reader.addLine(text, delimiter, line);
+      else this.record(text.split(delimiter), line);
+    },
     comment(line: number) {
       reader?.skip("comment", line);
     },

@@ -147,6 +147,60 @@ interface DeferredRow {
   values: Float64Array;
 }
 
+/** Exact powers of ten 10^0 … 10^15 (all below 2^53). */
+const POWERS_OF_TEN = Float64Array.from({ length: 16 }, (_, k) => 10 ** k);
+
+/**
+ * The needed cells of one unquoted line read as plain decimals into `values` (by slot; NaN for a
+ * blank or missing cell); returns the number of blank cells, or -1 when a needed cell is not a
+ * plain decimal written with `markCode` (then the caller reads the line the general way). A plain
+ * decimal: an optional "-", digits with at most one mark among or around them, at most 15
+ * characters (see RawTableReader.addLine for why the value equals Number()'s).
+ */
+function readPlainCells(text: string, delimiter: string, markCode: number, slotAtColumn: Int32Array, values: Float64Array): number {
+  values.fill(NaN);
+  let blanks = values.length;
+  let column = 0;
+  let start = 0;
+  const n = text.length;
+  while (column < slotAtColumn.length && start <= n) {
+    let end = text.indexOf(delimiter, start);
+    if (end < 0) end = n;
+    const slot = slotAtColumn[column] as number;
+    if (slot >= 0 && end > start) {
+      if (end - start > 15) return -1;
+      let i = start;
+      const negative = text.charCodeAt(i) === 45;
+      if (negative) i++;
+      let mantissa = 0;
+      let digits = 0;
+      let decimals = 0;
+      let marks = 0;
+      for (; i < end; i++) {
+        const c = text.charCodeAt(i);
+        if (c >= 48 && c <= 57) {
+          mantissa = mantissa * 10 + (c - 48);
+          digits++;
+          decimals += marks;
+        } else if (c === markCode && marks === 0) marks = 1;
+        else return -1;
+      }
+      if (digits === 0) return -1;
+      const magnitude = mantissa / (POWERS_OF_TEN[decimals] as number);
+      values[slot] = negative ? -magnitude : magnitude;
+      blanks--;
+    }
+    column++;
+    start = end + 1;
+  }
+  return blanks;
+}
+
+/** A slot's value in SI: value·factor + offset (NaN for a column the table does not have). */
+function siValue(values: Float64Array, slots: readonly Slot[], s: number | undefined): number {
+  return s === undefined ? NaN : (values[s] as number) * (slots[s] as Slot).factor + (slots[s] as Slot).offset;
+}
+
 /**
  * Reads a raw table row by row (see the module comment): construct with the header row, `add`
  * each data row, `skip` blank and comment lines a file has, then `finish`.
@@ -170,6 +224,8 @@ export class RawTableReader {
   private readonly measurements: (Measurement | undefined)[] = [];
   private deferred: DeferredRow[] = [];
   private readonly scratch: Float64Array;
+  /** for each column index, its slot (-1: a column not read) */
+  private readonly slotAtColumn: Int32Array;
   private readonly rows: RowAccount = emptyRowAccount();
   private readonly blankRows = new RowList();
   private readonly commentRows = new RowList();
@@ -233,6 +289,8 @@ export class RawTableReader {
       this.slots.push({ name, index: col.index, label: `${excerpt(col.header)} (column ${col.index + 1})`, unit, factor, offset, low: Infinity, lowRow: 0, high: -Infinity, highRow: 0 });
     }
     this.scratch = new Float64Array(this.slots.length);
+    this.slotAtColumn = new Int32Array(Math.max(0, ...this.slots.map((slot) => slot.index + 1))).fill(-1);
+    this.slots.forEach((slot, i) => (this.slotAtColumn[slot.index] = i));
     this.numbers = new TableNumberReader({
       describe: (slot, row): CellPlace => ({ column: (this.slots[slot] as Slot).label, row: `${opt.rowWord} ${row}` }),
       fallback: opt.decimalMark,
@@ -280,6 +338,33 @@ export class RawTableReader {
       if (v !== v) blanks++;
       values[s] = v;
     }
+    this.place(values, number, at, blanks, undecidedBefore);
+  }
+
+  /**
+   * One data line of a delimited file, as its text (no quotes, no line break). When the table's
+   * decimal mark is decided and every needed cell is blank or a plain decimal of at most 15
+   * characters ("190.3", "-5", "0,25" in a decimal-comma table), the cells are read straight from
+   * the text without splitting it into cell strings; any other line goes through {@link add}.
+   *
+   * The values are the same bit for bit: such a cell has at most 14 digits, an integer m < 2^53,
+   * and its value is m / 10^k with 10^k exact (k ≤ 14); one IEEE division rounds m / 10^k
+   * correctly, as Number() does for the text (the exact fast path of decimal input, W. D. Clinger,
+   * "How to read floating point numbers accurately", PLDI 1990).
+   */
+  addLine(text: string, delimiter: string, number: number): void {
+    const mark = this.numbers.mark;
+    if (mark === null || this.deferred.length > 0) return this.add(text.split(delimiter), number);
+    const values = this.scratch;
+    const blanks = readPlainCells(text, delimiter, mark === "." ? 46 : 44, this.slotAtColumn, values);
+    if (blanks < 0) return this.add(text.split(delimiter), number);
+    this.count();
+    this.place(values, number, this.measurements.length, blanks, this.numbers.undecided);
+  }
+
+  /** A row's values read (`blanks` of them blank): counted as blank, waiting for the mark, or settled. */
+  private place(values: Float64Array, number: number, at: number, blanks: number, undecidedBefore: number): void {
+    const slots = this.slots;
     if (blanks === slots.length) {
       this.blankRows.add(number);
       this.rows.rowsSkipped.blank = (this.rows.rowsSkipped.blank ?? 0) + 1;
@@ -346,35 +431,34 @@ export class RawTableReader {
       }
     }
     const of = this.slotOf;
-    const si = (s: number | undefined): number => (s === undefined ? NaN : (values[s] as number) * (slots[s] as Slot).factor + (slots[s] as Slot).offset);
     const isSlit = this.hasSlit && values[of.slit_width as number] === values[of.slit_width as number];
     const flowSource = this.flowSource;
     let flowRate: number;
     try {
-      if (flowSource === "flow_rate") flowRate = si(of.flow_rate);
-      else if (flowSource === "piston_speed") flowRate = flowRateFromPiston(si(of.piston_speed), of.barrel_diameter !== undefined ? si(of.barrel_diameter) : (this.opt.barrelDiameter as number));
-      else flowRate = flowRateFromMassRate(si(of.mass_rate), of.density !== undefined ? si(of.density) : (this.opt.density as number));
+      if (flowSource === "flow_rate") flowRate = siValue(values, slots, of.flow_rate);
+      else if (flowSource === "piston_speed") flowRate = flowRateFromPiston(siValue(values, slots, of.piston_speed), of.barrel_diameter !== undefined ? siValue(values, slots, of.barrel_diameter) : (this.opt.barrelDiameter as number));
+      else flowRate = flowRateFromMassRate(siValue(values, slots, of.mass_rate), of.density !== undefined ? siValue(values, slots, of.density) : (this.opt.density as number));
     } catch (e) {
       throw this.rowError(flowSource, number, e, values);
     }
-    const dieLength = si(of.die_length);
-    const pressure = si(of.pressure);
+    const dieLength = siValue(values, slots, of.die_length);
+    const pressure = siValue(values, slots, of.pressure);
     let m: Measurement;
     if (isSlit) {
-      const slitWidth = si(of.slit_width);
-      const slitHeight = si(of.slit_height);
+      const slitWidth = siValue(values, slots, of.slit_width);
+      const slitHeight = siValue(values, slots, of.slit_height);
       if (!(slitWidth > 0)) throw this.notPositive("slit_width", number, values);
       if (!(slitHeight > 0)) throw this.notPositive("slit_height", number, values);
       m = { slitWidth, slitHeight, dieLength, flowRate, pressure, row: number };
     } else {
-      const dieDiameter = si(of.die_diameter);
+      const dieDiameter = siValue(values, slots, of.die_diameter);
       if (!(dieDiameter > 0)) throw this.notPositive("die_diameter", number, values);
       m = { dieDiameter, dieLength, flowRate, pressure, row: number };
     }
     if (!(dieLength > 0)) throw this.notPositive("die_length", number, values);
     if (!(pressure > 0)) throw this.notPositive("pressure", number, values);
     if (!(flowRate > 0)) throw this.notPositive(flowSource, number, values);
-    if (of.temperature !== undefined) m.temperature = si(of.temperature);
+    if (of.temperature !== undefined) m.temperature = siValue(values, slots, of.temperature);
     if (placed) this.measurements[at] = m;
     else this.measurements.push(m);
   }

@@ -107,7 +107,7 @@ export function readRotationalTable(cells: unknown[][], options: Partial<Rotatio
   const numbers = new TableNumberReader({ describe: (u, row): CellPlace => ({ column: whereOf(u), row: `${opt.rowWord} ${row}` }), fallback: opt.decimalMark });
   const stored: (number | null)[] = [];
   const rowOf: number[] = [];
-  const correct = (list: PendingCell[]) => list.forEach((c) => (stored[c.key] = c.comma));
+  const correct = (list: readonly PendingCell[]) => list.forEach((c) => (stored[c.key] = c.comma));
   for (let r = 1; r < cells.length; r++) {
     const rowCells = cells[r] ?? [];
     const number = opt.rowNumbers?.[r] ?? opt.headerNumber + r;
