@@ -29,9 +29,9 @@ export const SI_RESULT = 1;
 export class UnitArgument {
   /** the factor of the default unit (NaN for a unit with an offset) */
   private readonly fallbackFactor: number;
-  /** the last text given (undefined: none yet, the default unit) and its factor */
+  /** the last unit text given (undefined: none yet) and its factor */
   private lastText: unknown = undefined;
-  private lastFactor: number;
+  private lastFactor = NaN;
 
   constructor(
     readonly argument: string,
@@ -39,7 +39,6 @@ export class UnitArgument {
     readonly fallback: string,
   ) {
     this.fallbackFactor = this.lookUp(fallback);
-    this.lastFactor = this.fallbackFactor;
   }
 
   /**
@@ -53,21 +52,17 @@ export class UnitArgument {
   /**
    * The factor to SI of the unit the argument names; NaN when the per-row lane must decline (an
    * unknown unit, whose message the general path builds, or a unit with an offset such as °C).
-   * Kept small in bytecode (see the lane's notes below): one comparison with the last text
-   * given, which starts as "omitted" with the default unit's factor; anything else goes to
-   * {@link remember}.
+   * An omitted unit (undefined, or null as Excel may pass it) is the default's factor; a unit
+   * given is compared with the last one given, and only a new one is looked up (out of line, in
+   * {@link remember}, which a per-row fill-down never reaches after its first row: see the lane's
+   * notes below on why rarely taken paths must stay out of line).
    */
   factor(value: unknown): number {
+    if (value == null) return this.fallbackFactor;
     return value === this.lastText ? this.lastFactor : this.remember(value);
   }
 
-  /**
-   * The factor of a text other than the last one. An omitted unit (undefined) does not displace
-   * the last text given, so that formulas with and without the unit argument, calculated in
-   * turn, do not look their unit up again on every call.
-   */
   private remember(value: unknown): number {
-    if (value === undefined) return this.fallbackFactor;
     const factor = this.lookUp(value);
     this.lastText = value;
     this.lastFactor = factor;
