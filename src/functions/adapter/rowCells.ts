@@ -54,8 +54,8 @@ export class UnitArgument {
    * unknown unit, whose message the general path builds, or a unit with an offset such as °C).
    * An omitted unit (undefined, or null as Excel may pass it) is the default's factor; a unit
    * given is compared with the last one given, and only a new one is looked up (out of line, in
-   * {@link remember}, which a per-row fill-down never reaches after its first row: see the lane's
-   * notes below on why rarely taken paths must stay out of line).
+   * {@link remember}, which a per-row fill-down reaches once: see the lane's notes below on
+   * paths seldom taken).
    */
   factor(value: unknown): number {
     if (value == null) return this.fallbackFactor;
@@ -114,9 +114,13 @@ function declined(): undefined {
  * the new [[value]] array, and an array that flows into such a merge is always allocated. A
  * call that has never run carries no type feedback, and the optimiser compiles it as "leave the
  * optimised code here" instead of as a branch; so while no call has declined, the answer is only
- * ever the array and the caller's `??` and `[0][0]` see through it. Once calls decline (a sheet
- * with blanks or error rows), the decline becomes an ordinary branch, the answer array is
- * allocated again, and a row costs about what "argument arrays built once" costs in the bench.
+ * ever the array and the caller's `??` and `[0][0]` see through it. The same holds for every
+ * path seldom taken (UnitArgument.remember, the function's general path): while it has never run
+ * it costs nothing, so such paths stay out of line, behind one call each. Once the function has
+ * declined in the process (a column spilled through it, a blank or an error row), the decline and
+ * the call to the general path are ordinary branches: the answer array merges again, and the
+ * argument arrays reach a call the optimiser does not inline, which (its escape analysis is not
+ * partial) keeps them allocated on every call. `npm run bench` shows that state on an info line.
  */
 
 /**
