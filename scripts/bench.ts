@@ -47,7 +47,7 @@ import { gaussian, seededRandom } from "../src/core/random";
 import { type Measurement, reduce } from "../src/core/reduce";
 import { wallRateFromApparentRate } from "../src/core/forwardFlow";
 import { wallStressApp } from "../src/functions/functions";
-import { inputBench } from "./bench/inputBench";
+import { PER_ROW_MIXED, PER_ROW_ONLY, inputBench, perRowBench } from "./bench/inputBench";
 import { smootherBenchmark, smootherTables } from "./benchSmoothers";
 import { detectTraceSteps, stepMeasurements, type TraceRun } from "../src/core/steps";
 import { syntheticRun } from "../test/helpers/syntheticTrace";
@@ -467,4 +467,6 @@ function main(): void {
   }
 }
 
-main();
+// section 7 runs in processes of its own (scripts/bench/inputBench.ts, perRowInChild)
+if (flags.has(PER_ROW_ONLY) || flags.has(PER_ROW_MIXED)) console.log(JSON.stringify(perRowBench((n) => (QUICK ? Math.max(5, Math.round(n / 4)) : n), flags.has(PER_ROW_MIXED))));
+else main();

@@ -14,6 +14,7 @@ import fc from "fast-check";
 import { acceptedUnits, type Quantity } from "../src/core/units";
 import * as sheet from "../src/functions/functions";
 import * as methods from "../src/functions/methods";
+import { AS_IS, SI_RESULT, UnitArgument, rowCells2, rowCells3, rowCells4 } from "../src/functions/adapter";
 import { expectClose } from "./helpers/expectClose";
 import { FakeCustomFunctionError, installOfficeRuntime } from "./helpers/sheet";
 
@@ -106,5 +107,78 @@ describe("the per-row lane gives what the general path gives", () => {
     // Q = v·π·Db²/4 with v = 10 mm/min = 1/6 mm/s and Db = 15 mm: mm3/s
     expectClose((sheet.flowRate([[10]], [[15]], "mm/min")[0] as unknown[])[0] as number, (10 / 60) * ((Math.PI * 15 ** 2) / 4), { rel: 1e-12 });
     expect(((sheet.flowRate([[10]], [[15]], "furlong")[0] as unknown[])[0] as FakeCustomFunctionError).code).toBe("#VALUE!");
+  });
+});
+
+/*
+ * The lane itself (src/functions/adapter/rowCells.ts): it answers only 1×1 ranges holding finite
+ * numbers with known units, and declines (undefined) everything else, whatever a caller passes.
+ * The answers are checked against the arithmetic written out here (SI = value·factor + 0, the
+ * result divided by the output factor).
+ */
+describe("the lane declines what it does not take", () => {
+  const sum2 = (a: number, b: number) => a + b;
+  const sum3 = (a: number, b: number, c: number) => a + b + c;
+  const sum4 = (a: number, b: number, c: number, d: number) => a + b + c + d;
+  const throws = (): number => {
+    throw new Error("core error");
+  };
+
+  test("1×1 ranges of finite numbers: value·factor + 0 into the core, the result ÷ the output factor", () => {
+    expect(rowCells2(sum2, [[2]], 1e5, [[3]], 1e-3, 10)).toEqual([[(2 * 1e5 + 0 + (3 * 1e-3 + 0)) / 10]]);
+    expect(rowCells3(sum3, [[2]], 1e5, [[3]], AS_IS, [[-0.5]], 1e-3, SI_RESULT)).toEqual([[2 * 1e5 + 3 + -0.5 * 1e-3]]);
+    expect(rowCells4(sum4, [[1]], 2, [[3]], 4, [[5]], 6, [[7]], 8, 4)).toEqual([[(2 + 12 + 30 + 56) / 4]]);
+    // a dimensionless argument passes as it is (−0 stays −0); SI_RESULT leaves the result as it is
+    const negativeZero = rowCells2((a) => a, [[-0]], AS_IS, [[1]], 1, SI_RESULT) as number[][];
+    expect(Object.is((negativeZero[0] as number[])[0], -0)).toBe(true);
+  });
+
+  const cells: unknown[] = ["5", "", " ", true, false, null, undefined, NaN, Infinity, -Infinity, {}, [1], 5n];
+  test.each(cells.map((c) => [String(c), c] as const))("a cell holding %s", (_name, cell) => {
+    expect(rowCells2(sum2, [[cell]], 1, [[1]], 1, 1)).toBeUndefined();
+    expect(rowCells2(sum2, [[1]], 1, [[cell]], 1, 1)).toBeUndefined();
+    expect(rowCells3(sum3, [[1]], 1, [[1]], 1, [[cell]], AS_IS, 1)).toBeUndefined();
+    expect(rowCells4(sum4, [[1]], 1, [[1]], 1, [[1]], 1, [[cell]], 1, 1)).toBeUndefined();
+  });
+
+  const shapes: [string, unknown][] = [
+    ["a row of two", [[1, 2]]],
+    ["a column of two", [[1], [2]]],
+    ["no rows", []],
+    ["an empty row", [[]]],
+    ["a number", 5],
+    ["a text", "ab"],
+    ["null", null],
+    ["undefined", undefined],
+    ["an object with a row but no length", { 0: [1] }],
+  ];
+  test.each(shapes)("a range that is %s", (_name, range) => {
+    expect(rowCells2(sum2, range, 1, [[1]], 1, 1)).toBeUndefined();
+    expect(rowCells3(sum3, [[1]], 1, range, 1, [[1]], 1, 1)).toBeUndefined();
+    expect(rowCells4(sum4, [[1]], 1, [[1]], 1, [[1]], 1, range, 1, 1)).toBeUndefined();
+  });
+
+  test("a unit factor or output factor that is not finite, a core error, a result that is not finite", () => {
+    expect(rowCells2(sum2, [[1]], NaN, [[1]], 1, 1)).toBeUndefined(); // an unknown unit or one with an offset
+    expect(rowCells3(sum3, [[1]], 1, [[1]], 1, [[1]], NaN, 1)).toBeUndefined();
+    expect(rowCells2(sum2, [[1]], 1, [[1]], 1, NaN)).toBeUndefined();
+    expect(rowCells2(sum2, [[1]], 1, [[1]], 1, AS_IS)).toBeUndefined(); // AS_IS is no output factor: ÷0 declines
+    expect(rowCells3(throws, [[1]], 1, [[1]], 1, [[1]], 1, 1)).toBeUndefined();
+    expect(rowCells2(sum2, [[1e300]], 1e10, [[1]], 1, 1)).toBeUndefined(); // overflow in the conversion
+    expect(rowCells2((a, b) => a / b, [[1]], 1, [[0]], 1, 1)).toBeUndefined(); // the core's result is infinite
+  });
+});
+
+describe("UnitArgument.factor", () => {
+  test("omitted (undefined or null) is the default unit; a text given is looked up; an unknown one is NaN", () => {
+    const length = new UnitArgument("lengthUnit", "length", "mm");
+    expect(length.factor(undefined)).toBe(1e-3);
+    expect(length.factor(null)).toBe(1e-3);
+    expect(length.factor("in")).toBe(0.0254); // 1 in = 25.4 mm exactly (NIST SP 811, appendix B)
+    expect(length.factor(undefined)).toBe(1e-3); // an omitted unit between texts: still the default
+    expect(length.factor("in")).toBe(0.0254);
+    expect(length.factor("furlong")).toBeNaN();
+    expect(length.factor("m")).toBe(1);
+    expect(new UnitArgument("temperature", "temperature", "C").factor(undefined)).toBeNaN(); // a unit with an offset
   });
 });

@@ -11,7 +11,7 @@
 import { apparentShearRate, apparentWallShearStress, correctedWallShearStress, viscosityFromStressAndRate, wallShearStressFromEndCorrection } from "../core/capillary";
 import { flowRateFromMassRate, flowRateFromPiston } from "../core/flow";
 import { acceptedUnits, convertUnit, knownQuantities } from "../core/units";
-import { AS_IS, DEFAULT_SHEET_UNITS as U, UnitArgument, guard, mapRows, rowCells2, rowCells3, rowCells4, flatten, readNumber, isBlank, optionalText, quantityArg } from "./adapter";
+import { AS_IS, DEFAULT_SHEET_UNITS as U, SI_RESULT, UnitArgument, guard, mapRows, rowCells2, rowCells3, rowCells4, flatten, readNumber, isBlank, optionalText, quantityArg } from "./adapter";
 import { bagleyTable, rabinowitschColumn } from "./tables";
 import { reduceTable } from "./reduceTable";
 
@@ -118,7 +118,7 @@ function flowRateMassRows(massRate: unknown[][], density: unknown[][], massRateU
  * @returns Apparent shear rate in 1/s per row.
  */
 export function shearRateApp(flowRate: unknown[][], dieDiameter: unknown[][], flowUnit?: string, lengthUnit?: string): unknown[][] {
-  return rowCells2(apparentShearRate, flowRate, FLOW_UNIT.factor(flowUnit), dieDiameter, LENGTH_UNIT.factor(lengthUnit), AS_IS) ?? shearRateAppRows(flowRate, dieDiameter, flowUnit, lengthUnit);
+  return rowCells2(apparentShearRate, flowRate, FLOW_UNIT.factor(flowUnit), dieDiameter, LENGTH_UNIT.factor(lengthUnit), SI_RESULT) ?? shearRateAppRows(flowRate, dieDiameter, flowUnit, lengthUnit);
 }
 
 function shearRateAppRows(flowRate: unknown[][], dieDiameter: unknown[][], flowUnit?: string, lengthUnit?: string): unknown[][] {

@@ -17,7 +17,7 @@ import { meltFlowPoint } from "../core/meltFlowRate";
 import { RheoError } from "../core/errors";
 import { fromSI, isUnitOf, toSI } from "../core/units";
 import { appendWarnings } from "./reduceTable";
-import { AS_IS, DEFAULT_SHEET_UNITS as U, Rows, UnitArgument, atRows, booleanArg, cellError, column, guard, mapRows, readNumber, readRows, rowCells3, rowCells4, unitArg, optionalText } from "./adapter";
+import { DEFAULT_SHEET_UNITS as U, Rows, SI_RESULT, UnitArgument, atRows, booleanArg, cellError, column, guard, mapRows, readNumber, readRows, rowCells3, rowCells4, unitArg, optionalText } from "./adapter";
 
 /*
  * Unit arguments of the element-wise functions below: the per-row lane (adapter/rowCells.ts)
@@ -66,7 +66,7 @@ function scalar(value: unknown, argument: string): number {
 export function slitShearRateApp(flowRate: unknown[][], slitWidth: unknown[][], slitHeight: unknown[][], flowUnit?: string, lengthUnit?: string): unknown[][] {
   const l = LENGTH_UNIT.factor(lengthUnit);
   return (
-    rowCells3(apparentSlitShearRate, flowRate, FLOW_UNIT.factor(flowUnit), slitWidth, l, slitHeight, l, AS_IS) ??
+    rowCells3(apparentSlitShearRate, flowRate, FLOW_UNIT.factor(flowUnit), slitWidth, l, slitHeight, l, SI_RESULT) ??
     slitShearRateAppRows(flowRate, slitWidth, slitHeight, flowUnit, lengthUnit)
   );
 }
@@ -281,7 +281,7 @@ export function cogswellFlow(entrancePressure: unknown[][], shearRateWall: unkno
  */
 export function heating(pressure: unknown[][], density: unknown[][], heatCapacity: unknown[][], pressureUnit?: string, densityUnit?: string, heatCapacityUnit?: string): unknown[][] {
   return (
-    rowCells3(adiabaticTemperatureRise, pressure, PRESSURE_UNIT.factor(pressureUnit), density, DENSITY_UNIT.factor(densityUnit), heatCapacity, HEAT_CAPACITY_UNIT.factor(heatCapacityUnit), AS_IS) ??
+    rowCells3(adiabaticTemperatureRise, pressure, PRESSURE_UNIT.factor(pressureUnit), density, DENSITY_UNIT.factor(densityUnit), heatCapacity, HEAT_CAPACITY_UNIT.factor(heatCapacityUnit), SI_RESULT) ??
     heatingRows(pressure, density, heatCapacity, pressureUnit, densityUnit, heatCapacityUnit)
   );
 }

@@ -18,6 +18,9 @@ import { unitScale } from "./unitScale";
 /** Factor of a dimensionless data argument: its value is passed as it is. */
 export const AS_IS = 0;
 
+/** Output factor of a result in SI: the result divided by 1, which leaves every number as it is. */
+export const SI_RESULT = 1;
+
 /**
  * One unit argument of a worksheet function (e.g. WALLSTRESSAPP's `lengthUnit`): its name,
  * quantity and default, declared once per function file, and the unit's factor to SI remembered
@@ -26,7 +29,7 @@ export const AS_IS = 0;
 export class UnitArgument {
   /** the factor of the default unit (NaN for a unit with an offset) */
   private readonly fallbackFactor: number;
-  /** the last text given (undefined: none yet) and its factor */
+  /** the last unit text given (undefined: none yet) and its factor */
   private lastText: unknown = undefined;
   private lastFactor = NaN;
 
@@ -49,10 +52,13 @@ export class UnitArgument {
   /**
    * The factor to SI of the unit the argument names; NaN when the per-row lane must decline (an
    * unknown unit, whose message the general path builds, or a unit with an offset such as °C).
-   * Kept small so that the optimiser inlines it: a new text goes to {@link remember}.
+   * An omitted unit (undefined, or null as Excel may pass it) is the default's factor; a unit
+   * given is compared with the last one given, and only a new one is looked up (out of line, in
+   * {@link remember}, which a per-row fill-down reaches once: see the lane's notes below on
+   * paths seldom taken).
    */
   factor(value: unknown): number {
-    if (value === undefined) return this.fallbackFactor;
+    if (value == null) return this.fallbackFactor;
     return value === this.lastText ? this.lastFactor : this.remember(value);
   }
 
@@ -72,69 +78,74 @@ export class UnitArgument {
   }
 }
 
-/*
- * The number of a 1×1 range holding a finite number; NaN for anything else. One reader per
- * argument position rather than one shared reader: each function literal keeps its own type
- * feedback, so the optimiser sees one array shape per position (decimals in one, whole numbers in
- * another) and can read the cell without a generic lookup, or drop the 1×1 arrays altogether
- * when it inlines the call into a loop.
+/**
+ * The answer of a call the lane does not take: undefined, the caller's general path answers.
+ * A call rather than a bare `undefined` on purpose (see below).
  */
-function cell0(range: unknown): number {
-  if (!Array.isArray(range) || range.length !== 1) return NaN;
-  const row: unknown = range[0];
-  if (!Array.isArray(row) || row.length !== 1) return NaN;
-  const cell: unknown = row[0];
-  return typeof cell === "number" && cell - cell === 0 ? cell : NaN;
-}
-function cell1(range: unknown): number {
-  if (!Array.isArray(range) || range.length !== 1) return NaN;
-  const row: unknown = range[0];
-  if (!Array.isArray(row) || row.length !== 1) return NaN;
-  const cell: unknown = row[0];
-  return typeof cell === "number" && cell - cell === 0 ? cell : NaN;
-}
-function cell2(range: unknown): number {
-  if (!Array.isArray(range) || range.length !== 1) return NaN;
-  const row: unknown = range[0];
-  if (!Array.isArray(row) || row.length !== 1) return NaN;
-  const cell: unknown = row[0];
-  return typeof cell === "number" && cell - cell === 0 ? cell : NaN;
-}
-function cell3(range: unknown): number {
-  if (!Array.isArray(range) || range.length !== 1) return NaN;
-  const row: unknown = range[0];
-  if (!Array.isArray(row) || row.length !== 1) return NaN;
-  const cell: unknown = row[0];
-  return typeof cell === "number" && cell - cell === 0 ? cell : NaN;
+function declined(): undefined {
+  return undefined;
 }
 
-/** A data value in SI: value·factor + 0 (as unitScale's toSI), or the value itself for {@link AS_IS}. */
-function si(value: number, factor: number): number {
-  return factor === AS_IS ? value : value * factor + 0;
-}
-
-/** [[result in the output unit]], or undefined when the result is not finite (the general path makes the #NUM!). */
-function shaped(result: number, output: number): unknown[][] | undefined {
-  const value = output === AS_IS ? result : result / output;
-  return value - value === 0 ? [[value]] : undefined;
-}
+/*
+ * How the lane is written, and why (`npm run bench` measures it; docs/performance.md).
+ *
+ * In the bench's loop, as in any JavaScript caller, the optimiser inlines the worksheet
+ * function, this lane and the core function into the caller, and can then drop the 1×1
+ * argument arrays and the [[value]] answer altogether (escape analysis): a row then costs a few
+ * times the bare arithmetic instead of some twenty times. Two things decide whether it does.
+ *
+ * The inlining budget, counted in bytecode: about 920 bytes per optimised function, and a
+ * candidate counts 1.2 × (its own bytecode + everything its own optimised code already
+ * inlined). A worksheet function optimised on its own before its caller (a race between the
+ * compiler threads) counts with its whole tree; a tree over about 760 bytes is then not inlined
+ * and every argument array escapes into the call. So the lane is written small in bytecode:
+ *   - the cells are read in place (`range[0][0]`) inside the try: a range that is not an array
+ *     of arrays throws on reading and declines like a core error; no Array.isArray, no reader
+ *     functions;
+ *   - the shape is checked by one sum of lengths: each of the 2n lengths is at least 1 once its
+ *     cell was read, so the sum is 2n only if every range is 1×1;
+ *   - finiteness is checked once, on the SI values: a cell that is not finite, a NaN unit factor
+ *     (a unit the lane does not take) or an overflow in the conversion makes an SI value
+ *     non-finite, and x − x is 0 only for a finite x; the value in the output unit likewise (a
+ *     NaN output factor, a core result that is not finite);
+ *   - one way out for every decline.
+ *
+ * The decline itself: were it a plain `undefined`, the lane's answer would merge undefined and
+ * the new [[value]] array, and an array that flows into such a merge is always allocated. A
+ * call that has never run carries no type feedback, and the optimiser compiles it as "leave the
+ * optimised code here" instead of as a branch; so while no call has declined, the answer is only
+ * ever the array and the caller's `??` and `[0][0]` see through it. The same holds for every
+ * path seldom taken (UnitArgument.remember, the function's general path): while it has never run
+ * it costs nothing, so such paths stay out of line, behind one call each. Once the function has
+ * declined in the process (a column spilled through it, a blank or an error row), the decline and
+ * the call to the general path are ordinary branches: the answer array merges again, and the
+ * argument arrays reach a call the optimiser does not inline, which (its escape analysis is not
+ * partial) keeps them allocated on every call. `npm run bench` shows that state on an info line.
+ */
 
 /**
  * The per-row lane for two data arguments: `compute` on their SI values, shaped as [[value]] in
- * the output unit (factor `output`, or {@link AS_IS} for an SI result); undefined to decline.
+ * the output unit (factor `output`, {@link SI_RESULT} for a result in SI); undefined to decline.
  */
 export function rowCells2(compute: (a: number, b: number) => number, r0: unknown, f0: number, r1: unknown, f1: number, output: number): unknown[][] | undefined {
-  const a = cell0(r0);
-  const b = cell1(r1);
-  // NaN marks a cell or a unit the lane does not take (NaN !== NaN)
-  if (a !== a || b !== b || f0 !== f0 || f1 !== f1 || output !== output) return undefined;
-  let result: number;
   try {
-    result = compute(si(a, f0), si(b, f1));
+    const row0 = (r0 as unknown[][])[0]!;
+    const row1 = (r1 as unknown[][])[0]!;
+    const a = row0[0];
+    const b = row1[0];
+    if (typeof a === "number" && typeof b === "number" && (r0 as unknown[]).length + row0.length + (r1 as unknown[]).length + row1.length === 4) {
+      const x = f0 === AS_IS ? a : a * f0 + 0;
+      const y = f1 === AS_IS ? b : b * f1 + 0;
+      if (x - x + (y - y) === 0) {
+        const result = compute(x, y);
+        const value = result / output;
+        if (value - value === 0) return [[value]];
+      }
+    }
   } catch {
-    return undefined;
+    // a core error or a range that is not an array of arrays: the general path says which
   }
-  return shaped(result, output);
+  return declined();
 }
 
 /** The per-row lane for three data arguments (see {@link rowCells2}). */
@@ -148,17 +159,32 @@ export function rowCells3(
   f2: number,
   output: number,
 ): unknown[][] | undefined {
-  const a = cell0(r0);
-  const b = cell1(r1);
-  const c = cell2(r2);
-  if (a !== a || b !== b || c !== c || f0 !== f0 || f1 !== f1 || f2 !== f2 || output !== output) return undefined;
-  let result: number;
   try {
-    result = compute(si(a, f0), si(b, f1), si(c, f2));
+    const row0 = (r0 as unknown[][])[0]!;
+    const row1 = (r1 as unknown[][])[0]!;
+    const row2 = (r2 as unknown[][])[0]!;
+    const a = row0[0];
+    const b = row1[0];
+    const c = row2[0];
+    if (
+      typeof a === "number" &&
+      typeof b === "number" &&
+      typeof c === "number" &&
+      (r0 as unknown[]).length + row0.length + (r1 as unknown[]).length + row1.length + (r2 as unknown[]).length + row2.length === 6
+    ) {
+      const x = f0 === AS_IS ? a : a * f0 + 0;
+      const y = f1 === AS_IS ? b : b * f1 + 0;
+      const z = f2 === AS_IS ? c : c * f2 + 0;
+      if (x - x + (y - y) + (z - z) === 0) {
+        const result = compute(x, y, z);
+        const value = result / output;
+        if (value - value === 0) return [[value]];
+      }
+    }
   } catch {
-    return undefined;
+    // a core error or a range that is not an array of arrays: the general path says which
   }
-  return shaped(result, output);
+  return declined();
 }
 
 /** The per-row lane for four data arguments (see {@link rowCells2}). */
@@ -174,16 +200,34 @@ export function rowCells4(
   f3: number,
   output: number,
 ): unknown[][] | undefined {
-  const a = cell0(r0);
-  const b = cell1(r1);
-  const c = cell2(r2);
-  const d = cell3(r3);
-  if (a !== a || b !== b || c !== c || d !== d || f0 !== f0 || f1 !== f1 || f2 !== f2 || f3 !== f3 || output !== output) return undefined;
-  let result: number;
   try {
-    result = compute(si(a, f0), si(b, f1), si(c, f2), si(d, f3));
+    const row0 = (r0 as unknown[][])[0]!;
+    const row1 = (r1 as unknown[][])[0]!;
+    const row2 = (r2 as unknown[][])[0]!;
+    const row3 = (r3 as unknown[][])[0]!;
+    const a = row0[0];
+    const b = row1[0];
+    const c = row2[0];
+    const d = row3[0];
+    if (
+      typeof a === "number" &&
+      typeof b === "number" &&
+      typeof c === "number" &&
+      typeof d === "number" &&
+      (r0 as unknown[]).length + row0.length + (r1 as unknown[]).length + row1.length + (r2 as unknown[]).length + row2.length + (r3 as unknown[]).length + row3.length === 8
+    ) {
+      const x = f0 === AS_IS ? a : a * f0 + 0;
+      const y = f1 === AS_IS ? b : b * f1 + 0;
+      const z = f2 === AS_IS ? c : c * f2 + 0;
+      const w = f3 === AS_IS ? d : d * f3 + 0;
+      if (x - x + (y - y) + (z - z) + (w - w) === 0) {
+        const result = compute(x, y, z, w);
+        const value = result / output;
+        if (value - value === 0) return [[value]];
+      }
+    }
   } catch {
-    return undefined;
+    // a core error or a range that is not an array of arrays: the general path says which
   }
-  return shaped(result, output);
+  return declined();
 }
