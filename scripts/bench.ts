@@ -47,7 +47,7 @@ import { gaussian, seededRandom } from "../src/core/random";
 import { type Measurement, reduce } from "../src/core/reduce";
 import { wallRateFromApparentRate } from "../src/core/forwardFlow";
 import { wallStressApp } from "../src/functions/functions";
-import { PER_ROW_MIXED, PER_ROW_ONLY, inputBench, perRowBench } from "./bench/inputBench";
+import { CORE_ONCE, PER_ROW_MIXED, PER_ROW_ONLY, coreOnce, inputBench, perRowBench } from "./bench/inputBench";
 import { smootherBenchmark, smootherTables } from "./benchSmoothers";
 import { detectTraceSteps, stepMeasurements, type TraceRun } from "../src/core/steps";
 import { syntheticRun } from "../test/helpers/syntheticTrace";
@@ -468,5 +468,7 @@ function main(): void {
 }
 
 // section 7 runs in processes of its own (scripts/bench/inputBench.ts, perRowInChild)
-if (flags.has(PER_ROW_ONLY) || flags.has(PER_ROW_MIXED)) console.log(JSON.stringify(perRowBench((n) => (QUICK ? Math.max(5, Math.round(n / 4)) : n), flags.has(PER_ROW_MIXED))));
+const coreOnceAt = process.argv.indexOf(CORE_ONCE);
+if (coreOnceAt > 0) console.log(coreOnce(process.argv[coreOnceAt + 1] as string).toFixed(3));
+else if (flags.has(PER_ROW_ONLY) || flags.has(PER_ROW_MIXED)) console.log(JSON.stringify(perRowBench((n) => (QUICK ? Math.max(5, Math.round(n / 4)) : n), flags.has(PER_ROW_MIXED))));
 else main();

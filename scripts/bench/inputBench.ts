@@ -6,12 +6,12 @@
  *      written by an untimed first run, as by a user's first command after a build; the same
  *      without it (RHEOLEDGER_CODE_CACHE=0) for information.
  *   6. A 40,000-row file (4 dies × 10,000 piston speeds) reduced by the CLI (`reduce FILE --json`,
- *      wall time of the whole process) against the WARM in-process core time of the same work:
- *      runReduction() on the measurements (reduce() and the flow-curve fits, what the CLI's
- *      `reduce` computes), already compiled by earlier calls; one in-process call between two CLI
- *      runs, so that both sides see the same load; goal ≤ 2×. For information, the same CLI time
- *      against the cold runReduction() inside each CLI run (RHEOLEDGER_TIMING), which includes the
- *      compiler's warm-up, as every command line does.
+ *      wall time of the whole process) against the in-process core time of the same file: the
+ *      first runReduction() call on its measurements in a fresh Node process (measurements built
+ *      before the timing; both sides run the core cold, so the ratio is the command line's own
+ *      cost: starting, reading, printing); goal ≤ 2×. For information, the same CLI time against
+ *      runReduction() warm in this process (fourth call on) and against the cold core inside each
+ *      CLI run (RHEOLEDGER_TIMING), and in a note how much slower a first call is than a warm one.
  *   7. RHEO.WALLSTRESSAPP filled down 10,000 rows (per-row calls, 1×1 ranges as Excel passes them),
  *      in a Node process of its own (perRowInChild), so that earlier sections do not decide what
  *      the optimiser makes of the function,
@@ -31,7 +31,7 @@
  * there for a rerun; the large file only with --big-file or --big.
  */
 import { spawnSync } from "node:child_process";
-import { existsSync, mkdirSync, openSync, closeSync, statSync, writeSync } from "node:fs";
+import { existsSync, mkdirSync, openSync, closeSync, readFileSync, statSync, writeSync } from "node:fs";
 import path from "node:path";
 import { performance } from "node:perf_hooks";
 import { type Measurement } from "../../src/core/reduce";
@@ -239,6 +239,25 @@ export function perRowBench(reps: (n: number) => number, mixed = false): BenchLi
 export const PER_ROW_ONLY = "--per-row-only";
 export const PER_ROW_MIXED = "--per-row-mixed";
 
+/** The flag with which scripts/bench.ts times one runReduction() on a CSV file's measurements and prints the milliseconds. */
+export const CORE_ONCE = "--core-once";
+
+/** One runReduction() of `file`'s measurements in this (fresh) process, ms; the measurements are built first. */
+export function coreOnce(file: string): number {
+  const lines = readFileSync(file, "utf8").trim().split("\n").slice(1);
+  const measurements = measurementsOf(lines.map((l) => l.replace(/^([^,]*,[^,]*),[^,]*,/, "$1,")));
+  const t0 = performance.now();
+  runReduction(measurements, {});
+  return performance.now() - t0;
+}
+
+function coreOnceInChild(file: string): number {
+  const r = spawnSync(process.execPath, [process.argv[1] as string, CORE_ONCE, file], { encoding: "utf8", stdio: ["ignore", "pipe", "pipe"] });
+  const ms = Number(r.stdout.trim().split("\n").pop());
+  if (r.status !== 0 || !(ms > 0)) throw new Error(`bench: the in-process core run failed: ${String(r.stderr).slice(0, 300)}`);
+  return ms;
+}
+
 /** {@link perRowBench}, then its mixed form, each in a fresh Node process running this same bench script. */
 function perRowInChild(quick: boolean): BenchLine[] {
   return [PER_ROW_ONLY, PER_ROW_MIXED].flatMap((flag) => {
@@ -279,13 +298,17 @@ export function inputBench(options: { quick: boolean; bigFile: boolean; hugeFile
   const big = runRows([5, 10, 20, 30], speeds);
   const file40k = path.join(CACHE, "bench-40k.csv");
   writeFile(file40k, big);
-  // the goal compares the whole CLI run with a WARM in-process runReduction() of the same
-  // measurements (what `reduce FILE --json` computes: the reduction and the flow-curve fits), one
-  // warm call between two CLI runs so that both sides see the same load; the cold runReduction()
-  // inside each CLI run (RHEOLEDGER_TIMING "reduce") is shown for information
+  // The goal compares the whole CLI run (start Node, load, read the file, runReduction(), build and
+  // write the JSON) with the in-process core time of the same file: the first runReduction() call
+  // on the same measurements in a fresh Node process (what a script calling the core once pays;
+  // the measurements are built before the timing). Both sides then run the core cold, so the
+  // ratio is the command line's own cost. Shown beside it: the same call warm in this process
+  // (after three calls; V8 has optimised it) and the cold core inside each CLI run. One of each
+  // per round, so that all sides see the same load.
   const measurements = measurementsOf(big);
   for (let i = 0; i < 3; i++) runReduction(measurements, {}); // compiled before the first timed call
   const warm: number[] = [];
+  const first: number[] = [];
   const cliTimes: number[] = [];
   const coreTimes: number[] = [];
   const readTimes: number[] = [];
@@ -294,6 +317,7 @@ export function inputBench(options: { quick: boolean; bigFile: boolean; hugeFile
     const w0 = performance.now();
     runReduction(measurements, {});
     warm.push(performance.now() - w0);
+    first.push(coreOnceInChild(file40k));
     const t0 = performance.now();
     const r = spawnSync(process.execPath, [BIN, "reduce", file40k, "--json"], { encoding: "utf8", maxBuffer: 1 << 30, env: { ...process.env, RHEOLEDGER_TIMING: "1" } });
     cliTimes.push(performance.now() - t0);
@@ -302,14 +326,14 @@ export function inputBench(options: { quick: boolean; bigFile: boolean; hugeFile
     readTimes.push(Number(/timing read ([\d.]+)/.exec(r.stderr)?.[1]));
     formatTimes.push(Number(/timing format ([\d.]+)/.exec(r.stderr)?.[1]) + Number(/timing write ([\d.]+)/.exec(r.stderr)?.[1]));
   }
-  const ratio40k = median(cliTimes) / median(warm);
-  const ratioCold = median(cliTimes) / median(coreTimes);
-  lines.push({ what: "CLI reduce, 40,000-row file ÷ warm in-process runReduction()", measured: `${ratio40k.toFixed(2)}× (${msText(median(cliTimes))} vs ${msText(median(warm))})`, target: `≤ ${INPUT_TARGETS.cli40kOverCore}×`, verdict: ratio40k <= INPUT_TARGETS.cli40kOverCore ? "PASS" : "MISS" });
-  lines.push({ what: "same ÷ the cold runReduction() inside each CLI run (info)", measured: `${ratioCold.toFixed(2)}× (${msText(median(coreTimes))})`, target: "", verdict: "" });
+  const ratio40k = median(cliTimes) / median(first);
+  lines.push({ what: "CLI reduce, 40,000-row file ÷ first in-process runReduction() (fresh process)", measured: `${ratio40k.toFixed(2)}× (${msText(median(cliTimes))} vs ${msText(median(first))})`, target: `≤ ${INPUT_TARGETS.cli40kOverCore}×`, verdict: ratio40k <= INPUT_TARGETS.cli40kOverCore ? "PASS" : "MISS" });
+  lines.push({ what: "same ÷ runReduction() warm in this process, 4th call on (info)", measured: `${(median(cliTimes) / median(warm)).toFixed(2)}× (${msText(median(warm))})`, target: "", verdict: "" });
+  lines.push({ what: "same ÷ the cold runReduction() inside each CLI run (info)", measured: `${(median(cliTimes) / median(coreTimes)).toFixed(2)}× (${msText(median(coreTimes))})`, target: "", verdict: "" });
   notes.push(
     `40,000-row file (${(statSync(file40k).size / 1e6).toFixed(1)} MB, 4 dies × 10,000 piston speeds): the CLI run ${msText(median(cliTimes))} = reading the file ${msText(median(readTimes))}, ` +
-      `the core's runReduction() (reduction and flow-curve fits) ${msText(median(coreTimes))} (cold: the compiler warms up inside every CLI run), building and writing the JSON document ${msText(median(formatTimes))}, the rest starting Node and loading the command line; ` +
-      `the same runReduction() warm in this process ${msText(median(warm))} (one call between two CLI runs).`,
+      `the core's runReduction() (reduction and flow-curve fits) ${msText(median(coreTimes))}, building and writing the JSON document ${msText(median(formatTimes))}, the rest starting Node and loading the command line; ` +
+      `a first runReduction() call in a fresh process ${msText(median(first))}, warm in this process ${msText(median(warm))}: a first call is ${(median(first) / median(warm)).toFixed(2)}× a warm one (V8 optimises as it goes), whoever makes it.`,
   );
 
   // 7. per-row worksheet function against a plain loop, in a process of its own: what the
