@@ -12,9 +12,11 @@
  *
  * What is measured (all data invented, generated from known laws with a fixed seed):
  *   1. fitModel("carreau-yasuda") on 40 points (2 % log-normal noise): the complete call (guesses,
- *      solve, statistics). When /usr/bin/python3 has scipy, scripts/bench_scipy.py
+ *      solve, statistics). When a Python imports scipy (scripts/findPython.ts), scripts/bench_scipy.py
  *      fits the same points with the same residuals (ln η), coordinates (ln p), start and
- *      tolerances, and the ratio scipy/ours is printed; otherwise that line says why it is skipped.
+ *      tolerances (MINPACK lm with the analytic Jacobian and with differences, and scipy's default
+ *      trf), in rounds alternating with ours; each ratio scipy/ours with the spread of both sides and
+ *      the sums of squares reached; otherwise the line says why it is skipped.
  *   1b. fitMasterCurve: Carreau–Yasuda × Arrhenius on three curves next to scipy's least_squares
  *      on the same problem, in alternating rounds (scripts/bench/masterFitBench.ts).
  *   2. reduce() of 4 dies × 10 piston speeds (Bagley, Rabinowitsch "transition") and a
@@ -52,6 +54,8 @@ import { smootherBenchmark, smootherTables } from "./benchSmoothers";
 import { detectTraceSteps, stepMeasurements, type TraceRun } from "../src/core/steps";
 import { syntheticRun } from "../test/helpers/syntheticTrace";
 import { benchMasterFit } from "./bench/masterFitBench";
+import { findPython } from "./findPython";
+import { median, ms, sample, spread } from "./bench/sampling";
 
 /** The issue's targets. */
 export const BENCH_TARGETS = Object.freeze({
@@ -130,26 +134,56 @@ function fitData(): { shearRate: number[]; viscosity: number[] } {
   return { shearRate, viscosity };
 }
 
-interface ScipyAnswer {
-  scipy: string;
-  variants: { name: string; medianMs: number; nfev: number; success: boolean; parameters: Record<string, number> }[];
+interface ScipyVariant {
+  name: string;
+  samplesMs: number[];
+  nfev: number;
+  ssr: number;
+  success: boolean;
+  parameters: Record<string, number>;
 }
 
-/** Runs scripts/bench_scipy.py; a reason string when python3 or scipy is absent. */
-function scipyFit(data: { shearRate: number[]; viscosity: number[] }, start: number[]): ScipyAnswer | string {
-  const python = "/usr/bin/python3";
-  if (!existsSync(python)) return `${python} not found`;
-  const job = JSON.stringify({ ...data, start, repeats: reps(21), batch: 10 });
+/** One round of scripts/bench_scipy.py through `python`: its variants, or the reason it gave none. */
+function scipyRound(python: string, data: { shearRate: number[]; viscosity: number[] }, start: number[], repeats: number): { scipy: string; variants: ScipyVariant[] } | string {
+  const job = JSON.stringify({ ...data, start, repeats, batch: 10 });
   const run = spawnSync(python, [path.join(ROOT, "scripts", "bench_scipy.py")], { input: job, encoding: "utf8", timeout: 300000 });
-  let answer: (ScipyAnswer & { error?: undefined }) | { error: string } | undefined;
+  let answer: { scipy?: string; error?: string; variants?: ScipyVariant[] } | undefined;
   try {
     answer = JSON.parse(run.stdout);
   } catch {
     answer = undefined;
   }
   if (!answer) return `bench_scipy.py gave no answer (${(run.stderr || run.error?.message || `status ${run.status}`).trim().split("\n").pop()})`;
-  if (answer.error !== undefined) return answer.error;
-  return answer;
+  if (answer.error !== undefined || !answer.variants) return answer.error ?? "bench_scipy.py gave no variants";
+  return { scipy: answer.scipy ?? "", variants: answer.variants };
+}
+
+/**
+ * Our fit and scipy's variants in alternating rounds (ours, scipy, ours, ...), so that a change in
+ * the machine's load touches both sides: per side all samples, and scipy's answer per variant.
+ */
+function fitAgainstScipy(data: { shearRate: number[]; viscosity: number[] }, start: number[]): { ours: number[]; scipy: string; variants: Map<string, ScipyVariant> } | string {
+  const py = findPython(["numpy", "scipy"]);
+  if (py.python === null) return py.reason;
+  const rounds = QUICK ? 2 : 4;
+  const repeats = QUICK ? 5 : 10;
+  const ours: number[] = [];
+  const variants = new Map<string, ScipyVariant>();
+  let version = "";
+  const counter = { value: 0 };
+  for (let round = 0; round < rounds; round++) {
+    ours.push(...sample(() => fitModel("carreau-yasuda", data).parameters.n as number, repeats, 10, counter));
+    const answer = scipyRound(py.python, data, start, repeats);
+    if (typeof answer === "string") return answer;
+    version = answer.scipy;
+    for (const v of answer.variants) {
+      const seen = variants.get(v.name);
+      if (seen) seen.samplesMs.push(...v.samplesMs);
+      else variants.set(v.name, { ...v, samplesMs: [...v.samplesMs] });
+    }
+  }
+  sink += counter.value;
+  return { ours, scipy: `${version} (${py.python})`, variants };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -307,7 +341,6 @@ interface Line {
   verdict: "PASS" | "MISS" | "";
 }
 
-const ms = (v: number) => (v < 1 ? `${(v * 1000).toFixed(0)} µs` : `${v.toFixed(v < 10 ? 2 : 1)} ms`);
 const kb = (bytes: number) => `${(bytes / 1024).toFixed(1)} KB`;
 const verdict = (ok: boolean): "PASS" | "MISS" => (ok ? "PASS" : "MISS");
 
@@ -363,16 +396,19 @@ function main(): void {
   lines.push({ what: "Carreau–Yasuda fit, 40 points", measured: ms(fitTime.median), target: `≤ ${ms(BENCH_TARGETS.fitMs)}`, verdict: verdict(fitTime.median <= BENCH_TARGETS.fitMs) });
   const heldTime = time(() => fitModel("carreau-yasuda", data, { fixed: { etaInf: 0 } }).parameters.n as number, reps(41), 20, 100);
   lines.push({ what: "same fit with η∞ held at 0 (info)", measured: ms(heldTime.median), target: "", verdict: "" });
-  const scipy = scipyFit(data, getModel("carreau-yasuda").initialGuess(data));
+  const scipy = fitAgainstScipy(data, getModel("carreau-yasuda").initialGuess(data));
   if (typeof scipy === "string") {
     lines.push({ what: "scipy ÷ ours, same fit", measured: "skipped", target: `≥ ${BENCH_TARGETS.scipyRatio}×`, verdict: "" });
     notes.push(`scipy comparison skipped: ${scipy}.`);
   } else {
-    for (const v of scipy.variants) {
-      const ratio = v.medianMs / fitTime.median;
+    const oursMedian = median(scipy.ours);
+    lines.push({ what: "same fit, alternating with scipy (info)", measured: `${ms(oursMedian)} (${spread(scipy.ours)})`, target: "", verdict: "" });
+    notes.push(`scipy comparison: ${QUICK ? 2 : 4} alternating rounds, ours then scipy ${scipy.scipy}, each round 10 samples of 10 fits per side; ours reached SSR ${ours.ssr.toExponential(6)}.`);
+    for (const v of scipy.variants.values()) {
+      const ratio = median(v.samplesMs) / oursMedian;
       const agree = Math.max(...Object.entries(v.parameters).map(([k, p]) => Math.abs((ours.parameters[k] as number) / p - 1)));
-      lines.push({ what: `scipy ${scipy.scipy} (${v.name}) ÷ ours`, measured: `${ratio.toFixed(1)}× (${ms(v.medianMs)})`, target: `≥ ${BENCH_TARGETS.scipyRatio}×`, verdict: verdict(ratio >= BENCH_TARGETS.scipyRatio) });
-      notes.push(`scipy.optimize.least_squares ${scipy.scipy}, ${v.name}: ${v.nfev} residual evaluations, ${v.success ? "converged" : "NOT converged"}, largest relative parameter difference from ours ${agree.toExponential(1)}.`);
+      lines.push({ what: `scipy (${v.name}) ÷ ours`, measured: `${ratio.toFixed(1)}× (${ms(median(v.samplesMs))}, ${spread(v.samplesMs)})`, target: `≥ ${BENCH_TARGETS.scipyRatio}×`, verdict: verdict(ratio >= BENCH_TARGETS.scipyRatio) });
+      notes.push(`scipy.optimize.least_squares, ${v.name}: ${v.nfev} residual evaluations, ${v.success ? "converged" : "NOT converged"}, SSR ${v.ssr.toExponential(6)}, largest relative parameter difference from ours ${agree.toExponential(1)}.`);
     }
   }
   notes.push(

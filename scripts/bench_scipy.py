@@ -4,7 +4,9 @@
 Called by scripts/bench.ts with one JSON document on stdin:
     {"shearRate": [...], "viscosity": [...], "start": [eta0, etaInf, lambda, n, a], "repeats": 21, "batch": 10}
 and answers one JSON document on stdout:
-    {"scipy": "1.10.1", "variants": [{"name", "medianMs", "nfev", "parameters": {...}, "success"}]}
+    {"scipy": "1.10.1", "variants": [{"name", "samplesMs", "medianMs", "nfev", "ssr", "parameters": {...}, "success"}]}
+(samplesMs: one per repeat, each the mean of `batch` fits; ssr: the sum of squared residuals reached).
+scripts/bench.ts calls it once per round, alternating with its own samples.
 or {"error": "..."} with exit status 3 when numpy or scipy cannot be imported.
 
 The problem is the one fitModel("carreau-yasuda") solves: five parameters, residuals
@@ -16,9 +18,10 @@ and solves the five-parameter problem in one run; scipy is given the free proble
 optimum here is inside the bounds, so the coordinates do not change it). The model formula is coded
 here independently (Yasuda, Armstrong & Cohen 1981):
     eta = eta_inf + (eta0 - eta_inf) * (1 + (lambda*rate)^a)^((n-1)/a)
-Two variants are timed: MINPACK "lm" with the analytic Jacobian (the same information the
-TypeScript solver gets) and "lm" with scipy's default 2-point finite differences.
-Run with Debian's python3 (apt-get install python3-scipy): /usr/bin/python3.
+Three variants are timed: MINPACK "lm" with the analytic Jacobian (the same information the
+TypeScript solver gets), "lm" with 2-point finite differences, and scipy's default method ("trf",
+trust region reflective, with 2-point differences).
+Run by the first Python that imports scipy (scripts/findPython.ts), e.g. Debian's python3-scipy.
 """
 import json
 import statistics
@@ -74,7 +77,7 @@ def timed(fit, repeats, batch):
         for _ in range(batch):
             fit()
         samples.append((time.perf_counter() - t0) * 1000 / batch)
-    return statistics.median(samples), result
+    return samples, result
 
 
 def main():
@@ -88,14 +91,17 @@ def main():
     variants = {
         "lm, analytic Jacobian": lambda: least_squares(residuals, u0, jac=jacobian, method="lm", args=(rate, ln_eta), **tolerances),
         "lm, 2-point differences": lambda: least_squares(residuals, u0, method="lm", args=(rate, ln_eta), **tolerances),
+        "trf (default), 2-point differences": lambda: least_squares(residuals, u0, args=(rate, ln_eta), **tolerances),
     }
     out = []
     for name, fit in variants.items():
-        median_ms, result = timed(fit, repeats, batch)
+        samples, result = timed(fit, repeats, batch)
         out.append({
             "name": name,
-            "medianMs": median_ms,
+            "samplesMs": samples,
+            "medianMs": statistics.median(samples),
             "nfev": int(result.nfev),
+            "ssr": float(2 * result.cost),
             "success": bool(result.success),
             "parameters": dict(zip(NAMES, np.exp(result.x).tolist())),
         })

@@ -40,6 +40,7 @@ import { apparentWallShearStress } from "../../src/core/capillary";
 import { unitFactors } from "../../src/core/units";
 import { seededRandom } from "../../src/core/random";
 import { wallStressApp } from "../../src/functions/functions";
+import { median, ms } from "./sampling";
 
 export const INPUT_TARGETS = Object.freeze({ coldStartRatio: 1.5, cli40kOverCore: 2, perRowOverPlain: 10 });
 
@@ -54,12 +55,7 @@ const ROOT = process.cwd();
 const CACHE = path.join(ROOT, ".cache");
 const BIN = path.join(ROOT, "bin", "rheoledger.js");
 
-const median = (xs: number[]) => {
-  const s = [...xs].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? (s[m] as number) : ((s[m - 1] as number) + (s[m] as number)) / 2;
-};
-const msText = (v: number) => (v < 1 ? `${(v * 1000).toFixed(0)} µs` : `${v.toFixed(v < 10 ? 2 : 1)} ms`);
+const msText = ms;
 const wall = (args: string[], env: Record<string, string> = {}): number => {
   const t0 = performance.now();
   const r = spawnSync(process.execPath, args, { stdio: ["ignore", "ignore", "pipe"], maxBuffer: 1 << 30, env: { ...process.env, ...env } });
@@ -253,9 +249,9 @@ export function coreOnce(file: string): number {
 
 function coreOnceInChild(file: string): number {
   const r = spawnSync(process.execPath, [process.argv[1] as string, CORE_ONCE, file], { encoding: "utf8", stdio: ["ignore", "pipe", "pipe"] });
-  const ms = Number(r.stdout.trim().split("\n").pop());
-  if (r.status !== 0 || !(ms > 0)) throw new Error(`bench: the in-process core run failed: ${String(r.stderr).slice(0, 300)}`);
-  return ms;
+  const took = Number(r.stdout.trim().split("\n").pop());
+  if (r.status !== 0 || !(took > 0)) throw new Error(`bench: the in-process core run failed: ${String(r.stderr).slice(0, 300)}`);
+  return took;
 }
 
 /** {@link perRowBench}, then its mixed form, each in a fresh Node process running this same bench script. */

@@ -15,6 +15,7 @@ import { spawnSync } from "node:child_process";
 import path from "node:path";
 import { fitMasterCurve, type TemperatureCurve } from "../../src/core/temperature";
 import { findPython } from "../findPython";
+import { median, ms, sample, spread } from "./sampling";
 import reference from "../../test/fixtures/scipy-master-fits.json";
 
 export interface BenchLine {
@@ -26,30 +27,6 @@ export interface BenchLine {
 
 interface Sampled {
   samples: number[];
-}
-
-const median = (v: number[]) => {
-  const s = [...v].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? (s[m] as number) : ((s[m - 1] as number) + (s[m] as number)) / 2;
-};
-const ms = (v: number) => (v < 1 ? `${(v * 1000).toFixed(0)} µs` : `${v.toFixed(v < 10 ? 2 : 1)} ms`);
-const spread = (v: number[]) => `${ms(Math.min(...v))}–${ms(Math.max(...v))}`;
-
-/** Minimum warm-up of each measured function, ms (V8 optimises the solver within the first few hundred calls). */
-const WARMUP_MS = 400;
-
-/** Times `fn` in `repeats` samples of `batch` calls after a warm-up; per-call ms. */
-function sample(fn: () => number, repeats: number, batch: number, sink: { value: number }): number[] {
-  const warm = performance.now();
-  for (let i = 0; i < batch * 3 || performance.now() - warm < WARMUP_MS; i++) sink.value += fn();
-  const out: number[] = [];
-  for (let r = 0; r < repeats; r++) {
-    const t0 = performance.now();
-    for (let b = 0; b < batch; b++) sink.value += fn();
-    out.push((performance.now() - t0) / batch);
-  }
-  return out;
 }
 
 /** Lines and notes of the bench for the fit across temperatures. */
