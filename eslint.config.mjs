@@ -14,11 +14,13 @@ export default tseslint.config(
     },
   },
   {
-    files: ["scripts/**/*.mjs", "scripts/**/*.js", "*.js", "*.mjs"],
+    files: ["scripts/**/*.mjs", "scripts/**/*.cjs", "scripts/**/*.js", "*.js", "*.mjs"],
     languageOptions: {
       globals: { process: "readonly", console: "readonly", Buffer: "readonly", URL: "readonly", setTimeout: "readonly", clearTimeout: "readonly", __dirname: "readonly", require: "readonly", module: "writable" },
     },
   },
+  // CommonJS scripts load with require()
+  { files: ["scripts/**/*.cjs"], rules: { "@typescript-eslint/no-require-imports": "off" } },
   {
     files: ["src/core/**/*.ts"],
     rules: {

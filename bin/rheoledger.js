@@ -32,19 +32,7 @@ function newestSource(dir) {
 let stat = fs.statSync(bundle, { throwIfNoEntry: false });
 const sources = path.join(root, "src");
 if (!stat || (fs.existsSync(sources) && stat.mtimeMs < newestSource(sources))) {
-  require("esbuild").buildSync({
-    entryPoints: [path.join(sources, "cli", "node.ts")],
-    bundle: true,
-    platform: "node",
-    target: "node20",
-    format: "cjs",
-    outfile: bundle,
-    external: ["exceljs", "jszip"],
-    // import() of the workbook library becomes require() inside a promise: the bundle runs
-    // through node:vm below, where import() has no module loader
-    supported: { "dynamic-import": false },
-    logLevel: "warning",
-  });
+  require("esbuild").buildSync(require(path.join(root, "scripts", "cliBuildOptions.cjs"))(root));
   stat = fs.statSync(bundle);
 }
 
