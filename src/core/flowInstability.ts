@@ -218,7 +218,8 @@ function prepare(s: BreakSeries): Prepared {
   const t = centred(s.x);
   const basis: Float64Array[] = [];
   for (let k = 0; k <= degree && n > 0; k++) {
-    const q = Float64Array.from(t, (v) => v ** k);
+    const q = new Float64Array(n);
+    for (let i = 0; i < n; i++) q[i] = (t[i] as number) ** k;
     for (let pass = 0; pass < 2; pass++) {
       for (const e of basis) {
         const c = dot(q, e);
@@ -240,7 +241,11 @@ function prepare(s: BreakSeries): Prepared {
     for (let i = n - 1; i >= 0; i--) out[i] = (out[i + 1] as number) + (v[i] as number);
     return out;
   };
-  const times = (v: ArrayLike<number>) => Float64Array.from(s.x, (xi, i) => xi * (v[i] as number));
+  const times = (v: ArrayLike<number>) => {
+    const out = new Float64Array(n);
+    for (let i = 0; i < n; i++) out[i] = (s.x[i] as number) * (v[i] as number);
+    return out;
+  };
   return {
     x: s.x,
     y: s.y,
