@@ -515,6 +515,12 @@ maybe("task pane preview mode (chromium)", () => {
     await page.locator('[data-card="masterfit"]').screenshot({ path: join(OUT, "pane-350-11-master-card.png") });
     await page.locator('[data-card="rotational"]').screenshot({ path: join(OUT, "pane-350-12-rotational-card.png") });
     await page.locator('table[data-block="masterfit"]').screenshot({ path: join(OUT, "pane-350-13-master-table.png") });
+    // the joined curve's chart: both data sets and the recommended model, legend in words
+    const joinedFigure = page.locator('figure[data-figure="rotational"]');
+    expect(await joinedFigure.locator("figcaption").textContent()).toBe("Rotational and capillary viscosity joined");
+    expect(await joinedFigure.locator(".legend li").allTextContents()).toEqual(["capillary data", "rotational data", expect.stringMatching(/ \(recommended\)$/)]);
+    expect(await joinedFigure.evaluate((f) => f.scrollWidth - f.clientWidth)).toBeLessThanOrEqual(0);
+    await joinedFigure.screenshot({ path: join(OUT, "pane-350-14-joined-chart.png") });
     await page.evaluate(() => document.querySelectorAll("details").forEach((d) => ((d as HTMLDetailsElement).open = true)));
     expect(await axeViolations(page, "fit across temperatures and rotational join")).toEqual([]);
     // an error of the new settings shows next to its field: a law-needing model without a law

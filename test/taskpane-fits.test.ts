@@ -11,6 +11,8 @@ import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { RheoError } from "../src/core/errors";
 import { defaultModels } from "../src/core/flowCurveFits";
+import { evaluateModel } from "../src/core/models";
+import { modelName } from "../src/io/displayNames";
 import { runReduction as coreRunReduction } from "../src/core/run";
 import { parseCsv } from "../src/io/csv";
 import { readRawTable } from "../src/io/rawTable";
@@ -241,5 +243,36 @@ describe("a run with the fit across temperatures and the demo rotational join", 
     const html = resultsHtml(run, plan, null);
     expect(html).toContain('data-card="masterfit"');
     expect(html).toContain('data-card="rotational"');
+  });
+
+  test("the results sheet and the pane draw the joined curve: both data sets as the join holds them, and the joined curve's recommended model through them", () => {
+    const plan = buildWorkbookPlan(run, META);
+    const j = run.joined as NonNullable<RunOutput["joined"]>;
+    const chart = plan.results.charts.find((c) => c.id === "rotational");
+    expect(chart?.xLog && chart?.yLog).toBe(true);
+    expect(chart?.series.map((x) => [x.name, x.style])).toEqual([
+      ["capillary data", "markers"],
+      ["rotational data", "markers"],
+      [`${modelName(j.fits.verdict.recommended as string)} (recommended)`, "line"],
+    ]);
+    const data = findBlock(plan.results, chart?.series[0]?.blockId as string);
+    const rowsOf = (k: number) => {
+      const sr = chart?.series[k] as NonNullable<typeof chart>["series"][number];
+      return data.rows.slice(sr.firstRow, sr.firstRow + sr.rowCount);
+    };
+    for (const [k, source] of [[0, "capillary"], [1, "rotational"]] as const) {
+      const expected = j.join.shearRate.map((rate, i) => [source, rate, j.join.viscosity[i]]).filter((_, i) => j.join.source[i] === source);
+      expect(rowsOf(k)).toEqual(expected);
+    }
+    // the model line spans the joined rates and is the recommended fit evaluated there
+    const line = rowsOf(2);
+    expect(line[0]?.[1]).toBeCloseTo(Math.min(...j.join.shearRate), 10);
+    expect(line[line.length - 1]?.[1]).toBeCloseTo(Math.max(...j.join.shearRate), 6);
+    const fit = j.fits.verdict.fit as NonNullable<typeof j.fits.verdict.fit>;
+    const eta = evaluateModel(fit.model, fit.parameters, line.map((r) => r[1] as number));
+    line.forEach((r, i) => expectClose(r[2] as number, eta[i] as number, { rel: 1e-12 }, `model line at ${String(r[1])} 1/s`));
+    // and the line passes through the joined data (the demo's curves come from one law)
+    j.join.shearRate.forEach((rate, i) => expectClose(evaluateModel(fit.model, fit.parameters, [rate])[0] as number, j.join.viscosity[i] as number, { rel: 0.1 }, `joined point at ${rate} 1/s`));
+    expect(resultsHtml(run, plan, null)).toContain("Rotational and capillary viscosity joined");
   });
 });

@@ -4,11 +4,14 @@
  * (or every model), n' against rate, and the master curve of a temperature shift. Colours are
  * ours: one per group (deep teal first, then amber, plum, ...), Bagley lines teal to amber.
  */
+import type { JoinedFit } from "../core/joinedFit";
+import { evaluateModel } from "../core/models";
 import type { ReductionGroup } from "../core/reduce";
+import { modelName } from "../io/displayNames";
 import { fromSI } from "../core/units";
 import { BlockDraft, DEFAULT_OUTPUT_UNITS as U, bar, fmt } from "./resultsFlowBlocks";
 import type { GroupFits } from "./runReduction";
-import { groupLabel } from "./runReduction";
+import { MODEL_CURVE_POINTS, groupLabel, logGrid } from "./runReduction";
 import type { CellValue, ChartSpec, SeriesSpec } from "./sheetPlan";
 import type { RunShift as ShiftOutput } from "../core/run";
 
@@ -95,6 +98,35 @@ export function masterChartData(shift: ShiftOutput): { block: BlockDraft; runs: 
     for (const k of idx) rows.push([name, m.shearRate[k] as number, m.viscosity[k] as number]);
   }
   return { block: { id: "masterdata", role: "chartData", title: "Master curve data (reduced to the reference temperature)", header: ["measured at", `aT·shear rate [${U.rate}]`, `viscosity/aT [${U.viscosity}]`], rows, numberFormats: [null, "0.000", "0.00"] }, runs };
+}
+
+/**
+ * The rotational join's chart data: the joined points by source (capillary, then rotational) and
+ * the recommended model of the joined curve on a log grid over their whole rate range, with the
+ * series that draw them (points as markers, the model as a line).
+ */
+export function joinedChartData(j: JoinedFit): { block: BlockDraft; series: Omit<SeriesSpec, "blockId">[] } {
+  const rows: CellValue[][] = [];
+  const series: Omit<SeriesSpec, "blockId">[] = [];
+  (["capillary", "rotational"] as const).forEach((source, k) => {
+    const firstRow = rows.length;
+    j.join.shearRate.forEach((rate, i) => {
+      if (j.join.source[i] === source) rows.push([source, rate, j.join.viscosity[i] ?? null]);
+    });
+    if (rows.length > firstRow) series.push({ name: `${source} data`, xColumn: 1, yColumn: 2, firstRow, rowCount: rows.length - firstRow, style: "markers", ...seriesLook(k) });
+  });
+  const { recommended, fit } = j.fits.verdict;
+  if (recommended && fit && j.join.shearRate.length > 0) {
+    const grid = logGrid(Math.min(...j.join.shearRate), Math.max(...j.join.shearRate), MODEL_CURVE_POINTS);
+    const eta = evaluateModel(recommended, fit.parameters, grid);
+    const firstRow = rows.length;
+    grid.forEach((rate, i) => rows.push([modelName(recommended), rate, Number.isFinite(eta[i]) ? (eta[i] as number) : null]));
+    series.push({ name: `${modelName(recommended)} (recommended)`, xColumn: 1, yColumn: 2, firstRow, rowCount: grid.length, style: "line", colour: GROUP_COLOURS[2] as string });
+  }
+  return {
+    block: { id: "rotationaldata", role: "chartData", title: "Rotational and capillary curves joined", header: ["source", `shear rate [${U.rate}]`, `viscosity [${U.viscosity}]`], rows, numberFormats: [null, "0.000", "0.00"] },
+    series,
+  };
 }
 
 /** The run's summary charts: flow curve, viscosity, n' and (with a shift) the master curve. */

@@ -16,7 +16,7 @@
 import { fromSI } from "../core/units";
 import { headerLabel, modelName } from "../io/displayNames";
 import { recommendedFit } from "./recommendedFit";
-import { GROUP_COLOURS, seriesLook, bagleyChart, bagleyChartData, masterChartData, modelChartData, summaryCharts } from "./resultsCharts";
+import { GROUP_COLOURS, seriesLook, bagleyChart, bagleyChartData, joinedChartData, masterChartData, modelChartData, summaryCharts } from "./resultsCharts";
 import { BlockDraft, DEFAULT_OUTPUT_UNITS, bagleyBlock, fitBlocks, flowBlock, fmt } from "./resultsFlowBlocks";
 import { methodBlocks, shiftBlocks, slipBlock } from "./resultsMethodBlocks";
 import { joinedBlocks, masterFitBlocks } from "./resultsFitBlocks";
@@ -132,12 +132,27 @@ export function buildResultsPlan(run: RunOutput, meta: PlanMeta): SheetPlan {
     for (const b of master) left.add(b);
   }
   const joined = joinedBlocks(run);
+  const joinedCharts: ChartSpec[] = [];
   if (joined.length > 0) {
     left.add({ id: "section-rotational", role: "heading", title: `Rotational data joined (${run.input.rotational?.label ?? "rotational curve"})`, rows: [] }, 0);
     for (const b of joined) left.add(b);
   }
+  if (run.joined) {
+    const data = joinedChartData(run.joined);
+    const block = right.add(data.block);
+    joinedCharts.push({
+      id: "rotational",
+      title: "Rotational and capillary viscosity joined",
+      xTitle: `shear rate [${U.rate}]`,
+      yTitle: `viscosity [${U.viscosity}]`,
+      xLog: true,
+      yLog: true,
+      series: data.series.map((s) => ({ ...s, blockId: block.id })),
+      anchor: { row: 0, col: 0, rows: 0, cols: 0 },
+    });
+  }
 
-  const charts = [...summaryCharts({ flow: flowSeries, viscosity: viscositySeries, nPrime: nPrimeSeries, master: masterSeries }, run.shift), ...bagleyCharts];
+  const charts = [...summaryCharts({ flow: flowSeries, viscosity: viscositySeries, nPrime: nPrimeSeries, master: masterSeries }, run.shift), ...joinedCharts, ...bagleyCharts];
   const tableRight = Math.max(...left.blocks.map((b) => b.col + blockLayout(b).width));
   const chartCol = Math.max(L.chartCol, tableRight + 1);
   const dataCol = chartCol + L.chartCols + 2;
