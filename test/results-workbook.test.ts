@@ -9,6 +9,7 @@
  *   - text stays text (no formula anywhere in the file), no NaN or Infinity in any cell.
  * The second readers (openpyxl, LibreOffice) open the same files in test/second-readers.test.ts.
  */
+import { execFileSync } from "node:child_process";
 import { createHash } from "node:crypto";
 import { copyFileSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
@@ -405,6 +406,36 @@ describe("results workbook of the invented yield-stress cream", () => {
     expectClose(value("tauY"), CREAM_YIELD.tauY, { rel: 0.1 }, "tauY");
     expectClose(value("K"), CREAM_YIELD.K, { rel: 0.1 }, "K");
     expectClose(value("n"), CREAM_YIELD.n, { rel: 0.05 }, "n");
+  });
+});
+
+describe("results workbook with the demo rotational curve joined (--rotational)", () => {
+  it("draws the joined curve: both data sets as the join holds them and the recommended model through them; openpyxl reads the chart and its table", async () => {
+    const run = await runOut(FILM, ["--rotational", path.join(ROOT, "workbooks/demo-film-grade-rotational.csv"), "--json"]);
+    expect(run.code).toBe(0);
+    const join = (JSON.parse(run.stdout) as { rotational: { verdict: { recommended: string } } }).rotational;
+    // the chart: last of the summary charts, three series (points, points, model line)
+    const charts = Object.keys(run.zip.files).filter((n) => /^xl\/charts\/chart\d+\.xml$/.test(n));
+    const xml = await Promise.all(charts.map((n) => (run.zip.file(n) as JSZip.JSZipObject).async("string")));
+    const joined = xml.find((x) => x.includes("<a:t>Rotational and capillary viscosity joined</a:t>")) as string;
+    expect(joined).toBeDefined();
+    expect((joined.match(/<c:logBase val="10"\/>/g) ?? []).length).toBe(2);
+    const names = [...joined.matchAll(/<c:ser>.*?<c:tx><c:v>([^<]*)<\/c:v><\/c:tx>/gs)].map((m) => m[1]);
+    const recommended = `${modelName(join.verdict.recommended)} (recommended)`;
+    expect(names).toEqual(["Viscosity, capillary", "Viscosity, rotational", `Model viscosity, ${recommended}`]);
+    // its table: the join's points by source, then the model on a grid over their rates
+    const table = sheetRows(run.wb, "Joined curve, data and model");
+    const body = table.filter((r) => typeof r[1] === "number");
+    const bySource = (s: string) => body.filter((r) => r[0] === s);
+    expect(bySource("capillary").length + bySource("rotational").length).toBe(body.length - bySource(recommended).length);
+    expect(bySource(recommended)).toHaveLength(24);
+    expect(bySource("rotational").length).toBeGreaterThan(5);
+    // openpyxl (Debian python3-openpyxl), a reader independent of exceljs, sees the same table and the chart
+    writeFileSync(path.join(run.dir, "joined.xlsx"), run.bytes);
+    const py = JSON.parse(execFileSync("/usr/bin/python3", [path.join(__dirname, "helpers/read_xlsx.py"), path.join(run.dir, "joined.xlsx")], { encoding: "utf8", maxBuffer: 64 << 20 }))[path.join(run.dir, "joined.xlsx")] as { sheets: { name: string; values: unknown[][]; charts: number }[] };
+    const pySheet = py.sheets.find((x) => x.name === "Joined curve, data and model");
+    expect(pySheet?.values.filter((r) => typeof r[1] === "number")).toEqual(body);
+    expect(py.sheets.find((x) => x.name === "Charts")?.charts).toBe(charts.length);
   });
 });
 

@@ -30,9 +30,10 @@ export const CHART_TITLES: Readonly<Record<ChartKind, string>> = Object.freeze({
   viscosity: "Viscosity",
   nPrime: "Flow index n′",
   master: "Master curve",
+  joined: "Rotational and capillary viscosity joined",
 });
 
-const KIND_ORDER: readonly ChartKind[] = ["bagley", "flowCurve", "viscosity", "nPrime", "master"];
+const KIND_ORDER: readonly ChartKind[] = ["bagley", "flowCurve", "viscosity", "nPrime", "master", "joined"];
 
 /** Where a series' values sit: table `table` (index in the list), its rows `rows`, columns `x` and `y`. */
 export interface SeriesSource {

@@ -19,6 +19,7 @@ import type { FitResult } from "../core/fit";
 import type { Undetermined } from "../core/fit/determination";
 import type { Verdict } from "../core/fit/verdict";
 import { CROSS_WLF_LITERATURE } from "../core/temperature/masterFit";
+import { logSpaced } from "../core/planner";
 import { displayUnit, modelName, parameterSymbol } from "./displayNames";
 import { DEFAULT_REDUCE_OPTIONS } from "../core/reduceTypes";
 import type { RunSteps } from "../core/steps/runSteps";
@@ -57,7 +58,7 @@ export interface ResultTable {
   /** keys of the columns to keep on a narrow screen */
   keyColumns?: string[];
   /** how a chart of this table is drawn (x and y column keys) */
-  chart?: { kind: "bagley" | "flowCurve" | "viscosity" | "nPrime" | "master"; x: string; y: string[]; logX?: boolean; logY?: boolean; seriesBy?: string };
+  chart?: { kind: "bagley" | "flowCurve" | "viscosity" | "nPrime" | "master" | "joined"; x: string; y: string[]; logX?: boolean; logY?: boolean; seriesBy?: string };
 }
 
 /**
@@ -65,7 +66,7 @@ export interface ResultTable {
  * the master curve): the workbook and the report show them with their charts; terminal text leaves
  * them out (their numbers are in the other tables or the input).
  */
-export const CHART_DATA_TABLES: ReadonlySet<string> = new Set(["bagleyPoints", "rabinowitsch", "master"]);
+export const CHART_DATA_TABLES: ReadonlySet<string> = new Set(["bagleyPoints", "rabinowitsch", "master", "joinedCurve"]);
 
 /** A header with its unit the way every surface prints it: "Wall shear stress [kPa]". */
 export function headerWithUnit(c: Pick<ResultColumn, "header" | "unit">): string {
@@ -733,6 +734,38 @@ export function joinedTable(run: Pick<ReductionRun, "joined">): ResultTable | nu
   return { ...t, notes: [overlap, `${j.join.shearRate.length} points (${j.join.source.filter((x) => x === "rotational").length} rotational) joined with ${j.groups.join(", ")}.`, ...(t.notes ?? [])] };
 }
 
+/** Points of the joined curve's recommended model in {@link joinedCurveTable}. */
+export const JOINED_MODEL_POINTS = 24;
+
+/**
+ * The joined curve for its chart: the capillary points, then the rotational points, as the join
+ * holds them (viscosity), then the recommended model of the joined curve on a log grid over their
+ * whole rate range (model viscosity).
+ */
+export function joinedCurveTable(run: Pick<ReductionRun, "joined">): ResultTable | null {
+  const j = run.joined;
+  if (!j || j.join.shearRate.length === 0) return null;
+  const rows: ResultTable["rows"] = [];
+  for (const source of ["capillary", "rotational"] as const) {
+    j.join.shearRate.forEach((rate, i) => {
+      if (j.join.source[i] === source) rows.push([source, v(rate), v(j.join.viscosity[i]), null]);
+    });
+  }
+  const { recommended, fit } = j.fits.verdict;
+  if (recommended && fit) {
+    const grid = logSpaced(Math.min(...j.join.shearRate), Math.max(...j.join.shearRate), JOINED_MODEL_POINTS);
+    const eta = evaluateModel(recommended, fit.parameters, grid);
+    grid.forEach((rate, i) => rows.push([`${modelName(recommended)} (recommended)`, v(rate), null, v(eta[i])]));
+  }
+  return {
+    id: "joinedCurve",
+    title: "Joined curve, data and model",
+    columns: [text("source", "Source"), num("shearRate", "Shear rate", "1/s"), num("viscosity", "Viscosity", "Pa·s"), num("modelViscosity", "Model viscosity", "Pa·s")],
+    rows,
+    chart: { kind: "joined", x: "shearRate", y: ["viscosity", "modelViscosity"], logX: true, logY: true, seriesBy: "source" },
+  };
+}
+
 /** The warnings table: every warning of the run, most serious first. */
 export function warningsTable(warnings: readonly Warning[]): ResultTable {
   const rank = { serious: 0, caution: 1, info: 2 } as const;
@@ -759,7 +792,7 @@ export function resultTables(run: ReductionRun): ResultTable[] {
   });
   if (steps && steps.unassigned.length > 0) tables.push({ ...stepsTable(steps.unassigned), title: "Steps of die runs with no point in the flow curve" });
   if (run.steps) tables.push(thermalChecksTable(run.steps.runs));
-  tables.push(slipTable(run), meltFlowTable(run), fitRankingTable(run), fitParameterTable(run), shiftTable(run), shiftConstantsTable(run), masterTable(run), ...masterFitTables(run), joinedTable(run), rowsTable(run), warningsTable(run.warnings));
+  tables.push(slipTable(run), meltFlowTable(run), fitRankingTable(run), fitParameterTable(run), shiftTable(run), shiftConstantsTable(run), masterTable(run), ...masterFitTables(run), joinedTable(run), joinedCurveTable(run), rowsTable(run), warningsTable(run.warnings));
   return tables.filter((t): t is ResultTable => t !== null);
 }
 

@@ -4,14 +4,12 @@
  * (or every model), n' against rate, and the master curve of a temperature shift. Colours are
  * ours: one per group (deep teal first, then amber, plum, ...), Bagley lines teal to amber.
  */
-import type { JoinedFit } from "../core/joinedFit";
-import { evaluateModel } from "../core/models";
 import type { ReductionGroup } from "../core/reduce";
-import { modelName } from "../io/displayNames";
+import type { ResultTable } from "../io/resultTables";
 import { fromSI } from "../core/units";
 import { BlockDraft, DEFAULT_OUTPUT_UNITS as U, bar, fmt } from "./resultsFlowBlocks";
 import type { GroupFits } from "./runReduction";
-import { MODEL_CURVE_POINTS, groupLabel, logGrid } from "./runReduction";
+import { groupLabel } from "./runReduction";
 import type { CellValue, ChartSpec, SeriesSpec } from "./sheetPlan";
 import type { RunShift as ShiftOutput } from "../core/run";
 
@@ -101,30 +99,29 @@ export function masterChartData(shift: ShiftOutput): { block: BlockDraft; runs: 
 }
 
 /**
- * The rotational join's chart data: the joined points by source (capillary, then rotational) and
- * the recommended model of the joined curve on a log grid over their whole rate range, with the
- * series that draw them (points as markers, the model as a line).
+ * The rotational join's chart data from the shared table (src/io/resultTables.ts joinedCurveTable:
+ * the capillary points, the rotational points, then the recommended model on a log grid), with
+ * the series that draw them: points as markers, the model as a line.
  */
-export function joinedChartData(j: JoinedFit): { block: BlockDraft; series: Omit<SeriesSpec, "blockId">[] } {
-  const rows: CellValue[][] = [];
+export function joinedChartData(table: ResultTable): { block: BlockDraft; series: Omit<SeriesSpec, "blockId">[] } {
+  // source, shear rate, and the viscosity of a point or of the model
+  const rows: CellValue[][] = table.rows.map((r) => [r[0] ?? null, r[1] ?? null, (r[2] ?? r[3] ?? null) as CellValue]);
   const series: Omit<SeriesSpec, "blockId">[] = [];
-  (["capillary", "rotational"] as const).forEach((source, k) => {
-    const firstRow = rows.length;
-    j.join.shearRate.forEach((rate, i) => {
-      if (j.join.source[i] === source) rows.push([source, rate, j.join.viscosity[i] ?? null]);
-    });
-    if (rows.length > firstRow) series.push({ name: `${source} data`, xColumn: 1, yColumn: 2, firstRow, rowCount: rows.length - firstRow, style: "markers", ...seriesLook(k) });
-  });
-  const { recommended, fit } = j.fits.verdict;
-  if (recommended && fit && j.join.shearRate.length > 0) {
-    const grid = logGrid(Math.min(...j.join.shearRate), Math.max(...j.join.shearRate), MODEL_CURVE_POINTS);
-    const eta = evaluateModel(recommended, fit.parameters, grid);
-    const firstRow = rows.length;
-    grid.forEach((rate, i) => rows.push([modelName(recommended), rate, Number.isFinite(eta[i]) ? (eta[i] as number) : null]));
-    series.push({ name: `${modelName(recommended)} (recommended)`, xColumn: 1, yColumn: 2, firstRow, rowCount: grid.length, style: "line", colour: GROUP_COLOURS[2] as string });
+  let firstRow = 0;
+  for (let i = 1; i <= table.rows.length; i++) {
+    const source = table.rows[firstRow]?.[0];
+    if (i < table.rows.length && table.rows[i]?.[0] === source) continue;
+    const isModel = table.rows[firstRow]?.[3] !== null;
+    const k = series.length;
+    series.push(
+      isModel
+        ? { name: String(source), xColumn: 1, yColumn: 2, firstRow, rowCount: i - firstRow, style: "line", colour: GROUP_COLOURS[2] as string }
+        : { name: `${String(source)} data`, xColumn: 1, yColumn: 2, firstRow, rowCount: i - firstRow, style: "markers", ...seriesLook(k) },
+    );
+    firstRow = i;
   }
   return {
-    block: { id: "rotationaldata", role: "chartData", title: "Rotational and capillary curves joined", header: ["source", `shear rate [${U.rate}]`, `viscosity [${U.viscosity}]`], rows, numberFormats: [null, "0.000", "0.00"] },
+    block: { id: "rotationaldata", role: "chartData", title: table.title, header: ["source", `shear rate [${U.rate}]`, `viscosity [${U.viscosity}]`], rows, numberFormats: [null, "0.000", "0.00"] },
     series,
   };
 }

@@ -15,6 +15,7 @@
  */
 import { fromSI } from "../core/units";
 import { headerLabel, modelName } from "../io/displayNames";
+import { joinedCurveTable } from "../io/resultTables";
 import { recommendedFit } from "./recommendedFit";
 import { GROUP_COLOURS, seriesLook, bagleyChart, bagleyChartData, joinedChartData, masterChartData, modelChartData, summaryCharts } from "./resultsCharts";
 import { BlockDraft, DEFAULT_OUTPUT_UNITS, bagleyBlock, fitBlocks, flowBlock, fmt } from "./resultsFlowBlocks";
@@ -137,8 +138,9 @@ export function buildResultsPlan(run: RunOutput, meta: PlanMeta): SheetPlan {
     left.add({ id: "section-rotational", role: "heading", title: `Rotational data joined (${run.input.rotational?.label ?? "rotational curve"})`, rows: [] }, 0);
     for (const b of joined) left.add(b);
   }
-  if (run.joined) {
-    const data = joinedChartData(run.joined);
+  const joinedCurve = joinedCurveTable({ joined: run.joined ?? undefined });
+  if (joinedCurve) {
+    const data = joinedChartData(joinedCurve);
     const block = right.add(data.block);
     joinedCharts.push({
       id: "rotational",

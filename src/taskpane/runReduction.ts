@@ -133,8 +133,7 @@ export function toFieldError(error: unknown): PaneFieldError {
 import { groupLabel } from "../core/grouping";
 export { groupLabel };
 
-/** n rates spaced evenly in ln γ̇ from lo to hi (the charts' model curves). */
-export function logGrid(lo: number, hi: number, n: number): number[] {
+function logGrid(lo: number, hi: number, n: number): number[] {
   if (!(hi > lo)) return [lo];
   const a = Math.log(lo);
   const b = Math.log(hi);
