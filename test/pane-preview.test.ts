@@ -31,7 +31,7 @@ import { fitCurve } from "../src/core/flowCurveFits";
 import { runReduction as coreRunReduction } from "../src/core/run";
 import { readRotationalTable } from "../src/io/rotationalTable";
 import { modelName } from "../src/io/displayNames";
-import { CHROMIUM, OUT, ROOT, ensureBuild, haveChromium, serveDist } from "./helpers/paneBrowser";
+import { CHROMIUM, OUT, ROOT, ensureBuild, haveChromium, loadAxe, serveDist } from "./helpers/paneBrowser";
 
 const OFFICE_DIST = join(ROOT, "node_modules/@microsoft/office-js/dist");
 // In CI (.ci/run installs chromium) a missing browser is a failure, never a silent skip.
@@ -121,7 +121,7 @@ maybe("task pane preview mode (chromium)", () => {
 
   /** Runs axe-core on the page (WCAG 2.1 A and AA) and returns the violations, one line each. */
   async function axeViolations(page: Page, state: string): Promise<string[]> {
-    if (!(await page.evaluate(() => "axe" in window))) await page.addScriptTag({ url: `${origin}/__axe.js` });
+    await loadAxe(page, origin);
     const found = await page.evaluate(async (tags) => {
       const axe = (window as unknown as { axe: { run: (ctx: Document, o: object) => Promise<{ violations: { id: string; impact: string; nodes: { target: string[] }[] }[] }> } }).axe;
       const r = await axe.run(document, { runOnly: { type: "tag", values: tags } });

@@ -111,9 +111,29 @@ export async function openPane(rig: PaneRig, width: number): Promise<{ page: Pag
   return { page, errors };
 }
 
+/**
+ * Loads the accessibility checker into the page from the local server (same origin, allowed by
+ * the page's CSP), waiting for its script to load. Not page.addScriptTag: that fails on any CSP
+ * report the page raises while the script loads, whatever caused it.
+ */
+export async function loadAxe(page: Page, origin: string): Promise<void> {
+  if (await page.evaluate(() => "axe" in window)) return;
+  await page.evaluate(
+    (src) =>
+      new Promise<void>((resolve, reject) => {
+        const script = document.createElement("script");
+        script.src = src;
+        script.onload = () => resolve();
+        script.onerror = () => reject(new Error(`the accessibility checker did not load from ${src}`));
+        document.head.appendChild(script);
+      }),
+    `${origin}/__axe.js`,
+  );
+}
+
 /** Runs axe-core on the page (WCAG 2.1 A and AA) and returns the violations, one line each. */
 export async function axeViolations(rig: PaneRig, page: Page, state: string): Promise<string[]> {
-  if (!(await page.evaluate(() => "axe" in window))) await page.addScriptTag({ url: `${rig.origin}/__axe.js` });
+  await loadAxe(page, rig.origin);
   const found = await page.evaluate(async (tags) => {
     const axe = (window as unknown as { axe: { run: (ctx: Document, o: object) => Promise<{ violations: { id: string; impact: string; nodes: { target: string[] }[] }[] }> } }).axe;
     const r = await axe.run(document, { runOnly: { type: "tag", values: tags } });
