@@ -19,7 +19,7 @@ import type { Measurement } from "../core/reduceTypes";
 import { type PlausibleKey, checkPlausible, plausibilityText } from "../core/plausibility";
 import { type RowAccount, RowList, countText, emptyRowAccount } from "../core/rowAccount";
 import { COLUMN_QUANTITIES, ColumnInfo, ColumnName, readHeader } from "./headers";
-import { type CellPlace, type DecimalMark, type PendingCell, TableNumberReader, ambiguityText, readAlone } from "./numberText";
+import { type CellPlace, type DecimalMark, type PendingCell, TableNumberReader, ambiguityText, plainDecimalAt, readAlone } from "./numberText";
 import { excerpt } from "./safeText";
 
 /** Most data rows one table may hold: as many as one Excel sheet holds below its header row. */
@@ -147,15 +147,11 @@ interface DeferredRow {
   values: Float64Array;
 }
 
-/** Exact powers of ten 10^0 … 10^15 (all below 2^53). */
-const POWERS_OF_TEN = Float64Array.from({ length: 16 }, (_, k) => 10 ** k);
-
 /**
  * The needed cells of one unquoted line read as plain decimals into `values` (by slot; NaN for a
  * blank or missing cell); returns the number of blank cells, or -1 when a needed cell is not a
- * plain decimal written with `markCode` (then the caller reads the line the general way). A plain
- * decimal: an optional "-", digits with at most one mark among or around them, at most 15
- * characters (see RawTableReader.addLine for why the value equals Number()'s).
+ * plain decimal written with `markCode` (then the caller reads the line the general way).
+ * The cells are read in place by {@link plainDecimalAt}, without a string per cell.
  */
 function readPlainCells(text: string, delimiter: string, markCode: number, slotAtColumn: Int32Array, values: Float64Array): number {
   values.fill(NaN);
@@ -168,26 +164,9 @@ function readPlainCells(text: string, delimiter: string, markCode: number, slotA
     if (end < 0) end = n;
     const slot = slotAtColumn[column] as number;
     if (slot >= 0 && end > start) {
-      if (end - start > 15) return -1;
-      let i = start;
-      const negative = text.charCodeAt(i) === 45;
-      if (negative) i++;
-      let mantissa = 0;
-      let digits = 0;
-      let decimals = 0;
-      let marks = 0;
-      for (; i < end; i++) {
-        const c = text.charCodeAt(i);
-        if (c >= 48 && c <= 57) {
-          mantissa = mantissa * 10 + (c - 48);
-          digits++;
-          decimals += marks;
-        } else if (c === markCode && marks === 0) marks = 1;
-        else return -1;
-      }
-      if (digits === 0) return -1;
-      const magnitude = mantissa / (POWERS_OF_TEN[decimals] as number);
-      values[slot] = negative ? -magnitude : magnitude;
+      const value = plainDecimalAt(text, start, end, markCode);
+      if (value !== value) return -1;
+      values[slot] = value;
       blanks--;
     }
     column++;
@@ -347,10 +326,7 @@ export class RawTableReader {
    * characters ("190.3", "-5", "0,25" in a decimal-comma table), the cells are read straight from
    * the text without splitting it into cell strings; any other line goes through {@link add}.
    *
-   * The values are the same bit for bit: such a cell has at most 14 digits, an integer m < 2^53,
-   * and its value is m / 10^k with 10^k exact (k ≤ 14); one IEEE division rounds m / 10^k
-   * correctly, as Number() does for the text (the exact fast path of decimal input, W. D. Clinger,
-   * "How to read floating point numbers accurately", PLDI 1990).
+   * The values are the same bit for bit as the general path's (see plainDecimalAt in numberText.ts).
    */
   addLine(text: string, delimiter: string, number: number): void {
     const mark = this.numbers.mark;
