@@ -5,6 +5,7 @@
  * ours: one per group (deep teal first, then amber, plum, ...), Bagley lines teal to amber.
  */
 import type { ReductionGroup } from "../core/reduce";
+import { CHART_TITLES } from "../io/resultCharts";
 import type { ResultTable } from "../io/resultTables";
 import { fromSI } from "../core/units";
 import { BlockDraft, DEFAULT_OUTPUT_UNITS as U, bar, fmt } from "./resultsFlowBlocks";
@@ -123,6 +124,20 @@ export function joinedChartData(table: ResultTable): { block: BlockDraft; series
   return {
     block: { id: "rotationaldata", role: "chartData", title: table.title, header: ["source", `shear rate [${U.rate}]`, `viscosity [${U.viscosity}]`], rows, numberFormats: [null, "0.000", "0.00"] },
     series,
+  };
+}
+
+/** The chart of the rotational join over its data block (series from {@link joinedChartData}); the title is the results workbook's. */
+export function joinedChart(blockId: string, series: Omit<SeriesSpec, "blockId">[]): ChartSpec {
+  return {
+    id: "rotational",
+    title: CHART_TITLES.joined,
+    xTitle: `shear rate [${U.rate}]`,
+    yTitle: `viscosity [${U.viscosity}]`,
+    xLog: true,
+    yLog: true,
+    series: series.map((s) => ({ ...s, blockId })),
+    anchor: { ...UNPLACED },
   };
 }
 

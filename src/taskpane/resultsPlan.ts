@@ -17,7 +17,7 @@ import { fromSI } from "../core/units";
 import { headerLabel, modelName } from "../io/displayNames";
 import { joinedCurveTable } from "../io/resultTables";
 import { recommendedFit } from "./recommendedFit";
-import { GROUP_COLOURS, seriesLook, bagleyChart, bagleyChartData, joinedChartData, masterChartData, modelChartData, summaryCharts } from "./resultsCharts";
+import { GROUP_COLOURS, seriesLook, bagleyChart, bagleyChartData, joinedChart, joinedChartData, masterChartData, modelChartData, summaryCharts } from "./resultsCharts";
 import { BlockDraft, DEFAULT_OUTPUT_UNITS, bagleyBlock, fitBlocks, flowBlock, fmt } from "./resultsFlowBlocks";
 import { methodBlocks, shiftBlocks, slipBlock } from "./resultsMethodBlocks";
 import { joinedBlocks, masterFitBlocks } from "./resultsFitBlocks";
@@ -142,16 +142,7 @@ export function buildResultsPlan(run: RunOutput, meta: PlanMeta): SheetPlan {
   if (joinedCurve) {
     const data = joinedChartData(joinedCurve);
     const block = right.add(data.block);
-    joinedCharts.push({
-      id: "rotational",
-      title: "Rotational and capillary viscosity joined",
-      xTitle: `shear rate [${U.rate}]`,
-      yTitle: `viscosity [${U.viscosity}]`,
-      xLog: true,
-      yLog: true,
-      series: data.series.map((s) => ({ ...s, blockId: block.id })),
-      anchor: { row: 0, col: 0, rows: 0, cols: 0 },
-    });
+    joinedCharts.push(joinedChart(block.id, data.series));
   }
 
   const charts = [...summaryCharts({ flow: flowSeries, viscosity: viscositySeries, nPrime: nPrimeSeries, master: masterSeries }, run.shift), ...joinedCharts, ...bagleyCharts];
